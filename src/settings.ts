@@ -1,0 +1,133 @@
+// Every tunable of the analysis, with its default. The CLI, the settings file (--settings FILE.json),
+// the viewer and the outputs all read this one table, so documentation and code cannot drift apart.
+// Each entry says what it does and why its default was chosen.
+
+export interface IngestSettings {
+  /** field delimiter; null = detect (comma, semicolon, tab) */
+  delimiter: string | null;
+  /** decimal mark; null = detect ('.' or ',') */
+  decimal: '.' | ',' | null;
+  time_col: string | null;
+  flow_col: string | null;
+  co2_col: string | null;
+  /** 's' | 'ms' | 'clock' (ISO 8601 date-time or HH:MM:SS.fff); null = detect */
+  time_unit: 's' | 'ms' | 'clock' | null;
+  /** sampling rate when the file has no time column */
+  rate_hz: number | null;
+  flow_unit: 'L/s' | 'L/min' | 'mL/s' | null;
+  co2_unit: 'mmHg' | 'kPa' | '%' | null;
+  /** barometric pressure for % conversion, mmHg */
+  pb_mmhg: number;
+  /** 'ambient': PCO2 = F x PB; 'dry': PCO2 = F x (PB - 47) (primer 7.2) */
+  co2_percent: 'ambient' | 'dry';
+  /** sign of expiratory flow in the file; null = infer (CO2 rises while the patient breathes out) */
+  expiration: 'positive' | 'negative' | null;
+  /** a channel silent for longer than this is a gap, s */
+  max_silence_s: number;
+}
+
+export interface AnalysisSettings {
+  /** CO2-to-flow transport delay, s; null = estimate */
+  delay_s: number | null;
+  /** CO2 sensor first-order time constant, ms; null = estimate from the inspiratory downstroke */
+  response_ms: number | null;
+  /** flow zero offset, L/s; null = estimate */
+  flow_offset_lps: number | null;
+  /** seconds of data used to estimate sign, delay, response and offset before streaming */
+  calibration_s: number;
+  /** hysteresis: a phase starts when |flow| exceeds this fraction of the typical peak flow */
+  flow_threshold_fraction: number;
+  /** minimum breath volume as a fraction of the running median tidal volume */
+  min_volume_fraction: number;
+  /** minimum duration of an expiration or inspiration, s */
+  min_phase_s: number;
+  /** PETCO2 definition (primer 5.4) */
+  petco2_method: 'line_end' | 'last' | 'max' | 'mean_last';
+  /** for petco2_method 'mean_last': share of expired volume averaged */
+  petco2_last_fraction: number;
+  /** phase III regression window (primer 4) */
+  phase3_window: 'middle_half' | 'all' | 'middle_half_vd';
+  /** phase III starts where the phase II slope has fallen to this fraction of its maximum */
+  phase3_slope_fraction: number;
+  /** samples with expiratory flow below this fraction of peak expiratory flow are left out of the phase III fit */
+  phase3_low_flow_fraction: number;
+  /** Fowler upper limit V_x: end of expiration or start of the regression window (primer 3.1) */
+  fowler_limit: 'end' | 'window_start';
+  /** alveolar PCO2 for Bohr: midpoint of phase III (primer 5.6) or mean alveolar expired PCO2 */
+  alveolar_method: 'phase3_mid' | 'mean_alveolar';
+  /** Bohr with the inspired CO2 term (primer 6.1) */
+  bohr_inspired_term: boolean;
+  /** apparatus volume between sensor and patient to subtract from airway dead space, mL */
+  apparatus_ml: number;
+  /** arterial PCO2 for Enghoff, mmHg */
+  paco2_mmhg: number | null;
+  /** body temperature for STPD conversion, deg C */
+  body_temp_c: number;
+  // quality thresholds (issue: breath quality control)
+  min_phase3_points: number;
+  min_phase3_ml: number;
+  min_phase3_r2: number;
+  leak_fraction: number;
+  rebreathing_mmhg: number;
+  outlier_mad: number;
+  min_petco2_mmhg: number;
+  max_co2_mmhg: number;
+  delay_spread_s: number;
+  min_rate_hz: number;
+}
+
+export interface Settings {
+  ingest: IngestSettings;
+  analysis: AnalysisSettings;
+}
+
+export const DEFAULT_INGEST: IngestSettings = {
+  delimiter: null,
+  decimal: null,
+  time_col: null,
+  flow_col: null,
+  co2_col: null,
+  time_unit: null,
+  rate_hz: null,
+  flow_unit: null,
+  co2_unit: null,
+  pb_mmhg: 760,
+  co2_percent: 'ambient',
+  expiration: null,
+  max_silence_s: 0.5,
+};
+
+export const DEFAULT_ANALYSIS: AnalysisSettings = {
+  delay_s: null,
+  response_ms: null,
+  flow_offset_lps: null,
+  calibration_s: 120,
+  flow_threshold_fraction: 0.06,
+  min_volume_fraction: 0.2,
+  min_phase_s: 0.15,
+  petco2_method: 'line_end',
+  petco2_last_fraction: 0.1,
+  phase3_window: 'middle_half',
+  phase3_slope_fraction: 0.1,
+  phase3_low_flow_fraction: 0.1,
+  fowler_limit: 'end',
+  alveolar_method: 'phase3_mid',
+  bohr_inspired_term: true,
+  apparatus_ml: 0,
+  paco2_mmhg: null,
+  body_temp_c: 37,
+  min_phase3_points: 6,
+  min_phase3_ml: 30,
+  min_phase3_r2: 0.0,
+  leak_fraction: 0.15,
+  rebreathing_mmhg: 3,
+  outlier_mad: 5,
+  min_petco2_mmhg: 10,
+  max_co2_mmhg: 150,
+  delay_spread_s: 0.25,
+  min_rate_hz: 20,
+};
+
+export function defaultSettings(): Settings {
+  return { ingest: { ...DEFAULT_INGEST }, analysis: { ...DEFAULT_ANALYSIS } };
+}
