@@ -47,8 +47,8 @@ export interface AnalysisSettings {
   petco2_last_fraction: number;
   /** phase III regression window (primer 4) */
   phase3_window: 'middle_half' | 'all' | 'middle_half_vd';
-  /** phase III starts where the phase II slope has fallen to this fraction of its maximum */
-  phase3_slope_fraction: number;
+  /** phase III starts where CO2 first reaches this fraction of the (preliminary) phase III line after the inflection */
+  phase3_level_fraction: number;
   /** samples with expiratory flow below this fraction of peak expiratory flow are left out of the phase III fit */
   phase3_low_flow_fraction: number;
   /** Fowler upper limit V_x: end of expiration or start of the regression window (primer 3.1) */
@@ -65,14 +65,21 @@ export interface AnalysisSettings {
   body_temp_c: number;
   // quality thresholds (issue: breath quality control)
   min_phase3_points: number;
+  /** phase III must span at least this volume (mL) and this share of the expired volume */
   min_phase3_ml: number;
+  min_phase3_fraction: number;
+  /** R² floor of the phase III fit (0 disables; a flat plateau has a low R² by nature) */
   min_phase3_r2: number;
+  /** residual RMS ceiling of the phase III fit, mmHg */
+  max_phase3_rms_mmhg: number;
   leak_fraction: number;
   rebreathing_mmhg: number;
   outlier_mad: number;
   min_petco2_mmhg: number;
   max_co2_mmhg: number;
   delay_spread_s: number;
+  /** longest transport delay searched when estimating it, s */
+  max_delay_s: number;
   min_rate_hz: number;
 }
 
@@ -108,7 +115,7 @@ export const DEFAULT_ANALYSIS: AnalysisSettings = {
   petco2_method: 'line_end',
   petco2_last_fraction: 0.1,
   phase3_window: 'middle_half',
-  phase3_slope_fraction: 0.1,
+  phase3_level_fraction: 0.95,
   phase3_low_flow_fraction: 0.1,
   fowler_limit: 'end',
   alveolar_method: 'phase3_mid',
@@ -117,14 +124,17 @@ export const DEFAULT_ANALYSIS: AnalysisSettings = {
   paco2_mmhg: null,
   body_temp_c: 37,
   min_phase3_points: 6,
-  min_phase3_ml: 30,
+  min_phase3_ml: 2,
+  min_phase3_fraction: 0.08,
   min_phase3_r2: 0.0,
+  max_phase3_rms_mmhg: 2.5,
   leak_fraction: 0.15,
   rebreathing_mmhg: 3,
   outlier_mad: 5,
   min_petco2_mmhg: 10,
   max_co2_mmhg: 150,
   delay_spread_s: 0.25,
+  max_delay_s: 5,
   min_rate_hz: 20,
 };
 

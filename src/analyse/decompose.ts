@@ -1,0 +1,428 @@
+// One breath -> its volumetric capnogram and every per-breath metric (primer sections 2-6).
+//
+// Inputs are the breath's samples on the flow time base with two aligned CO2 signals (see align.ts):
+// `fast` (response-compensated) for areas, end-tidal values and phase II geometry, and `slow` (raw, lag-shifted,
+// less noisy) for the phase III regression. Outputs a BreathRow (NaN = not computable) plus the geometry the viewer
+// draws. Quality codes are attached by quality.ts.
+
+import { SimpleLinearRegression } from 'ml-regression';
+import type { AnalysisSettings } from '../settings.js';
+import type { BreathRow } from '../types.js';
+import { fowlerDeadSpace } from './fowler.js';
+
+export interface BreathSignals {
+  t_s: ArrayLike<number>;
+  flow_lps: ArrayLike<number>;
+  fast_mmhg: ArrayLike<number>;
+  slow_mmhg: ArrayLike<number>;
+  /** local index of the first sample at/after each boundary */
+  i_insp: number;
+  i_exp: number;
+  i_end: number;
+  t_insp_s: number;
+  t_exp_s: number;
+  t_end_s: number;
+}
+
+export interface BreathContext {
+  breath: number;
+  delay_s: number;
+  settings: AnalysisSettings;
+}
+
+/** Geometry of the decomposition, for review and plotting. Volumes mL from the start of expiration, CO2 mmHg. */
+export interface BreathGeometry {
+  v_ml: Float64Array;
+  co2_mmhg: Float64Array;
+  co2_slow_mmhg: Float64Array;
+  /** phase III line P = intercept + slope * V (absolute mmHg; V in mL) */
+  line_intercept_mmhg: number;
+  line_slope_mmhg_per_ml: number;
+  fit_from_ml: number;
+  fit_to_ml: number;
+  fit_points: number;
+  fit_rms_mmhg: number;
+  fowler_limit_ml: number;
+  baseline_mmhg: number;
+  non_monotonic_samples: number;
+  peak_exp_flow_lps: number;
+  max_dt_s: number;
+  top_run: number;
+  min_co2_mmhg: number;
+  max_co2_mmhg: number;
+}
+
+export interface BreathDecomposition {
+  row: BreathRow;
+  geometry: BreathGeometry;
+  /** reasons found during decomposition (quality.ts adds the rest) */
+  flags: string[];
+}
+
+/** mL STPD of CO2 per (mmHg x mL) of PCO2-volume area at body temperature (primer 5.1, ideal gas). */
+export function stpdFactor(bodyTempC: number): number {
+  return 273.15 / (273.15 + bodyTempC) / 760;
+}
+
+export function decomposeBreath(s: BreathSignals, ctx: BreathContext): BreathDecomposition {
+  const cfg = ctx.settings;
+  const flags: string[] = [];
+  const { t_s: t, flow_lps: f, fast_mmhg: pf, slow_mmhg: ps } = s;
+
+  // ---- inspiration: volume and inspired CO2 (trapezoid, boundaries at zero flow)
+  let vti = 0;
+  let areaInsp = 0;
+  let maxDt = 0;
+  {
+    let tp = s.t_insp_s;
+    let fp = 0;
+    let pp = at(t, pf, s.t_insp_s);
+    for (let i = s.i_insp; i <= s.i_exp; i++) {
+      const ti = i < s.i_exp ? t[i]! : s.t_exp_s;
+      const fi = i < s.i_exp ? f[i]! : 0;
+      const pi = i < s.i_exp ? pf[i]! : at(t, pf, s.t_exp_s);
+      const dt = ti - tp;
+      if (dt > maxDt) maxDt = dt;
+      vti -= 500 * (fi + fp) * dt;
+      areaInsp -= 500 * (pi * fi + pp * fp) * dt;
+      tp = ti;
+      fp = fi;
+      pp = pi;
+    }
+  }
+
+  // ---- expiration: V(t), CO2 area, monotone curve
+  const m = s.i_end - s.i_exp + 2;
+  const T = new Float64Array(m);
+  const F = new Float64Array(m);
+  const PF = new Float64Array(m);
+  const PS = new Float64Array(m);
+  T[0] = s.t_exp_s;
+  PF[0] = at(t, pf, s.t_exp_s);
+  PS[0] = at(t, ps, s.t_exp_s);
+  for (let i = s.i_exp, k = 1; i < s.i_end; i++, k++) {
+    T[k] = t[i]!;
+    F[k] = f[i]!;
+    PF[k] = pf[i]!;
+    PS[k] = ps[i]!;
+  }
+  T[m - 1] = s.t_end_s;
+  PF[m - 1] = at(t, pf, s.t_end_s);
+  PS[m - 1] = at(t, ps, s.t_end_s);
+  const V = new Float64Array(m);
+  let areaExp = 0;
+  let peakFlow = 0;
+  for (let k = 1; k < m; k++) {
+    const dt = T[k]! - T[k - 1]!;
+    if (dt > maxDt) maxDt = dt;
+    V[k] = V[k - 1]! + 500 * (F[k]! + F[k - 1]!) * dt;
+    areaExp += 500 * (PF[k]! * F[k]! + PF[k - 1]! * F[k - 1]!) * dt;
+    if (F[k]! > peakFlow) peakFlow = F[k]!;
+  }
+  const vte = V[m - 1]!;
+  const keep: number[] = [0];
+  let vmax = 0;
+  for (let k = 1; k < m; k++) {
+    if (V[k]! > vmax) {
+      keep.push(k);
+      vmax = V[k]!;
+    }
+  }
+  const nonMonotonic = m - keep.length;
+  const M = keep.length;
+  const cv = new Float64Array(M);
+  const cp = new Float64Array(M);
+  const cs = new Float64Array(M);
+  const cf = new Float64Array(M);
+  for (let j = 0; j < M; j++) {
+    const k = keep[j]!;
+    cv[j] = V[k]!;
+    cp[j] = PF[k]!;
+    cs[j] = PS[k]!;
+    cf[j] = F[k]!;
+  }
+
+  // ---- CO2 volumes (primer 5.1), inspired level (5.3), mixed expired PCO2 (5.2)
+  const k = stpdFactor(cfg.body_temp_c);
+  const veco2 = k * areaExp;
+  const vico2 = k * areaInsp;
+  const fico2 = vti > 0 ? areaInsp / vti : NaN;
+  const peco2 = vte > 0 ? areaExp / vte : NaN;
+  const base = Number.isFinite(fico2) ? Math.max(0, fico2) : 0;
+
+  let topRun = 0;
+  let minCo2 = Infinity;
+  let maxCo2 = -Infinity;
+  {
+    let run = 0;
+    for (let j = s.i_insp; j < s.i_end; j++) {
+      const v = ps[j]!;
+      if (v < minCo2) minCo2 = v;
+      if (v > maxCo2) {
+        maxCo2 = v;
+        run = 1;
+      } else if (v === maxCo2) run++;
+      if (v === maxCo2 && run > topRun) topRun = run;
+    }
+  }
+
+  const row: BreathRow = {
+    breath: ctx.breath,
+    t_start_s: s.t_insp_s,
+    t_exp_start_s: s.t_exp_s,
+    t_end_s: s.t_end_s,
+    status: 'ok',
+    rr_bpm: 60 / (s.t_end_s - s.t_insp_s),
+    ti_s: s.t_exp_s - s.t_insp_s,
+    te_s: s.t_end_s - s.t_exp_s,
+    vt_insp_ml: vti,
+    vt_exp_ml: vte,
+    vd_aw_ml: NaN,
+    vd_inflection_ml: NaN,
+    v_phase2_start_ml: NaN,
+    v_phase3_start_ml: NaN,
+    slope2_mmhg_per_l: NaN,
+    slope3_mmhg_per_l: NaN,
+    slope3_norm_per_l: NaN,
+    slope3_r2: NaN,
+    petco2_mmhg: NaN,
+    peco2_mmhg: peco2,
+    paeco2_mmhg: NaN,
+    alv_co2_mmhg: NaN,
+    vtco2_ml: veco2 - vico2,
+    veco2_ml: veco2,
+    vico2_ml: vico2,
+    fico2_mmhg: fico2,
+    vd_bohr_ml: NaN,
+    vdvt_bohr: NaN,
+    vd_alv_ml: NaN,
+    vd_enghoff_ml: NaN,
+    vdvt_enghoff: NaN,
+    delay_s: ctx.delay_s,
+    flags,
+  };
+  const geometry: BreathGeometry = {
+    v_ml: cv,
+    co2_mmhg: cp,
+    co2_slow_mmhg: cs,
+    line_intercept_mmhg: NaN,
+    line_slope_mmhg_per_ml: NaN,
+    fit_from_ml: NaN,
+    fit_to_ml: NaN,
+    fit_points: 0,
+    fit_rms_mmhg: NaN,
+    fowler_limit_ml: NaN,
+    baseline_mmhg: base,
+    non_monotonic_samples: nonMonotonic,
+    peak_exp_flow_lps: peakFlow,
+    max_dt_s: maxDt,
+    top_run: topRun,
+    min_co2_mmhg: minCo2,
+    max_co2_mmhg: maxCo2,
+  };
+
+  if (!(vte > 0) || M < 6 || row.te_s < cfg.min_phase_s) {
+    flags.push('short_exp');
+    return { row, geometry, flags };
+  }
+
+  // ---- preliminary phase III line on the slow signal over the second half of the expirate
+  const lowFlow = cfg.phase3_low_flow_fraction * peakFlow;
+  const prelim = fitWindow(cv, cs, cf, 0.5 * vte, vte, lowFlow, base);
+  const lineAt = (L: { a: number; b: number }, v: number) => L.a + L.b * v;
+  if (!prelim) {
+    flags.push('no_phase3');
+    return { row, geometry, flags };
+  }
+
+  // ---- phase II: steepest point of the compensated curve (inflection), smoothed local slopes
+  const slope = new Float64Array(M);
+  for (let j = 1; j < M - 1; j++) {
+    const dv = cv[j + 1]! - cv[j - 1]!;
+    slope[j] = dv > 0 ? (cp[j + 1]! - cp[j - 1]!) / dv : 0;
+  }
+  const sm = new Float64Array(M);
+  for (let j = 2; j < M - 2; j++) sm[j] = 0.25 * slope[j - 1]! + 0.5 * slope[j]! + 0.25 * slope[j + 1]!;
+  let jmax = -1;
+  let smax = 0;
+  for (let j = 2; j < M - 2; j++) {
+    const level = (cp[j]! - base) / Math.max(1e-9, lineAt(prelim, cv[j]!));
+    if (level < 0.1 || level > 0.9) continue;
+    if (sm[j]! > smax) {
+      smax = sm[j]!;
+      jmax = j;
+    }
+  }
+  let vInflection = NaN;
+  if (jmax > 0) {
+    const y0 = sm[jmax - 1]!;
+    const y1 = sm[jmax]!;
+    const y2 = sm[jmax + 1]!;
+    const den = y0 - 2 * y1 + y2;
+    const d = den < 0 ? Math.max(-0.5, Math.min(0.5, (0.5 * (y0 - y2)) / den)) : 0;
+    vInflection = cv[jmax]! + (d >= 0 ? d * (cv[jmax + 1]! - cv[jmax]!) : d * (cv[jmax]! - cv[jmax - 1]!));
+    row.slope2_mmhg_per_l = smax * 1000;
+    row.vd_inflection_ml = vInflection - cfg.apparatus_ml;
+  }
+
+  // ---- phase boundaries: phase II starts where CO2 leaves the baseline (5 % of the line); phase III starts where the
+  // slow signal first reaches phase3_level_fraction of the line after the inflection (primer 2.1 A)
+  const searchFrom = Number.isFinite(vInflection) ? vInflection : 0;
+  let v3 = NaN;
+  for (let j = 0; j < M; j++) {
+    if (cv[j]! <= searchFrom) continue;
+    if (cs[j]! - base >= cfg.phase3_level_fraction * lineAt(prelim, cv[j]!)) {
+      v3 = cv[j]!;
+      break;
+    }
+  }
+  for (let j = 0; j < M; j++) {
+    if (cv[j]! >= searchFrom) break;
+    if (cp[j]! - base <= 0.05 * lineAt(prelim, cv[j]!)) row.v_phase2_start_ml = cv[j]!;
+  }
+  if (!Number.isFinite(row.v_phase2_start_ml)) row.v_phase2_start_ml = 0;
+  if (!Number.isFinite(v3)) {
+    flags.push('no_phase3');
+    return { row, geometry, flags };
+  }
+  row.v_phase3_start_ml = v3;
+
+  // ---- phase III regression window (primer 4)
+  let from = v3;
+  let to = vte;
+  if (cfg.phase3_window === 'middle_half') {
+    from = v3 + 0.25 * (vte - v3);
+    to = v3 + 0.75 * (vte - v3);
+  } else if (cfg.phase3_window === 'middle_half_vd') {
+    const vd = Number.isFinite(vInflection) ? vInflection : v3;
+    from = vd + 0.25 * (vte - vd);
+    to = vd + 0.75 * (vte - vd);
+  }
+  const fit = fitWindow(cv, cs, cf, from, to, lowFlow, base);
+  const minSpan = Math.max(cfg.min_phase3_ml, cfg.min_phase3_fraction * vte);
+  if (!fit || fit.n < cfg.min_phase3_points || to - from < 0.5 * minSpan || vte - v3 < minSpan) {
+    flags.push('no_phase3');
+    return { row, geometry, flags };
+  }
+  geometry.line_intercept_mmhg = base + fit.a;
+  geometry.line_slope_mmhg_per_ml = fit.b;
+  geometry.fit_from_ml = from;
+  geometry.fit_to_ml = to;
+  geometry.fit_points = fit.n;
+  geometry.fit_rms_mmhg = fit.rms;
+  row.slope3_mmhg_per_l = fit.b * 1000;
+  row.slope3_r2 = fit.r2;
+  if (fit.rms > cfg.max_phase3_rms_mmhg || (cfg.min_phase3_r2 > 0 && fit.r2 < cfg.min_phase3_r2)) flags.push('poor_fit');
+
+  // ---- end-tidal PCO2 (primer 5.4)
+  row.petco2_mmhg = endTidal(cfg, cv, cp, vte, base + fit.a + fit.b * vte);
+  row.slope3_norm_per_l = row.slope3_mmhg_per_l / row.petco2_mmhg;
+
+  // ---- Fowler airway dead space (primer 3.1), on CO2 above the inspired level
+  const vx = cfg.fowler_limit === 'end' ? vte : from;
+  geometry.fowler_limit_ml = vx;
+  let areaToVx = 0;
+  for (let j = 1; j < M; j++) {
+    const v0 = cv[j - 1]!;
+    if (v0 >= vx) break;
+    const v1 = Math.min(cv[j]!, vx);
+    const p1 = cv[j]! > vx ? cp[j - 1]! + ((vx - v0) / (cv[j]! - v0)) * (cp[j]! - cp[j - 1]!) : cp[j]!;
+    areaToVx += 0.5 * (cp[j - 1]! - base + p1 - base) * (v1 - v0);
+  }
+  const vStar = fowlerDeadSpace(fit.a, fit.b, vx, areaToVx);
+  if (!(vStar > 0 && vStar < from)) {
+    flags.push('no_fowler');
+  } else {
+    row.vd_aw_ml = vStar - cfg.apparatus_ml;
+    row.paeco2_mmhg = areaExp / (vte - vStar);
+  }
+
+  // ---- alveolar PCO2 for Bohr (primer 5.6) and the dead-space family (primer 6)
+  row.alv_co2_mmhg = cfg.alveolar_method === 'phase3_mid' ? base + fit.a + fit.b * (0.5 * (v3 + vte)) : row.paeco2_mmhg;
+  const inspired = cfg.bohr_inspired_term && Number.isFinite(fico2) ? fico2 : 0;
+  row.vdvt_bohr = (row.alv_co2_mmhg - peco2) / (row.alv_co2_mmhg - inspired);
+  row.vd_bohr_ml = row.vdvt_bohr * vte;
+  if (Number.isFinite(vStar) && vStar > 0) row.vd_alv_ml = row.vd_bohr_ml - vStar;
+  if (cfg.paco2_mmhg !== null) {
+    row.vdvt_enghoff = (cfg.paco2_mmhg - peco2) / (cfg.paco2_mmhg - inspired);
+    row.vd_enghoff_ml = row.vdvt_enghoff * vte;
+  }
+  return { row, geometry, flags };
+}
+
+/** End-tidal PCO2 by the chosen definition. */
+function endTidal(cfg: AnalysisSettings, cv: Float64Array, cp: Float64Array, vte: number, lineEnd: number): number {
+  const M = cv.length;
+  switch (cfg.petco2_method) {
+    case 'line_end':
+      return lineEnd;
+    case 'last':
+      return cp[M - 1]!;
+    case 'max': {
+      let mx = -Infinity;
+      for (let j = 0; j < M; j++) if (cp[j]! > mx) mx = cp[j]!;
+      return mx;
+    }
+    case 'mean_last': {
+      const from = vte * (1 - cfg.petco2_last_fraction);
+      let area = 0;
+      let span = 0;
+      for (let j = 1; j < M; j++) {
+        if (cv[j]! <= from) continue;
+        const v0 = Math.max(cv[j - 1]!, from);
+        area += 0.5 * (cp[j]! + cp[j - 1]!) * (cv[j]! - v0);
+        span += cv[j]! - v0;
+      }
+      return span > 0 ? area / span : NaN;
+    }
+  }
+}
+
+interface WindowFit {
+  a: number;
+  b: number;
+  r2: number;
+  rms: number;
+  n: number;
+}
+
+/** Least-squares line (ml-regression) of (CO2 - base) on V over [from, to], leaving out low-flow samples. */
+function fitWindow(
+  v: Float64Array,
+  p: Float64Array,
+  flow: Float64Array,
+  from: number,
+  to: number,
+  minFlow: number,
+  base: number,
+): WindowFit | null {
+  const xs: number[] = [];
+  const ys: number[] = [];
+  for (let j = 0; j < v.length; j++) {
+    const vj = v[j]!;
+    if (vj < from || vj > to || flow[j]! < minFlow) continue;
+    const pj = p[j]!;
+    if (!Number.isFinite(pj)) continue;
+    xs.push(vj);
+    ys.push(pj - base);
+  }
+  if (xs.length < 3 || xs[xs.length - 1]! - xs[0]! <= 0) return null;
+  const reg = new SimpleLinearRegression(xs, ys);
+  const score = reg.score(xs, ys);
+  return { a: reg.intercept, b: reg.slope, r2: score.r2, rms: score.rmsd, n: xs.length };
+}
+
+/** Linear interpolation of a sampled signal at time x (clamped to the ends). */
+function at(t: ArrayLike<number>, y: ArrayLike<number>, x: number): number {
+  let lo = 0;
+  let hi = t.length - 1;
+  if (x <= t[0]!) return y[0]!;
+  if (x >= t[hi]!) return y[hi]!;
+  while (hi - lo > 1) {
+    const mid = (lo + hi) >> 1;
+    if (t[mid]! <= x) lo = mid;
+    else hi = mid;
+  }
+  const w = (x - t[lo]!) / (t[hi]! - t[lo]!);
+  return y[lo]! + w * (y[hi]! - y[lo]!);
+}

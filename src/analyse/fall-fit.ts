@@ -1,0 +1,97 @@
+// Inspiratory CO2 downstroke fit: transport delay and sensor response time from one breath.
+//
+// At the start of inspiration fresh gas sweeps the sampling point, so the true CO2 there drops almost as a step at
+// the flow reversal (primer 9.3, method B). A first-order sensor shows that step as
+//   P(t) = P_lo + (P_hi - P_lo) * exp(-(t - t0) / tau)      for t >= t0
+// (primer 9.2: first-order model, 10-90 % rise time = ln 9 x tau; published relation: Miller's Anesthesia 6th ed.).
+// Taking q = (P - P_lo)/(P_hi - P_lo), ln q is linear in t with slope -1/tau and reaches 0 at t0, so a straight-line
+// fit of ln q over the falling samples (q between 0.85 and 0.12) gives both tau and t0; the transport delay of this
+// breath is t0 - t_reversal. Method: common practice, no source (least-squares fit of the first-order step response).
+
+import { fitLine } from './stats.js';
+
+export interface FallFit {
+  /** time the (delayed) step starts at the sensor, s */
+  t0_s: number;
+  /** first-order time constant, s (0 when the fall is faster than one sample) */
+  tau_s: number;
+  /** CO2 just before and after the fall, mmHg */
+  hi_mmhg: number;
+  lo_mmhg: number;
+  /** samples used in the log-linear fit */
+  points: number;
+}
+
+/**
+ * Finds and fits the steepest CO2 fall inside [from_s, to_s]. Arrays share one time base; NaN samples end the search.
+ * Returns null when there is no clear fall (less than min_drop_mmhg).
+ */
+export function fitInspiratoryFall(
+  t: ArrayLike<number>,
+  co2: ArrayLike<number>,
+  from_s: number,
+  to_s: number,
+  min_drop_mmhg = 5,
+): FallFit | null {
+  const n = t.length;
+  let i0 = lowerBound(t, from_s);
+  const i1 = Math.min(n - 1, lowerBound(t, to_s));
+  if (i1 - i0 < 3) return null;
+  // steepest one-sample fall
+  let j = -1;
+  let steepest = 0;
+  for (let i = i0; i < i1; i++) {
+    const d = co2[i + 1]! - co2[i]!;
+    if (!(d === d)) return null;
+    if (d < steepest) {
+      steepest = d;
+      j = i;
+    }
+  }
+  if (j < 0) return null;
+  const dt = (t[i1]! - t[i0]!) / (i1 - i0);
+  const before = Math.max(0, j - Math.max(3, Math.round(0.25 / dt)));
+  const after = Math.min(n - 1, j + Math.max(6, Math.round(0.6 / dt)));
+  let hi = -Infinity;
+  for (let i = before; i <= j; i++) if (co2[i]! > hi) hi = co2[i]!;
+  let lo = Infinity;
+  for (let i = j + 1; i <= after; i++) if (co2[i]! < lo) lo = co2[i]!;
+  const range = hi - lo;
+  if (!(range >= min_drop_mmhg)) return null;
+  // walk back to the last sample still near the top, then collect the falling run
+  let start = j;
+  while (start > before && (co2[start]! - lo) / range < 0.85) start--;
+  const xs: number[] = [];
+  const ys: number[] = [];
+  for (let i = start; i <= after; i++) {
+    const q = (co2[i]! - lo) / range;
+    if (i > j && q < 0.12) break;
+    if (q < 0.85 && q > 0.12) {
+      xs.push(t[i]!);
+      ys.push(Math.log(q));
+    }
+  }
+  if (xs.length >= 2) {
+    const line = fitLine(xs, ys);
+    if (line.slope < 0) {
+      const tau = -1 / line.slope;
+      return { t0_s: line.intercept * tau, tau_s: tau, hi_mmhg: hi, lo_mmhg: lo, points: xs.length };
+    }
+  }
+  // the fall is complete within about one sample: the step happened between the two samples around j
+  let k = j;
+  while (k > before && (co2[k]! - lo) / range < 0.5) k--;
+  return { t0_s: 0.5 * (t[k]! + t[k + 1]!), tau_s: 0, hi_mmhg: hi, lo_mmhg: lo, points: xs.length };
+}
+
+/** First index with t[i] >= x (t ascending). */
+export function lowerBound(t: ArrayLike<number>, x: number): number {
+  let lo = 0;
+  let hi = t.length;
+  while (lo < hi) {
+    const mid = (lo + hi) >>> 1;
+    if (t[mid]! < x) lo = mid + 1;
+    else hi = mid;
+  }
+  return lo;
+}

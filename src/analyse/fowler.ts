@@ -1,0 +1,26 @@
+/**
+ * Fowler's equal-area airway dead space, closed form (primer 3.1).
+ *
+ * With the phase III line L(V) = a + b V (CO2 above the inspired level, mmHg; V in mL) and
+ * A = integral of the measured curve from 0 to the upper limit V_x (mmHg x mL), Fowler's construction asks for the
+ * V* at which the area under the measured curve left of V* equals the area between the line and the curve right of
+ * V*; equivalently the square front at V* under L holds the same CO2 as the curve:
+ *   integral_{V*}^{V_x} (a + b V) dV = A  =>  (b/2) V*^2 + a V* - K = 0,  K = a V_x + (b/2) V_x^2 - A
+ *   V* = 2K / (a + sqrt(a^2 + 2 b K))     (the numerically stable root; valid for any sign of b)
+ *
+ * Source: Fowler WS 1948, Am J Physiol 154:405 (from memory: the equal-area construction, N2 single breath);
+ * applied to CO2 by Fletcher et al. 1981 Br J Anaesth (from memory). The closed form is an algebraic restatement:
+ * common practice, no source.
+ *
+ * Returns NaN when the guards of the primer fail (a <= 0, negative discriminant, L(V*) <= 0).
+ * @example fowlerDeadSpace(40, 0, 500, 14000) // => 150 (primer W19)
+ */
+export function fowlerDeadSpace(a: number, b: number, vxMl: number, areaMmhgMl: number): number {
+  if (!(a > 0)) return NaN;
+  const K = a * vxMl + 0.5 * b * vxMl * vxMl - areaMmhgMl;
+  const disc = a * a + 2 * b * K;
+  if (!(disc >= 0)) return NaN;
+  const vStar = Math.abs(b) < 1e-12 ? vxMl - areaMmhgMl / a : (2 * K) / (a + Math.sqrt(disc));
+  if (!(a + b * vStar > 0)) return NaN;
+  return vStar;
+}

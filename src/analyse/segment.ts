@@ -1,0 +1,157 @@
+// Streaming breath segmentation from flow (positive = expiration).
+//
+// A phase starts at the zero crossing of flow that precedes |flow| exceeding a threshold (hysteresis), so slow
+// zero-flow periods (inspiratory pause, end-expiratory rest) and small oscillations do not toggle the phase.
+// A phase whose volume is below a minimum (fraction of the typical tidal volume) or whose duration is below
+// min_phase_s is treated as a ripple: it is merged back into the surrounding phase (cardiogenic oscillations,
+// valve chatter, double-triggering). Primer section 1, steps 3-6: common practice, no source.
+// A breath runs from one accepted inspiration start to the next and contains one expiration start.
+
+export interface BreathBounds {
+  /** absolute sample index of the first sample at/after each boundary */
+  i_insp: number;
+  i_exp: number;
+  i_end: number;
+  /** interpolated zero-crossing times, s */
+  t_insp_s: number;
+  t_exp_s: number;
+  t_end_s: number;
+  vt_insp_ml: number;
+  vt_exp_ml: number;
+}
+
+interface Boundary {
+  kind: 'insp' | 'exp';
+  i: number;
+  t: number;
+  /** cumulative volume at the boundary, mL (positive = expired) */
+  c: number;
+}
+
+export interface SegmenterOptions {
+  threshold_lps: number;
+  min_phase_s: number;
+  min_volume_ml: () => number;
+}
+
+export interface Segmenter {
+  /** feed samples with absolute indices start..start+n-1; returns breaths completed by these samples */
+  push(t: ArrayLike<number>, flow: ArrayLike<number>, start: number, n: number): BreathBounds[];
+  /** one sample; returns the breaths it completed (usually none; the array is reused when empty) */
+  pushOne(t: number, flow: number, index: number): BreathBounds[];
+  /** earliest absolute sample index still needed (start of the oldest unfinished breath) */
+  oldestNeeded(): number;
+  /** start time of the breath in progress (NaN if none) — for reporting a breath cut by a gap */
+  pendingStart(): { t_s: number; i: number } | null;
+}
+
+export function createSegmenter(opts: SegmenterOptions): Segmenter {
+  const bounds: Boundary[] = [];
+  let phase: 'none' | 'insp' | 'exp' = 'none';
+  let prevT = NaN;
+  let prevF = NaN;
+  let prevI = -1;
+  let cum = 0; // cumulative expired volume, mL
+  // most recent zero crossings in each direction (to positive = towards expiration)
+  let lastUp = { t: NaN, i: -1, c: 0 };
+  let lastDown = { t: NaN, i: -1, c: 0 };
+
+  function addBoundary(b: Boundary, out: BreathBounds[]): void {
+    const last = bounds[bounds.length - 1];
+    if (last) {
+      const dur = b.t - last.t;
+      const vol = Math.abs(b.c - last.c);
+      const tooSmall = dur < opts.min_phase_s || vol < opts.min_volume_ml();
+      if (tooSmall && bounds.length >= 2) {
+        // ripple: drop the short phase and keep the one before it going
+        bounds.pop();
+        return;
+      }
+      if (tooSmall && bounds.length === 1) {
+        // a short phase at the very start: restart from this boundary
+        bounds.pop();
+      }
+    }
+    bounds.push(b);
+    emit(out);
+  }
+
+  function emit(out: BreathBounds[]): void {
+    // need insp, exp, insp, exp with the last two accepted (the final 'exp' proves the preceding inspiration was real)
+    while (bounds.length >= 4) {
+      let k = 0;
+      while (k < bounds.length && bounds[k]!.kind !== 'insp') k++;
+      if (k > 0) {
+        bounds.splice(0, k);
+        continue;
+      }
+      const a = bounds[0]!;
+      const e = bounds[1]!;
+      const b = bounds[2]!;
+      if (e.kind !== 'exp' || b.kind !== 'insp' || bounds[3]!.kind !== 'exp') {
+        bounds.shift();
+        continue;
+      }
+      out.push({
+        i_insp: a.i,
+        i_exp: e.i,
+        i_end: b.i,
+        t_insp_s: a.t,
+        t_exp_s: e.t,
+        t_end_s: b.t,
+        vt_insp_ml: e.c > a.c ? 0 : a.c - e.c,
+        vt_exp_ml: b.c - e.c,
+      });
+      bounds.splice(0, 2);
+    }
+  }
+
+  const scratch: BreathBounds[] = [];
+
+  function step(ti: number, fi: number, idx: number, out: BreathBounds[]): void {
+    const thr = opts.threshold_lps;
+    if (prevI >= 0) {
+      cum += 500 * (fi + prevF) * (ti - prevT); // mL
+      if (prevF <= 0 && fi > 0) {
+        const tz = prevT + ((0 - prevF) / (fi - prevF)) * (ti - prevT);
+        lastUp = { t: tz, i: idx, c: cum - 500 * fi * (ti - tz) };
+      } else if (prevF >= 0 && fi < 0) {
+        const tz = prevT + ((0 - prevF) / (fi - prevF)) * (ti - prevT);
+        lastDown = { t: tz, i: idx, c: cum - 500 * fi * (ti - tz) };
+      }
+    }
+    if (fi > thr && phase !== 'exp' && lastUp.i >= 0) {
+      phase = 'exp';
+      addBoundary({ kind: 'exp', i: lastUp.i, t: lastUp.t, c: lastUp.c }, out);
+      if (bounds.length && bounds[bounds.length - 1]!.kind === 'insp') phase = 'insp';
+    } else if (fi < -thr && phase !== 'insp' && lastDown.i >= 0) {
+      phase = 'insp';
+      addBoundary({ kind: 'insp', i: lastDown.i, t: lastDown.t, c: lastDown.c }, out);
+      if (bounds.length && bounds[bounds.length - 1]!.kind === 'exp') phase = 'exp';
+    }
+    prevT = ti;
+    prevF = fi;
+    prevI = idx;
+  }
+
+  return {
+    push(t, flow, start, n) {
+      const out: BreathBounds[] = [];
+      for (let k = 0; k < n; k++) step(t[k]!, flow[k]!, start + k, out);
+      return out;
+    },
+    pushOne(ti, fi, idx) {
+      step(ti, fi, idx, scratch);
+      if (scratch.length === 0) return scratch;
+      const out = scratch.splice(0, scratch.length);
+      return out;
+    },
+    oldestNeeded() {
+      return bounds.length ? bounds[0]!.i : prevI;
+    },
+    pendingStart() {
+      const first = bounds.find((b) => b.kind === 'insp');
+      return first ? { t_s: first.t, i: first.i } : null;
+    },
+  };
+}

@@ -1,0 +1,97 @@
+// The per-breath decomposition against the analytic synthetic expirograms of the domain primer, section 11
+// (W19, W20, W21). Source of every expected value: the primer's worked numbers, tagged there as
+// `common practice, no source: analytic synthetic curve; verified by script`. The curves are laid out in time at a
+// constant expiratory flow so that V = flow x t exactly; both CO2 signals (fast and slow) carry the same curve.
+import { describe, expect, it } from 'vitest';
+import { decomposeBreath, stpdFactor, type BreathSignals } from '../../src/analyse/decompose.js';
+import { fowlerDeadSpace } from '../../src/analyse/fowler.js';
+import { defaultSettings } from '../../src/settings.js';
+import { expectClose } from '../helpers/expect-close.js';
+
+function breathFromCurve(curve: (vMl: number) => number, vtMl = 500, rateHz = 1000, flowLps = 0.5): BreathSignals {
+  const ti = vtMl / 1000 / flowLps; // inspiration and expiration of equal length
+  const n = Math.round(2 * ti * rateHz) + 1;
+  const t = new Float64Array(n);
+  const f = new Float64Array(n);
+  const p = new Float64Array(n);
+  for (let i = 0; i < n; i++) {
+    t[i] = i / rateHz;
+    const exp = t[i]! >= ti;
+    f[i] = exp ? flowLps : -flowLps;
+    p[i] = exp ? curve((t[i]! - ti) * flowLps * 1000) : 0;
+  }
+  f[0] = 0;
+  f[n - 1] = 0;
+  return {
+    t_s: t,
+    flow_lps: f,
+    fast_mmhg: p,
+    slow_mmhg: p,
+    i_insp: 0,
+    i_exp: Math.round(ti * rateHz),
+    i_end: n - 1,
+    t_insp_s: 0,
+    t_exp_s: ti,
+    t_end_s: t[n - 1]!,
+  };
+}
+
+const settings = () => {
+  const s = defaultSettings().analysis;
+  s.paco2_mmhg = 40;
+  return s;
+};
+
+describe('Fowler closed form (primer 3.1; common practice, no source: algebraic restatement)', () => {
+  it('W19 flat plateau: area 14000 mmHg·mL under a line at 40 mmHg to 500 mL gives 150 mL', () => {
+    expectClose(fowlerDeadSpace(40, 0, 500, 14000), 150, { abs: 1e-9 });
+  });
+  it('W20 sloped plateau: line 34 + 0.01 V, area 13050 mmHg·mL to 500 mL gives 149.648 mL', () => {
+    expectClose(fowlerDeadSpace(34, 0.01, 500, 13050), 149.648, { abs: 5e-4 });
+  });
+  it('refuses a non-positive intercept', () => {
+    expect(Number.isNaN(fowlerDeadSpace(0, 0.01, 500, 1000))).toBe(true);
+  });
+});
+
+describe('decomposeBreath on primer synthetic curve A (W19, flat plateau)', () => {
+  const curveA = (v: number) => (v < 100 ? 0 : v < 200 ? (40 * (v - 100)) / 100 : 40);
+  const d = decomposeBreath(breathFromCurve(curveA), { breath: 1, delay_s: 0, settings: settings() });
+  it('has no quality flags', () => expect(d.flags).toEqual([]));
+  it('Fowler VDaw = 150.0 mL', () => expectClose(d.row.vd_aw_ml, 150, { abs: 0.1 }));
+  it('PECO2 = 28.00 mmHg', () => expectClose(d.row.peco2_mmhg, 28, { abs: 0.02 }));
+  it('PETCO2 = 40 mmHg and phase III slope 0', () => {
+    expectClose(d.row.petco2_mmhg, 40, { abs: 1e-6 });
+    expectClose(d.row.slope3_mmhg_per_l, 0, { abs: 1e-6 });
+  });
+  it('Bohr VD/VT with PACO2 40 = 0.300', () => expectClose(d.row.vdvt_bohr, 0.3, { abs: 5e-4 }));
+  it('VTCO2 = 16.22 mL STPD', () => expectClose(d.row.vtco2_ml, 16.22, { abs: 0.02 }));
+  it('STPD factor at 37 C is 1.1588e-3 mL per mmHg·mL (primer 5.1)', () => expectClose(stpdFactor(37), 1.1588e-3, { rel: 1e-4 }));
+});
+
+describe('decomposeBreath on primer synthetic curve B (W20, sloped plateau, PaCO2 40)', () => {
+  const curveB = (v: number) => (v < 100 ? 0 : v < 200 ? (36 * (v - 100)) / 100 : 34 + 0.01 * v);
+  const d = decomposeBreath(breathFromCurve(curveB), { breath: 1, delay_s: 0, settings: settings() });
+  it('Fowler VDaw (V_x = V_E) = 149.648 mL', () => expectClose(d.row.vd_aw_ml, 149.648, { abs: 0.1 }));
+  it('PECO2 = 26.10 mmHg', () => expectClose(d.row.peco2_mmhg, 26.1, { abs: 0.02 }));
+  it('PAECO2 = 37.248 mmHg', () => expectClose(d.row.paeco2_mmhg, 37.248, { abs: 0.02 }));
+  it('SIII = 10 mmHg/L, SnIII = 0.2564 /L (normalised by PETCO2 39.0)', () => {
+    expectClose(d.row.slope3_mmhg_per_l, 10, { abs: 1e-6 });
+    expectClose(d.row.petco2_mmhg, 39, { abs: 0.01 }); // V_E is 499.75 mL on this sample grid
+    expectClose(d.row.slope3_norm_per_l, 0.2564, { abs: 1e-4 });
+  });
+  it('Enghoff VD/VT = 0.3475 (173.75 mL)', () => {
+    expectClose(d.row.vdvt_enghoff, 0.3475, { abs: 5e-4 });
+    expectClose(d.row.vd_enghoff_ml, 173.75, { abs: 0.25 });
+  });
+  it('Bohr VD/VT at the midpoint of phase III = 0.3040 (our phase III starts at the 95 % level, 195 mL, not 200)', () => {
+    expectClose(d.row.vdvt_bohr, 0.304, { abs: 1e-3 });
+  });
+});
+
+describe('decomposeBreath on primer synthetic curve C (W21, smooth symmetric front)', () => {
+  const curveC = (v: number) => 40 / (1 + Math.exp(-(v - 150) / 10));
+  const d = decomposeBreath(breathFromCurve(curveC), { breath: 1, delay_s: 0, settings: settings() });
+  it('Fowler VDaw = 150.00 mL', () => expectClose(d.row.vd_aw_ml, 150, { abs: 0.05 }));
+  it('inflection (max slope) VDaw = 150.00 mL', () => expectClose(d.row.vd_inflection_ml, 150, { abs: 0.05 }));
+});
