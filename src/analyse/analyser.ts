@@ -170,7 +170,7 @@ export function createAnalyser(settings: Settings, onBreath?: (e: BreathEvent) =
     const co2 = bc.view().subarray(i0, i1);
     const dec = deconvolveFirstOrder(t, co2, tau);
     const fast = interpolateAt(dec.t, dec.x, t, c.delay_s);
-    const slow = interpolateAt(t, co2, t, c.delay_s + tau);
+    const raw = interpolateAt(t, co2, t, c.delay_s);
     const fall = fitInspiratoryFall(t, co2, b.t_end_s + c.delay_s - 0.35, b.t_end_s + c.delay_s + 0.65);
     const breathDelay = fall ? fall.t0_s - b.t_end_s : NaN;
     if (fall) {
@@ -181,15 +181,17 @@ export function createAnalyser(settings: Settings, onBreath?: (e: BreathEvent) =
       t_s: t,
       flow_lps: f,
       fast_mmhg: fast,
-      slow_mmhg: slow,
+      raw_mmhg: raw,
       i_insp: b.i_insp - base - i0,
       i_exp: b.i_exp - base - i0,
       i_end: b.i_end - base - i0,
       t_insp_s: b.t_insp_s,
       t_exp_s: b.t_exp_s,
       t_end_s: b.t_end_s,
+      insp_abrupt: b.insp_abrupt,
+      exp_abrupt: b.exp_abrupt,
     };
-    const d = decomposeBreath(signals, { breath: rows.length + 1, delay_s: c.delay_s, settings: cfg });
+    const d = decomposeBreath(signals, { breath: rows.length + 1, delay_s: c.delay_s, tau_s: tau, settings: cfg });
     // NaN in the aligned CO2 inside the breath means the CO2 channel was missing there
     for (let i = signals.i_insp; i < signals.i_end; i++) {
       if (!(fast[i]! === fast[i]!)) {

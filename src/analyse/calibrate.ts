@@ -5,6 +5,7 @@ import type { Settings } from '../settings.js';
 import type { SettingOrigin } from '../types.js';
 import { fitInspiratoryFall, type FallFit } from './fall-fit.js';
 import { median, quantile } from './stats.js';
+import { createSegmenter } from './segment.js';
 
 export interface Calibration {
   /** multiply (file flow - offset) by this to get expiration positive */
@@ -28,39 +29,56 @@ export interface Calibration {
 }
 
 /**
- * Estimates the flow zero offset as the mode of flow among near-zero samples: ventilated and spontaneous breathing
- * spend much of each cycle at (near) zero flow (inspiratory pause, end-expiratory rest), so the densest flow value
- * near zero is the sensor's zero (primer 9.4: common practice, no source).
+ * Flow zero offset from still periods: windows of 0.2 s (at least 5 samples) in which flow is near zero, level
+ * (least-squares drift across the window below 0.1 % of peak flow plus twice its noise-driven spread) and quiet
+ * (residual SD below 2 % of peak flow). Inspiratory pauses and end-expiratory rests are such periods, and the true
+ * flow there is zero, so their median level is the sensor's zero (primer 9.4: common practice, no source). A
+ * decaying expiratory tail is not level and is left out. Returns null when the recording has no still period
+ * (e.g. continuous decelerating flow): the offset is then not corrected, and the caller says so.
  */
-export function estimateFlowOffset(flow: ArrayLike<number>): number {
-  const p95 = quantile(absValues(flow), 0.95);
-  if (!(p95 > 0)) return 0;
-  const band = 0.15 * p95;
-  const bins = 120;
-  const width = (2 * band) / bins;
-  const counts = new Float64Array(bins);
-  for (let i = 0; i < flow.length; i++) {
-    const f = flow[i]!;
-    if (f > -band && f < band) counts[Math.min(bins - 1, Math.floor((f + band) / width))]++;
-  }
-  // smooth the histogram a little, then take its peak
-  let best = -1;
-  let bestCount = -1;
-  for (let b = 0; b < bins; b++) {
-    const s = counts[b]! * 2 + (counts[b - 1] ?? 0) + (counts[b + 1] ?? 0);
-    if (s > bestCount) {
-      bestCount = s;
-      best = b;
+export function estimateFlowOffset(t: ArrayLike<number>, flow: ArrayLike<number>): { offset: number; windows: number } | null {
+  const n = flow.length;
+  const peak = quantile(absValues(flow), 0.95);
+  if (!(peak > 0) || n < 10) return null;
+  const diffs: number[] = [];
+  for (let i = 1; i < Math.min(n, 2000); i++) diffs.push(t[i]! - t[i - 1]!);
+  const dt = median(diffs);
+  const w = Math.max(5, Math.round(0.2 / dt));
+  const levels: number[] = [];
+  for (let s0 = 0; s0 + w <= n; s0 += Math.max(1, w >> 1)) {
+    let sf = 0;
+    let ok = true;
+    for (let i = s0; i < s0 + w; i++) {
+      const f = flow[i]!;
+      if (!(f === f) || Math.abs(f) > 0.1 * peak) {
+        ok = false;
+        break;
+      }
+      sf += f;
     }
+    if (!ok) continue;
+    const mean = sf / w;
+    // least-squares drift over the window and residual SD
+    const mid = (w - 1) / 2;
+    let sxy = 0;
+    let sxx = 0;
+    for (let k = 0; k < w; k++) {
+      sxy += (k - mid) * (flow[s0 + k]! - mean);
+      sxx += (k - mid) * (k - mid);
+    }
+    const slope = sxy / sxx;
+    let sse = 0;
+    for (let k = 0; k < w; k++) {
+      const r = flow[s0 + k]! - mean - slope * (k - mid);
+      sse += r * r;
+    }
+    const sd = Math.sqrt(sse / Math.max(1, w - 2));
+    const drift = Math.abs(slope * (w - 1));
+    const driftSpread = sd * Math.sqrt(12 / w);
+    if (sd < 0.02 * peak && drift < 0.001 * peak + 2 * driftSpread) levels.push(mean);
   }
-  const lo = -band + (best - 1) * width;
-  const hi = -band + (best + 2) * width;
-  const near: number[] = [];
-  for (let i = 0; i < flow.length; i++) {
-    const f = flow[i]!;
-    if (f >= lo && f < hi) near.push(f);
-  }
-  return near.length ? median(near) : 0;
+  if (levels.length < 3) return null;
+  return { offset: median(levels), windows: levels.length };
 }
 
 function absValues(a: ArrayLike<number>): Float64Array {
@@ -83,7 +101,7 @@ function coarseSignAndLag(
 ): { sign: 1 | -1; lag: number; ratio: number } {
   const base = quantile(co2, 0.02);
   const n = flow.length;
-  let best = { sign: signs[0]!, lag: lags[0]!, ratio: Infinity };
+  const all: { sign: 1 | -1; lag: number; ratio: number }[] = [];
   for (const sign of signs) {
     for (const lag of lags) {
       const k = Math.round(lag / dt);
@@ -97,31 +115,29 @@ function coarseSignAndLag(
         if (f > thr) exp += cc * f;
         else if (f < -thr) insp -= cc * f;
       }
-      const ratio = exp > 0 ? insp / exp : Infinity;
-      if (ratio < best.ratio - 1e-12) best = { sign, lag, ratio };
+      all.push({ sign, lag, ratio: exp > 0 ? insp / exp : Infinity });
     }
   }
-  return best;
+  // a regular breathing pattern repeats every period, so lags one period apart score alike: take the shortest lag
+  // whose score is close to the best one
+  const best = all.reduce((m, r) => (r.ratio < m.ratio ? r : m), all[0]!);
+  const near = all.filter((r) => r.sign === best.sign && r.ratio <= best.ratio * 1.15 + 0.01);
+  near.sort((a, b) => a.lag - b.lag || a.ratio - b.ratio);
+  return near[0] ?? all[0]!;
 }
 
-/** Zero-crossing times from expiration to inspiration (flow already expiration-positive). */
-export function expToInspCrossings(t: ArrayLike<number>, flow: ArrayLike<number>, thr: number): number[] {
+/** Ends of expiration (onsets of inspiration) found by the breath segmenter, run separately on each gap-free run. */
+export function expToInspCrossings(t: ArrayLike<number>, flow: ArrayLike<number>, thr: number, minVolumeMl: number, minPhaseS: number): number[] {
   const out: number[] = [];
-  let phase = 0;
-  let lastDown = NaN;
-  for (let i = 1; i < flow.length; i++) {
-    const a = flow[i - 1]!;
-    const b = flow[i]!;
-    if (!(a === a) || !(b === b)) {
-      phase = 0;
+  let seg = null as ReturnType<typeof createSegmenter> | null;
+  for (let i = 0; i < flow.length; i++) {
+    const f = flow[i]!;
+    if (!(f === f) || !(t[i]! === t[i]!)) {
+      seg = null;
       continue;
     }
-    if (a >= 0 && b < 0) lastDown = t[i - 1]! + (a / (a - b)) * (t[i]! - t[i - 1]!);
-    if (b > thr) phase = 1;
-    else if (b < -thr && phase === 1) {
-      phase = -1;
-      if (lastDown === lastDown) out.push(lastDown);
-    }
+    seg ??= createSegmenter({ threshold_lps: thr, min_phase_s: minPhaseS, min_volume_ml: () => minVolumeMl });
+    for (const b of seg.pushOne(t[i]!, f, i)) out.push(b.t_end_s);
   }
   return out;
 }
@@ -140,7 +156,13 @@ export function calibrate(
   const dt = median(diffs);
 
   const offsetGiven = a.flow_offset_lps !== null;
-  const offset = offsetGiven ? a.flow_offset_lps! : estimateFlowOffset(flowFile);
+  let offset = 0;
+  if (offsetGiven) offset = a.flow_offset_lps!;
+  else {
+    const est = estimateFlowOffset(t, flowFile);
+    if (est) offset = est.offset;
+    else notes.push('no still (zero-flow) periods found: flow offset not corrected; give --flow-offset if it is known');
+  }
   const flow = new Float64Array(n);
   for (let i = 0; i < n; i++) flow[i] = flowFile[i]! - offset;
   const peak = quantile(absValues(flow), 0.95);
@@ -161,22 +183,6 @@ export function calibrate(
     );
   }
   for (let i = 0; i < n; i++) flow[i] = sign * flow[i]!;
-
-  // per-breath fall fits around the coarse lag
-  const crossings = expToInspCrossings(t, flow, thr);
-  const fits: { delay: number; fit: FallFit }[] = [];
-  for (const tr of crossings) {
-    const lo = tr + (delayGiven ? a.delay_s! : coarse.lag) - 0.35;
-    const fit = fitInspiratoryFall(t, co2, Math.max(tr - 0.05, lo), lo + 1.0);
-    if (fit) fits.push({ delay: fit.t0_s - tr, fit });
-  }
-  const delays = fits.map((f) => f.delay);
-  const taus = fits.map((f) => f.fit.tau_s);
-  let delay = delayGiven ? a.delay_s! : fits.length ? median(delays) : coarse.lag;
-  if (!delayGiven && delay < 0) delay = Math.max(0, delay);
-  const responseGiven = a.response_ms !== null;
-  const tau = responseGiven ? a.response_ms! / 1000 : taus.length ? Math.max(0, median(taus)) : 0;
-  if (!fits.length) notes.push('no clean inspiratory CO2 downstroke found: delay from the coarse search, response time 0');
 
   // typical tidal volume from the expiratory phases in the window
   const vols: number[] = [];
@@ -201,6 +207,22 @@ export function calibrate(
   }
   const big = vols.filter((x) => x > 0.25 * quantile(vols, 0.9));
   const typicalVt = big.length ? median(big) : NaN;
+
+  // per-breath fall fits around the coarse lag
+  const crossings = expToInspCrossings(t, flow, thr, Number.isFinite(typicalVt) ? a.min_volume_fraction * typicalVt : 0, a.min_phase_s);
+  const fits: { delay: number; fit: FallFit }[] = [];
+  for (const tr of crossings) {
+    const lo = tr + (delayGiven ? a.delay_s! : coarse.lag) - 0.35;
+    const fit = fitInspiratoryFall(t, co2, Math.max(tr - 0.05, lo), lo + 1.0);
+    if (fit) fits.push({ delay: fit.t0_s - tr, fit });
+  }
+  const delays = fits.map((f) => f.delay);
+  const taus = fits.map((f) => f.fit.tau_s);
+  let delay = delayGiven ? a.delay_s! : fits.length ? median(delays) : coarse.lag;
+  if (!delayGiven && delay < 0) delay = Math.max(0, delay);
+  const responseGiven = a.response_ms !== null;
+  const tau = responseGiven ? a.response_ms! / 1000 : taus.length ? Math.max(0, median(taus)) : 0;
+  if (!fits.length) notes.push('no clean inspiratory CO2 downstroke found: delay from the coarse search, response time 0');
 
   return {
     sign,

@@ -1,20 +1,21 @@
 // One breath -> its volumetric capnogram and every per-breath metric (primer sections 2-6).
 //
 // Inputs are the breath's samples on the flow time base with two aligned CO2 signals (see align.ts):
-// `fast` (response-compensated) for areas, end-tidal values and phase II geometry, and `slow` (raw, lag-shifted,
-// less noisy) for the phase III regression. Outputs a BreathRow (NaN = not computable) plus the geometry the viewer
+// `fast` (response-compensated) for areas, end-tidal values and phase II geometry, and `raw` (the sensor reading,
+// lagged, less noisy) for the phase III regression, which models the lag (phase3-fit.ts). Outputs a BreathRow (NaN = not computable) plus the geometry the viewer
 // draws. Quality codes are attached by quality.ts.
 
-import { SimpleLinearRegression } from 'ml-regression';
 import type { AnalysisSettings } from '../settings.js';
 import type { BreathRow } from '../types.js';
 import { fowlerDeadSpace } from './fowler.js';
+import { fitPhase3 } from './phase3-fit.js';
 
 export interface BreathSignals {
   t_s: ArrayLike<number>;
   flow_lps: ArrayLike<number>;
   fast_mmhg: ArrayLike<number>;
-  slow_mmhg: ArrayLike<number>;
+  /** the sensor's reading moved by the transport delay only (still lagged by the sensor response) */
+  raw_mmhg: ArrayLike<number>;
   /** local index of the first sample at/after each boundary */
   i_insp: number;
   i_exp: number;
@@ -22,11 +23,16 @@ export interface BreathSignals {
   t_insp_s: number;
   t_exp_s: number;
   t_end_s: number;
+  /** the phase started with a step in flow (see segment.ts zeroCrossing) */
+  insp_abrupt?: boolean;
+  exp_abrupt?: boolean;
 }
 
 export interface BreathContext {
   breath: number;
   delay_s: number;
+  /** CO2 sensor first-order time constant, s */
+  tau_s: number;
   settings: AnalysisSettings;
 }
 
@@ -34,7 +40,8 @@ export interface BreathContext {
 export interface BreathGeometry {
   v_ml: Float64Array;
   co2_mmhg: Float64Array;
-  co2_slow_mmhg: Float64Array;
+  /** sensor reading (delay-aligned, not response-compensated) at the same volumes */
+  co2_raw_mmhg: Float64Array;
   /** phase III line P = intercept + slope * V (absolute mmHg; V in mL) */
   line_intercept_mmhg: number;
   line_slope_mmhg_per_ml: number;
@@ -67,7 +74,7 @@ export function stpdFactor(bodyTempC: number): number {
 export function decomposeBreath(s: BreathSignals, ctx: BreathContext): BreathDecomposition {
   const cfg = ctx.settings;
   const flags: string[] = [];
-  const { t_s: t, flow_lps: f, fast_mmhg: pf, slow_mmhg: ps } = s;
+  const { t_s: t, flow_lps: f, fast_mmhg: pf, raw_mmhg: ps } = s;
 
   // ---- inspiration: volume and inspired CO2 (trapezoid, boundaries at zero flow)
   let vti = 0;
@@ -75,7 +82,7 @@ export function decomposeBreath(s: BreathSignals, ctx: BreathContext): BreathDec
   let maxDt = 0;
   {
     let tp = s.t_insp_s;
-    let fp = 0;
+    let fp = s.insp_abrupt ? f[s.i_insp]! : 0;
     let pp = at(t, pf, s.t_insp_s);
     for (let i = s.i_insp; i <= s.i_exp; i++) {
       const ti = i < s.i_exp ? t[i]! : s.t_exp_s;
@@ -98,6 +105,7 @@ export function decomposeBreath(s: BreathSignals, ctx: BreathContext): BreathDec
   const PF = new Float64Array(m);
   const PS = new Float64Array(m);
   T[0] = s.t_exp_s;
+  F[0] = s.exp_abrupt ? f[s.i_exp]! : 0;
   PF[0] = at(t, pf, s.t_exp_s);
   PS[0] = at(t, ps, s.t_exp_s);
   for (let i = s.i_exp, k = 1; i < s.i_end; i++, k++) {
@@ -150,19 +158,22 @@ export function decomposeBreath(s: BreathSignals, ctx: BreathContext): BreathDec
   const peco2 = vte > 0 ? areaExp / vte : NaN;
   const base = Number.isFinite(fico2) ? Math.max(0, fico2) : 0;
 
+  // clipping: the reading stuck at its maximum for several samples while gas is still flowing out
   let topRun = 0;
   let minCo2 = Infinity;
   let maxCo2 = -Infinity;
+  for (let j = s.i_insp; j < s.i_end; j++) {
+    const v = ps[j]!;
+    if (v < minCo2) minCo2 = v;
+    if (v > maxCo2) maxCo2 = v;
+  }
   {
     let run = 0;
-    for (let j = s.i_insp; j < s.i_end; j++) {
-      const v = ps[j]!;
-      if (v < minCo2) minCo2 = v;
-      if (v > maxCo2) {
-        maxCo2 = v;
-        run = 1;
-      } else if (v === maxCo2) run++;
-      if (v === maxCo2 && run > topRun) topRun = run;
+    for (let j = s.i_exp; j < s.i_end; j++) {
+      if (ps[j]! === maxCo2 && f[j]! > 0.1 * peakFlow) {
+        run++;
+        if (run > topRun) topRun = run;
+      } else run = 0;
     }
   }
 
@@ -204,7 +215,7 @@ export function decomposeBreath(s: BreathSignals, ctx: BreathContext): BreathDec
   const geometry: BreathGeometry = {
     v_ml: cv,
     co2_mmhg: cp,
-    co2_slow_mmhg: cs,
+    co2_raw_mmhg: cs,
     line_intercept_mmhg: NaN,
     line_slope_mmhg_per_ml: NaN,
     fit_from_ml: NaN,
@@ -228,7 +239,7 @@ export function decomposeBreath(s: BreathSignals, ctx: BreathContext): BreathDec
 
   // ---- preliminary phase III line on the slow signal over the second half of the expirate
   const lowFlow = cfg.phase3_low_flow_fraction * peakFlow;
-  const prelim = fitWindow(cv, cs, cf, 0.5 * vte, vte, lowFlow, base);
+  const prelim = fitPhase3(T, V, PS, F, 0.5 * vte, vte, ctx.tau_s, lowFlow, base);
   const lineAt = (L: { a: number; b: number }, v: number) => L.a + L.b * v;
   if (!prelim) {
     flags.push('no_phase3');
@@ -271,7 +282,7 @@ export function decomposeBreath(s: BreathSignals, ctx: BreathContext): BreathDec
   let v3 = NaN;
   for (let j = 0; j < M; j++) {
     if (cv[j]! <= searchFrom) continue;
-    if (cs[j]! - base >= cfg.phase3_level_fraction * lineAt(prelim, cv[j]!)) {
+    if (cp[j]! - base >= cfg.phase3_level_fraction * lineAt(prelim, cv[j]!)) {
       v3 = cv[j]!;
       break;
     }
@@ -298,7 +309,7 @@ export function decomposeBreath(s: BreathSignals, ctx: BreathContext): BreathDec
     from = vd + 0.25 * (vte - vd);
     to = vd + 0.75 * (vte - vd);
   }
-  const fit = fitWindow(cv, cs, cf, from, to, lowFlow, base);
+  const fit = fitPhase3(T, V, PS, F, from, to, ctx.tau_s, lowFlow, base);
   const minSpan = Math.max(cfg.min_phase3_ml, cfg.min_phase3_fraction * vte);
   if (!fit || fit.n < cfg.min_phase3_points || to - from < 0.5 * minSpan || vte - v3 < minSpan) {
     flags.push('no_phase3');
@@ -376,40 +387,6 @@ function endTidal(cfg: AnalysisSettings, cv: Float64Array, cp: Float64Array, vte
       return span > 0 ? area / span : NaN;
     }
   }
-}
-
-interface WindowFit {
-  a: number;
-  b: number;
-  r2: number;
-  rms: number;
-  n: number;
-}
-
-/** Least-squares line (ml-regression) of (CO2 - base) on V over [from, to], leaving out low-flow samples. */
-function fitWindow(
-  v: Float64Array,
-  p: Float64Array,
-  flow: Float64Array,
-  from: number,
-  to: number,
-  minFlow: number,
-  base: number,
-): WindowFit | null {
-  const xs: number[] = [];
-  const ys: number[] = [];
-  for (let j = 0; j < v.length; j++) {
-    const vj = v[j]!;
-    if (vj < from || vj > to || flow[j]! < minFlow) continue;
-    const pj = p[j]!;
-    if (!Number.isFinite(pj)) continue;
-    xs.push(vj);
-    ys.push(pj - base);
-  }
-  if (xs.length < 3 || xs[xs.length - 1]! - xs[0]! <= 0) return null;
-  const reg = new SimpleLinearRegression(xs, ys);
-  const score = reg.score(xs, ys);
-  return { a: reg.intercept, b: reg.slope, r2: score.r2, rms: score.rmsd, n: xs.length };
 }
 
 /** Linear interpolation of a sampled signal at time x (clamped to the ends). */

@@ -7,6 +7,22 @@
 // valve chatter, double-triggering). Primer section 1, steps 3-6: common practice, no source.
 // A breath runs from one accepted inspiration start to the next and contains one expiration start.
 
+/**
+ * Onset time of a phase between the last "quiet" sample a (|flow| below the noise band eps, or still on the other
+ * side) and the next sample b. A smooth crossing is interpolated linearly (clamped to one sample before a). An
+ * abrupt one (b jumps to more than 4 times max(|f_a|, eps) and past the phase threshold, as at the onset of a
+ * ventilator's square inspiration or after a pause) cannot be located inside the interval: its unbiased estimate
+ * is the midpoint, and the flow is taken as already at b's value from there on (common practice, no source:
+ * sampling of a step).
+ */
+export function phaseOnset(ta: number, fa: number, tb: number, fb: number, eps: number, thr: number): { t: number; abrupt: boolean } {
+  const abrupt = Math.abs(fb) > 4 * Math.max(Math.abs(fa), eps) && Math.abs(fb) > thr;
+  if (abrupt) return { t: 0.5 * (ta + tb), abrupt };
+  const dt = tb - ta;
+  const x = fb !== fa ? ta + (-fa / (fb - fa)) * dt : ta;
+  return { t: Math.min(tb, Math.max(ta - dt, x)), abrupt };
+}
+
 export interface BreathBounds {
   /** absolute sample index of the first sample at/after each boundary */
   i_insp: number;
@@ -18,6 +34,8 @@ export interface BreathBounds {
   t_end_s: number;
   vt_insp_ml: number;
   vt_exp_ml: number;
+  insp_abrupt: boolean;
+  exp_abrupt: boolean;
 }
 
 interface Boundary {
@@ -26,6 +44,7 @@ interface Boundary {
   t: number;
   /** cumulative volume at the boundary, mL (positive = expired) */
   c: number;
+  abrupt: boolean;
 }
 
 export interface SegmenterOptions {
@@ -53,8 +72,9 @@ export function createSegmenter(opts: SegmenterOptions): Segmenter {
   let prevI = -1;
   let cum = 0; // cumulative expired volume, mL
   // most recent zero crossings in each direction (to positive = towards expiration)
-  let lastUp = { t: NaN, i: -1, c: 0 };
-  let lastDown = { t: NaN, i: -1, c: 0 };
+  // candidate onsets: last quiet sample (a) and the sample after it (b), for each direction
+  const up = { ta: NaN, fa: 0, tb: NaN, fb: 0, ib: -1, cb: 0, waiting: false };
+  const down = { ta: NaN, fa: 0, tb: NaN, fb: 0, ib: -1, cb: 0, waiting: false };
 
   function addBoundary(b: Boundary, out: BreathBounds[]): void {
     const last = bounds[bounds.length - 1];
@@ -101,6 +121,8 @@ export function createSegmenter(opts: SegmenterOptions): Segmenter {
         t_end_s: b.t,
         vt_insp_ml: e.c > a.c ? 0 : a.c - e.c,
         vt_exp_ml: b.c - e.c,
+        insp_abrupt: a.abrupt,
+        exp_abrupt: e.abrupt,
       });
       bounds.splice(0, 2);
     }
@@ -108,25 +130,34 @@ export function createSegmenter(opts: SegmenterOptions): Segmenter {
 
   const scratch: BreathBounds[] = [];
 
+  function onset(c: typeof up, kind: 'insp' | 'exp'): Boundary {
+    const z = phaseOnset(c.ta, c.fa, c.tb, c.fb, opts.threshold_lps * 0.3, opts.threshold_lps);
+    const cAt = c.cb - (z.abrupt ? 1000 : 500) * c.fb * (c.tb - z.t);
+    return { kind, i: c.ib, t: z.t, c: cAt, abrupt: z.abrupt };
+  }
+
   function step(ti: number, fi: number, idx: number, out: BreathBounds[]): void {
     const thr = opts.threshold_lps;
-    if (prevI >= 0) {
-      cum += 500 * (fi + prevF) * (ti - prevT); // mL
-      if (prevF <= 0 && fi > 0) {
-        const tz = prevT + ((0 - prevF) / (fi - prevF)) * (ti - prevT);
-        lastUp = { t: tz, i: idx, c: cum - 500 * fi * (ti - tz) };
-      } else if (prevF >= 0 && fi < 0) {
-        const tz = prevT + ((0 - prevF) / (fi - prevF)) * (ti - prevT);
-        lastDown = { t: tz, i: idx, c: cum - 500 * fi * (ti - tz) };
+    const eps = 0.3 * thr;
+    if (prevI >= 0) cum += 500 * (fi + prevF) * (ti - prevT); // mL
+    for (const c of [up, down]) {
+      if (c.waiting) {
+        c.tb = ti;
+        c.fb = fi;
+        c.ib = idx;
+        c.cb = cum;
+        c.waiting = false;
       }
     }
-    if (fi > thr && phase !== 'exp' && lastUp.i >= 0) {
+    if (fi < eps) Object.assign(up, { ta: ti, fa: fi, waiting: true });
+    if (fi > -eps) Object.assign(down, { ta: ti, fa: fi, waiting: true });
+    if (fi > thr && phase !== 'exp' && up.ib >= 0 && !up.waiting) {
       phase = 'exp';
-      addBoundary({ kind: 'exp', i: lastUp.i, t: lastUp.t, c: lastUp.c }, out);
+      addBoundary(onset(up, 'exp'), out);
       if (bounds.length && bounds[bounds.length - 1]!.kind === 'insp') phase = 'insp';
-    } else if (fi < -thr && phase !== 'insp' && lastDown.i >= 0) {
+    } else if (fi < -thr && phase !== 'insp' && down.ib >= 0 && !down.waiting) {
       phase = 'insp';
-      addBoundary({ kind: 'insp', i: lastDown.i, t: lastDown.t, c: lastDown.c }, out);
+      addBoundary(onset(down, 'insp'), out);
       if (bounds.length && bounds[bounds.length - 1]!.kind === 'exp') phase = 'exp';
     }
     prevT = ti;

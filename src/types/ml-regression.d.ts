@@ -2,4 +2,5 @@
 declare module 'ml-regression' {
   export { SimpleLinearRegression, SimpleLinearRegression as SLR } from 'ml-regression-simple-linear';
   export { PolynomialRegression } from 'ml-regression-polynomial';
+  export { default as MultivariateLinearRegression } from 'ml-regression-multivariate-linear';
 }

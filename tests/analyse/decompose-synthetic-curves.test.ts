@@ -26,7 +26,7 @@ function breathFromCurve(curve: (vMl: number) => number, vtMl = 500, rateHz = 10
     t_s: t,
     flow_lps: f,
     fast_mmhg: p,
-    slow_mmhg: p,
+    raw_mmhg: p,
     i_insp: 0,
     i_exp: Math.round(ti * rateHz),
     i_end: n - 1,
@@ -56,7 +56,7 @@ describe('Fowler closed form (primer 3.1; common practice, no source: algebraic 
 
 describe('decomposeBreath on primer synthetic curve A (W19, flat plateau)', () => {
   const curveA = (v: number) => (v < 100 ? 0 : v < 200 ? (40 * (v - 100)) / 100 : 40);
-  const d = decomposeBreath(breathFromCurve(curveA), { breath: 1, delay_s: 0, settings: settings() });
+  const d = decomposeBreath(breathFromCurve(curveA), { breath: 1, delay_s: 0, tau_s: 0, settings: settings() });
   it('has no quality flags', () => expect(d.flags).toEqual([]));
   it('Fowler VDaw = 150.0 mL', () => expectClose(d.row.vd_aw_ml, 150, { abs: 0.1 }));
   it('PECO2 = 28.00 mmHg', () => expectClose(d.row.peco2_mmhg, 28, { abs: 0.02 }));
@@ -71,7 +71,7 @@ describe('decomposeBreath on primer synthetic curve A (W19, flat plateau)', () =
 
 describe('decomposeBreath on primer synthetic curve B (W20, sloped plateau, PaCO2 40)', () => {
   const curveB = (v: number) => (v < 100 ? 0 : v < 200 ? (36 * (v - 100)) / 100 : 34 + 0.01 * v);
-  const d = decomposeBreath(breathFromCurve(curveB), { breath: 1, delay_s: 0, settings: settings() });
+  const d = decomposeBreath(breathFromCurve(curveB), { breath: 1, delay_s: 0, tau_s: 0, settings: settings() });
   it('Fowler VDaw (V_x = V_E) = 149.648 mL', () => expectClose(d.row.vd_aw_ml, 149.648, { abs: 0.1 }));
   it('PECO2 = 26.10 mmHg', () => expectClose(d.row.peco2_mmhg, 26.1, { abs: 0.02 }));
   it('PAECO2 = 37.248 mmHg', () => expectClose(d.row.paeco2_mmhg, 37.248, { abs: 0.02 }));
@@ -91,7 +91,7 @@ describe('decomposeBreath on primer synthetic curve B (W20, sloped plateau, PaCO
 
 describe('decomposeBreath on primer synthetic curve C (W21, smooth symmetric front)', () => {
   const curveC = (v: number) => 40 / (1 + Math.exp(-(v - 150) / 10));
-  const d = decomposeBreath(breathFromCurve(curveC), { breath: 1, delay_s: 0, settings: settings() });
+  const d = decomposeBreath(breathFromCurve(curveC), { breath: 1, delay_s: 0, tau_s: 0, settings: settings() });
   it('Fowler VDaw = 150.00 mL', () => expectClose(d.row.vd_aw_ml, 150, { abs: 0.05 }));
   it('inflection (max slope) VDaw = 150.00 mL', () => expectClose(d.row.vd_inflection_ml, 150, { abs: 0.05 }));
 });

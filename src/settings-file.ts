@@ -1,0 +1,127 @@
+// The settings file (--settings FILE.json): the same keys as src/settings.ts, validated with zod so a study can fix
+// its thresholds once. Unknown keys and wrong types are refused with a message naming the key.
+//
+//   { "ingest": { "co2_unit": "kPa" }, "analysis": { "leak_fraction": 0.1 },
+//     "files": [ { "pattern": "**/site-b/*.csv", "ingest": { "decimal": ",", "delimiter": ";" } } ] }
+
+import { z } from 'zod';
+import { DEFAULT_ANALYSIS, DEFAULT_INGEST, type Settings } from './settings.js';
+
+const num = z.number().finite();
+const pos = num.positive();
+const frac = num.min(0).max(1);
+const nullable = <T extends z.ZodTypeAny>(t: T) => t.nullable();
+
+export const ingestSchema = z
+  .object({
+    delimiter: nullable(z.string().min(1).max(1)),
+    decimal: nullable(z.enum(['.', ','])),
+    time_col: nullable(z.string().min(1)),
+    flow_col: nullable(z.string().min(1)),
+    co2_col: nullable(z.string().min(1)),
+    time_unit: nullable(z.enum(['s', 'ms', 'clock'])),
+    rate_hz: nullable(pos),
+    flow_unit: nullable(z.enum(['L/s', 'L/min', 'mL/s'])),
+    co2_unit: nullable(z.enum(['mmHg', 'kPa', '%'])),
+    pb_mmhg: num.min(300).max(1100),
+    co2_percent: z.enum(['ambient', 'dry']),
+    expiration: nullable(z.enum(['positive', 'negative'])),
+    max_silence_s: pos,
+  })
+  .strict()
+  .partial();
+
+export const analysisSchema = z
+  .object({
+    delay_s: nullable(num.min(0).max(30)),
+    response_ms: nullable(num.min(0).max(2000)),
+    flow_offset_lps: nullable(num),
+    calibration_s: pos,
+    flow_threshold_fraction: frac,
+    min_volume_fraction: frac,
+    min_phase_s: num.min(0),
+    petco2_method: z.enum(['line_end', 'last', 'max', 'mean_last']),
+    petco2_last_fraction: frac,
+    phase3_window: z.enum(['middle_half', 'all', 'middle_half_vd']),
+    phase3_level_fraction: frac,
+    phase3_low_flow_fraction: frac,
+    fowler_limit: z.enum(['end', 'window_start']),
+    alveolar_method: z.enum(['phase3_mid', 'mean_alveolar']),
+    bohr_inspired_term: z.boolean(),
+    apparatus_ml: num.min(0),
+    paco2_mmhg: nullable(num.min(5).max(200)),
+    body_temp_c: num.min(25).max(45),
+    min_phase3_points: z.number().int().min(3),
+    min_phase3_ml: num.min(0),
+    min_phase3_fraction: frac,
+    min_phase3_r2: frac,
+    max_phase3_rms_mmhg: pos,
+    leak_fraction: frac,
+    rebreathing_mmhg: num.min(0),
+    outlier_mad: pos,
+    min_petco2_mmhg: num.min(0),
+    max_co2_mmhg: pos,
+    delay_spread_s: pos,
+    max_delay_s: pos,
+    min_rate_hz: pos,
+  })
+  .strict()
+  .partial();
+
+export const settingsFileSchema = z
+  .object({
+    ingest: ingestSchema.optional(),
+    analysis: analysisSchema.optional(),
+    files: z
+      .array(z.object({ pattern: z.string().min(1), ingest: ingestSchema.optional(), analysis: analysisSchema.optional() }).strict())
+      .optional(),
+  })
+  .strict();
+
+export type SettingsFile = z.infer<typeof settingsFileSchema>;
+
+export class SettingsError extends Error {}
+
+/** Parses and validates a settings file; throws SettingsError with a one-line message naming the key. */
+export function parseSettingsFile(text: string, fileName: string): SettingsFile {
+  let json: unknown;
+  try {
+    json = JSON.parse(text);
+  } catch (e) {
+    throw new SettingsError(`${fileName}: not valid JSON (${(e as Error).message}). Fix the file or export it again.`);
+  }
+  const r = settingsFileSchema.safeParse(json);
+  if (!r.success) {
+    const issue = r.error.issues[0]!;
+    const where = issue.path.length ? issue.path.join('.') : '(top level)';
+    throw new SettingsError(`${fileName}: setting ${where}: ${issue.message}. See the settings table in the README.`);
+  }
+  return r.data;
+}
+
+/** Applies a partial settings group on top of settings, recording the dotted keys as given. */
+export function applySettings(
+  target: Settings,
+  patch: { ingest?: Partial<Settings['ingest']>; analysis?: Partial<Settings['analysis']> },
+  given: Set<string>,
+): void {
+  for (const group of ['ingest', 'analysis'] as const) {
+    const p = patch[group];
+    if (!p) continue;
+    for (const [k, v] of Object.entries(p)) {
+      if (v === undefined) continue;
+      (target[group] as unknown as Record<string, unknown>)[k] = v;
+      given.add(`${group}.${k}`);
+    }
+  }
+}
+
+/** The full settings as a settings file (what the viewer exports and the CLI reads back). */
+export function settingsToFile(s: Settings): SettingsFile {
+  return { ingest: { ...s.ingest }, analysis: { ...s.analysis } };
+}
+
+export const SETTING_KEYS = {
+  ingest: Object.keys(DEFAULT_INGEST),
+  analysis: Object.keys(DEFAULT_ANALYSIS),
+};
