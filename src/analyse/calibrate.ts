@@ -5,7 +5,7 @@ import type { Settings } from '../settings.js';
 import type { SettingOrigin } from '../types.js';
 import { fitInspiratoryFall, type FallFit } from './fall-fit.js';
 import { median, quantile } from './stats.js';
-import { createSegmenter } from './segment.js';
+import { createSegmenter, type BreathBounds } from './segment.js';
 
 export interface Calibration {
   /** multiply (file flow - offset) by this to get expiration positive */
@@ -29,23 +29,37 @@ export interface Calibration {
 }
 
 /**
- * Flow zero offset from still periods: windows of 0.2 s (at least 5 samples) in which flow is near zero, level
- * (least-squares drift across the window below 0.1 % of peak flow plus twice its noise-driven spread) and quiet
- * (residual SD below 2 % of peak flow). Inspiratory pauses and end-expiratory rests are such periods, and the true
- * flow there is zero, so their median level is the sensor's zero (primer 9.4: common practice, no source). A
- * decaying expiratory tail is not level and is left out. Returns null when the recording has no still period
- * (e.g. continuous decelerating flow): the offset is then not corrected, and the caller says so.
+ * Flow zero offset from still periods: windows of 0.1 s (at least 5 samples) in which flow is near zero (within 10 % of
+ * peak flow), level (least-squares drift across the window below 0.2 % of peak flow plus twice its
+ * noise-driven spread) and quiet (residual SD below 0.5 % of peak flow or twice the sample noise). Inspiratory pauses and end-expiratory rests are such periods, and the true
+ * flow there is zero, so their median level is the sensor's zero (primer 9.4: common practice, no source).
+ * `spans` restricts the search to given time spans: the calibration passes the end-inspiratory part of each breath
+ * (between inspiratory flow and expiration onset), because a slowly decaying expiratory tail or cardiogenic ripple
+ * at end-expiration can look level within noise while not being zero flow. Returns null when there is no still
+ * period (e.g. continuous decelerating flow, no inspiratory pause): the offset is then not corrected, and the
+ * caller says so.
  */
-export function estimateFlowOffset(t: ArrayLike<number>, flow: ArrayLike<number>): { offset: number; windows: number } | null {
+export function estimateFlowOffset(
+  t: ArrayLike<number>,
+  flow: ArrayLike<number>,
+  spans: { from_s: number; to_s: number }[] | null = null,
+): { offset: number; windows: number } | null {
   const n = flow.length;
   const peak = quantile(absValues(flow), 0.95);
   if (!(peak > 0) || n < 10) return null;
   const diffs: number[] = [];
   for (let i = 1; i < Math.min(n, 2000); i++) diffs.push(t[i]! - t[i - 1]!);
   const dt = median(diffs);
-  const w = Math.max(5, Math.round(0.2 / dt));
+  const w = Math.max(5, Math.round(0.1 / dt));
+  // sample-to-sample noise of flow near zero (robust: MAD of first differences / sqrt 2)
+  const d1: number[] = [];
+  for (let i = 1; i < n && d1.length < 50_000; i++) {
+    if (Math.abs(flow[i]!) < 0.05 * peak && Math.abs(flow[i - 1]!) < 0.05 * peak) d1.push(Math.abs(flow[i]! - flow[i - 1]!));
+  }
+  const noiseSd = d1.length ? (1.4826 * median(d1)) / Math.SQRT2 : 0;
   const levels: number[] = [];
   for (let s0 = 0; s0 + w <= n; s0 += Math.max(1, w >> 1)) {
+    if (spans && !spans.some((sp) => t[s0]! >= sp.from_s && t[s0 + w - 1]! <= sp.to_s)) continue;
     let sf = 0;
     let ok = true;
     for (let i = s0; i < s0 + w; i++) {
@@ -75,9 +89,10 @@ export function estimateFlowOffset(t: ArrayLike<number>, flow: ArrayLike<number>
     const sd = Math.sqrt(sse / Math.max(1, w - 2));
     const drift = Math.abs(slope * (w - 1));
     const driftSpread = sd * Math.sqrt(12 / w);
-    if (sd < 0.02 * peak && drift < 0.001 * peak + 2 * driftSpread) levels.push(mean);
+    if (sd < Math.max(0.005 * peak, 2 * noiseSd) && drift < 0.002 * peak + 2 * driftSpread) levels.push(mean);
   }
-  if (levels.length < 3) return null;
+  // a trustworthy zero needs still periods in a good share of the breaths, not a few lucky windows
+  if (levels.length < 3 || (spans && levels.length < 0.3 * spans.length)) return null;
   return { offset: median(levels), windows: levels.length };
 }
 
@@ -88,47 +103,120 @@ function absValues(a: ArrayLike<number>): Float64Array {
 }
 
 /**
- * Coarse sign and delay: the pair (sign, lag) that puts the least CO2 on the inspiratory side, i.e. minimises
- * inspired CO2 volume / expired CO2 volume (primer 9.3, method C: common practice, no source).
+ * Coarse sign of expiration and transport delay from the timing of CO2 edges (common practice, no source; reasoning
+ * documented in DEVELOPERS.md). For the right sign, the CO2 falls d seconds after each inspiration onset (d = delay)
+ * and rises d + t_I after each expiration onset, where t_I is the short time phase I takes: rise lag - fall lag is
+ * small and positive. Read with the wrong sign, "inspiration onsets" are expiration onsets and the same difference
+ * becomes Ti - Te + t_I modulo the breath period, i.e. about 2 Ti + t_I when Ti < Te: much larger. So the sign with
+ * the smaller non-negative difference wins, and its fall lag is the coarse delay. Only I:E = 1:1 with identical
+ * flow shapes leaves the sign undecided (then --expiration is needed; the note says so).
  */
-function coarseSignAndLag(
+export function signAndLagFromEdges(
+  t: Float64Array,
   flow: Float64Array,
   co2: Float64Array,
-  dt: number,
   thr: number,
+  minVolumeMl: number,
+  minPhaseS: number,
   signs: (1 | -1)[],
-  lags: number[],
-): { sign: 1 | -1; lag: number; ratio: number } {
-  const base = quantile(co2, 0.02);
-  const n = flow.length;
-  const all: { sign: 1 | -1; lag: number; ratio: number }[] = [];
-  for (const sign of signs) {
-    for (const lag of lags) {
-      const k = Math.round(lag / dt);
-      let insp = 0;
-      let exp = 0;
-      for (let i = 0; i + k < n; i++) {
-        const f = sign * flow[i]!;
-        const c = co2[i + k]! - base;
-        if (!(c === c) || !(f === f)) continue;
-        const cc = c > 0 ? c : 0;
-        if (f > thr) exp += cc * f;
-        else if (f < -thr) insp -= cc * f;
-      }
-      all.push({ sign, lag, ratio: exp > 0 ? insp / exp : Infinity });
+): { sign: 1 | -1; lag: number; gap: number; ambiguous: boolean } | null {
+  const lo = quantile(co2, 0.05);
+  const hi = quantile(co2, 0.95);
+  if (!(hi - lo > 3)) return null;
+  const mid = 0.5 * (lo + hi);
+  const band = 0.2 * (hi - lo);
+  // CO2 edges at the mid level, with hysteresis
+  const falls: number[] = [];
+  const rises: number[] = [];
+  let state = 0;
+  for (let i = 1; i < co2.length; i++) {
+    const a = co2[i - 1]!;
+    const b = co2[i]!;
+    if (!(a === a) || !(b === b)) continue;
+    if (b > mid + band) {
+      if (state === -1) rises.push(crossTime(t, co2, i, mid, true));
+      state = 1;
+    } else if (b < mid - band) {
+      if (state === 1) falls.push(crossTime(t, co2, i, mid, false));
+      state = -1;
     }
   }
-  // a regular breathing pattern repeats every period, so lags one period apart score alike: take the shortest lag
-  // whose score is close to the best one
-  const best = all.reduce((m, r) => (r.ratio < m.ratio ? r : m), all[0]!);
-  const near = all.filter((r) => r.sign === best.sign && r.ratio <= best.ratio * 1.15 + 0.01);
-  near.sort((a, b) => a.lag - b.lag || a.ratio - b.ratio);
-  return near[0] ?? all[0]!;
+  const results: { sign: 1 | -1; fall: number; rise: number; diff: number }[] = [];
+  for (const sign of signs) {
+    const signed = new Float64Array(flow.length);
+    for (let i = 0; i < flow.length; i++) signed[i] = sign * flow[i]!;
+    const bounds = breathBounds(t, signed, thr, minVolumeMl, minPhaseS);
+    const fallLags: number[] = [];
+    const riseLags: number[] = [];
+    for (const b of bounds) {
+      const f = firstAfter(falls, b.t_end_s - 0.05);
+      const r = firstAfter(rises, b.t_exp_s - 0.05);
+      if (f !== null) fallLags.push(f - b.t_end_s);
+      if (r !== null) riseLags.push(r - b.t_exp_s);
+    }
+    if (fallLags.length < 3 || riseLags.length < 3) continue;
+    const fall = median(fallLags);
+    const rise = median(riseLags);
+    results.push({ sign, fall, rise, diff: rise - fall });
+  }
+  const valid = results.filter((r) => r.diff > -0.05).sort((a, b) => a.diff - b.diff);
+  if (!valid.length) return null;
+  const best = valid[0]!;
+  const other = valid[1];
+  return { sign: best.sign, lag: Math.max(0, best.fall), gap: best.diff, ambiguous: !!other && other.diff - best.diff < 0.1 };
 }
 
-/** Ends of expiration (onsets of inspiration) found by the breath segmenter, run separately on each gap-free run. */
-export function expToInspCrossings(t: ArrayLike<number>, flow: ArrayLike<number>, thr: number, minVolumeMl: number, minPhaseS: number): number[] {
-  const out: number[] = [];
+function crossTime(t: Float64Array, y: Float64Array, i: number, level: number, rising: boolean): number {
+  // walk back to the sample pair that straddles the level
+  let j = i;
+  while (j > 0 && (rising ? y[j - 1]! >= level : y[j - 1]! <= level)) j--;
+  if (j === 0) return t[i]!;
+  const a = y[j - 1]!;
+  const b = y[j]!;
+  return t[j - 1]! + ((level - a) / (b - a)) * (t[j]! - t[j - 1]!);
+}
+
+function firstAfter(sorted: number[], x: number): number | null {
+  let lo = 0;
+  let hi = sorted.length;
+  while (lo < hi) {
+    const m = (lo + hi) >> 1;
+    if (sorted[m]! < x) lo = m + 1;
+    else hi = m;
+  }
+  return lo < sorted.length ? sorted[lo]! : null;
+}
+
+/**
+ * Coarse delay when the sign is known and the edges are unclear: the lag that puts the least CO2 on the inspiratory
+ * side (primer 9.3, method C: common practice, no source), shortest lag among near-equal scores.
+ */
+function lagByInspiredCo2(flow: Float64Array, co2: Float64Array, dt: number, thr: number, sign: 1 | -1, lags: number[]): number {
+  const base = quantile(co2, 0.02);
+  const n = flow.length;
+  const all: { lag: number; ratio: number }[] = [];
+  for (const lag of lags) {
+    const k = Math.round(lag / dt);
+    let insp = 0;
+    let exp = 0;
+    for (let i = 0; i + k < n; i++) {
+      const f = sign * flow[i]!;
+      const c = co2[i + k]! - base;
+      if (!(c === c) || !(f === f)) continue;
+      const cc = c > 0 ? c : 0;
+      if (f > thr) exp += cc * f;
+      else if (f < -thr) insp -= cc * f;
+    }
+    all.push({ lag, ratio: exp > 0 ? insp / exp : Infinity });
+  }
+  const best = Math.min(...all.map((r) => r.ratio));
+  const near = all.filter((r) => r.ratio <= best * 1.15 + 0.01).sort((a, b) => a.lag - b.lag);
+  return (near[0] ?? all[0]!).lag;
+}
+
+/** Breaths found by the breath segmenter, run separately on each gap-free run. */
+export function breathBounds(t: ArrayLike<number>, flow: ArrayLike<number>, thr: number, minVolumeMl: number, minPhaseS: number): BreathBounds[] {
+  const out: BreathBounds[] = [];
   let seg = null as ReturnType<typeof createSegmenter> | null;
   for (let i = 0; i < flow.length; i++) {
     const f = flow[i]!;
@@ -137,7 +225,7 @@ export function expToInspCrossings(t: ArrayLike<number>, flow: ArrayLike<number>
       continue;
     }
     seg ??= createSegmenter({ threshold_lps: thr, min_phase_s: minPhaseS, min_volume_ml: () => minVolumeMl });
-    for (const b of seg.pushOne(t[i]!, f, i)) out.push(b.t_end_s);
+    for (const b of seg.pushOne(t[i]!, f, i)) out.push(b);
   }
   return out;
 }
@@ -156,13 +244,8 @@ export function calibrate(
   const dt = median(diffs);
 
   const offsetGiven = a.flow_offset_lps !== null;
-  let offset = 0;
-  if (offsetGiven) offset = a.flow_offset_lps!;
-  else {
-    const est = estimateFlowOffset(t, flowFile);
-    if (est) offset = est.offset;
-    else notes.push('no still (zero-flow) periods found: flow offset not corrected; give --flow-offset if it is known');
-  }
+  let offset = offsetGiven ? a.flow_offset_lps! : 0;
+  let offsetFound = offsetGiven;
   const flow = new Float64Array(n);
   for (let i = 0; i < n; i++) flow[i] = flowFile[i]! - offset;
   const peak = quantile(absValues(flow), 0.95);
@@ -171,54 +254,57 @@ export function calibrate(
   const signGiven = settings.ingest.expiration !== null;
   const delayGiven = a.delay_s !== null;
   const signs: (1 | -1)[] = signGiven ? [settings.ingest.expiration === 'negative' ? -1 : 1] : [1, -1];
-  const lags: number[] = [];
-  if (delayGiven) lags.push(a.delay_s!);
-  else for (let k = 0; k * dt <= a.max_delay_s + 1e-9; k++) lags.push(k * dt);
-  const coarse = coarseSignAndLag(flow, co2, dt, thr, signs, lags);
-  const sign = coarse.sign;
+  // typical tidal volume (sign-independent: volumes of the larger flow excursions)
+  const typicalVt = typicalTidalVolume(t, flow, thr);
+  const minVol = Number.isFinite(typicalVt) ? a.min_volume_fraction * typicalVt : 0;
+  const edges = signAndLagFromEdges(t, flow, co2, thr, minVol, a.min_phase_s, signs);
+  let sign: 1 | -1 = signs[0]!;
+  let coarseLag = 0;
+  if (edges) {
+    sign = edges.sign;
+    coarseLag = edges.lag;
+  }
+  if (!edges && !delayGiven) {
+    const lags: number[] = [];
+    for (let k = 0; k * dt <= a.max_delay_s + 1e-9; k++) lags.push(k * dt);
+    coarseLag = lagByInspiredCo2(flow, co2, dt, thr, sign, lags);
+  }
   if (!signGiven) {
-    notes.push(
-      `expiration sign inferred: ${sign > 0 ? 'positive' : 'negative'} flow is expiration (CO2 rises while that flow runs; ` +
-        `inspired/expired CO2 ratio ${coarse.ratio.toFixed(3)} at a lag of ${coarse.lag.toFixed(2)} s)`,
-    );
+    if (edges) {
+      notes.push(
+        `expiration sign inferred: ${sign > 0 ? 'positive' : 'negative'} flow is expiration (CO2 falls ${edges.lag.toFixed(2)} s after ` +
+          `inspiration starts and rises ${edges.gap.toFixed(2)} s later after expiration starts)` +
+          (edges.ambiguous ? '; the breathing pattern leaves this uncertain: give --expiration to be sure' : ''),
+      );
+    } else notes.push('expiration sign could not be inferred from the CO2 edges; assumed positive: give --expiration');
   }
   for (let i = 0; i < n; i++) flow[i] = sign * flow[i]!;
-
-  // typical tidal volume from the expiratory phases in the window
-  const vols: number[] = [];
-  let v = 0;
-  let inExp = false;
-  for (let i = 1; i < n; i++) {
-    const f0 = flow[i - 1]!;
-    const f1 = flow[i]!;
-    if (!(f0 === f0) || !(f1 === f1)) {
-      inExp = false;
-      v = 0;
-      continue;
-    }
-    if (f1 > thr && !inExp) {
-      inExp = true;
-      v = 0;
-    } else if (f1 < -thr && inExp) {
-      inExp = false;
-      vols.push(v);
-    }
-    if (inExp) v += 500 * (f0 + f1) * (t[i]! - t[i - 1]!);
+  if (!offsetGiven) {
+    // end-inspiratory part of each breath: from peak inspiratory flow to the expiration onset
+    const spans = breathBounds(t, flow, thr, minVol, a.min_phase_s).map((b) => {
+      let k = b.i_insp;
+      for (let i = b.i_insp; i < b.i_exp; i++) if (flow[i]! < flow[k]!) k = i;
+      return { from_s: t[k]!, to_s: b.t_exp_s - 0.02 };
+    });
+    const est = estimateFlowOffset(t, flow, spans);
+    if (est) {
+      offset = sign * est.offset; // in the file's sign convention
+      offsetFound = true;
+      for (let i = 0; i < n; i++) flow[i] = flow[i]! - est.offset;
+    } else notes.push('no end-inspiratory pause found: flow offset not corrected; give a flow offset in the settings if it is known');
   }
-  const big = vols.filter((x) => x > 0.25 * quantile(vols, 0.9));
-  const typicalVt = big.length ? median(big) : NaN;
 
   // per-breath fall fits around the coarse lag
-  const crossings = expToInspCrossings(t, flow, thr, Number.isFinite(typicalVt) ? a.min_volume_fraction * typicalVt : 0, a.min_phase_s);
+  const crossings = breathBounds(t, flow, thr, minVol, a.min_phase_s).map((b) => b.t_end_s);
   const fits: { delay: number; fit: FallFit }[] = [];
   for (const tr of crossings) {
-    const lo = tr + (delayGiven ? a.delay_s! : coarse.lag) - 0.35;
+    const lo = tr + (delayGiven ? a.delay_s! : coarseLag) - 0.35;
     const fit = fitInspiratoryFall(t, co2, Math.max(tr - 0.05, lo), lo + 1.0);
     if (fit) fits.push({ delay: fit.t0_s - tr, fit });
   }
   const delays = fits.map((f) => f.delay);
   const taus = fits.map((f) => f.fit.tau_s);
-  let delay = delayGiven ? a.delay_s! : fits.length ? median(delays) : coarse.lag;
+  let delay = delayGiven ? a.delay_s! : fits.length ? median(delays) : coarseLag;
   if (!delayGiven && delay < 0) delay = Math.max(0, delay);
   const responseGiven = a.response_ms !== null;
   const tau = responseGiven ? a.response_ms! / 1000 : taus.length ? Math.max(0, median(taus)) : 0;
@@ -228,7 +314,7 @@ export function calibrate(
     sign,
     sign_origin: signGiven ? 'given' : 'inferred',
     offset_lps: offset,
-    offset_origin: offsetGiven ? 'given' : 'inferred',
+    offset_origin: offsetGiven ? 'given' : offsetFound ? 'inferred' : 'default',
     delay_s: delay,
     delay_origin: delayGiven ? 'given' : 'inferred',
     response_ms: tau * 1000,
@@ -239,4 +325,29 @@ export function calibrate(
     fall_fits: fits.length,
     notes,
   };
+}
+
+/** Median volume of the larger flow excursions of either sign (mL), used only to set the ripple floor. */
+function typicalTidalVolume(t: Float64Array, flow: Float64Array, thr: number): number {
+  const vols: number[] = [];
+  let v = 0;
+  let dir = 0;
+  for (let i = 1; i < flow.length; i++) {
+    const f0 = flow[i - 1]!;
+    const f1 = flow[i]!;
+    if (!(f0 === f0) || !(f1 === f1)) {
+      dir = 0;
+      v = 0;
+      continue;
+    }
+    const d = f1 > thr ? 1 : f1 < -thr ? -1 : dir;
+    if (d !== dir) {
+      if (dir !== 0) vols.push(Math.abs(v));
+      v = 0;
+      dir = d;
+    }
+    v += 500 * (f0 + f1) * (t[i]! - t[i - 1]!);
+  }
+  const big = vols.filter((x) => x > 0.25 * quantile(vols, 0.9));
+  return big.length ? median(big) : NaN;
 }

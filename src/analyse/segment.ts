@@ -129,6 +129,7 @@ export function createSegmenter(opts: SegmenterOptions): Segmenter {
   }
 
   const scratch: BreathBounds[] = [];
+  let tentative = false;
 
   function onset(c: typeof up, kind: 'insp' | 'exp'): Boundary {
     const z = phaseOnset(c.ta, c.fa, c.tb, c.fb, opts.threshold_lps * 0.3, opts.threshold_lps);
@@ -151,13 +152,28 @@ export function createSegmenter(opts: SegmenterOptions): Segmenter {
     }
     if (fi < eps) Object.assign(up, { ta: ti, fa: fi, waiting: true });
     if (fi > -eps) Object.assign(down, { ta: ti, fa: fi, waiting: true });
+    // a new phase stays tentative until it has moved min_volume; if flow swings back across zero before that, its
+    // onset was a ripple (e.g. a cardiogenic dip before the real inspiration): withdraw it and wait for the next onset
+    const last = bounds[bounds.length - 1];
+    if (tentative && last) {
+      const vol = Math.abs(cum - last.c);
+      if (vol >= opts.min_volume_ml()) tentative = false;
+      else if ((last.kind === 'insp' && fi > eps) || (last.kind === 'exp' && fi < -eps)) {
+        bounds.pop();
+        tentative = false;
+        phase = last.kind === 'insp' ? 'exp' : 'insp';
+        if (!bounds.length) phase = 'none';
+      }
+    }
     if (fi > thr && phase !== 'exp' && up.ib >= 0 && !up.waiting) {
       phase = 'exp';
       addBoundary(onset(up, 'exp'), out);
+      tentative = true;
       if (bounds.length && bounds[bounds.length - 1]!.kind === 'insp') phase = 'insp';
     } else if (fi < -thr && phase !== 'insp' && down.ib >= 0 && !down.waiting) {
       phase = 'insp';
       addBoundary(onset(down, 'insp'), out);
+      tentative = true;
       if (bounds.length && bounds[bounds.length - 1]!.kind === 'exp') phase = 'exp';
     }
     prevT = ti;
