@@ -1,0 +1,79 @@
+import { STPD_ML_PER_MMHG_ML } from './constants';
+import { curveArea, curvePco2, fowlerEqualArea, lineAt, type ExpiredCurve } from './expired-curve';
+import type { BreathGas } from './gas-exchange';
+import type { TruthBreath } from './truth';
+
+export interface BreathTiming {
+  breath: number;
+  t_start_s: number;
+  t_exp_start_s: number;
+  t_end_s: number;
+}
+
+export interface BreathConditions {
+  shunt_fraction: number;
+  alv_dead_space_fraction: number;
+  q_l_min: number;
+  vco2_ml_min: number;
+  slope3_mmhg_per_l: number;
+}
+
+/**
+ * True values of one breath from its noise-free expired curve and gas exchange (definitions in truth.ts).
+ * VTCO2 = 1.1588e-3 (integral P dV_exp - PI VTi) mL STPD (primer 5.1); PECO2 = integral / V_E (5.2);
+ * PAECO2 = integral / (V_E - VDaw) (5.5); Bohr and Enghoff with the inspired term (6.1).
+ */
+export function breathTruth(
+  timing: BreathTiming,
+  curve: ExpiredCurve,
+  gas: BreathGas,
+  vtInspMl: number,
+  cond: BreathConditions,
+): TruthBreath {
+  const ve = curve.ve_ml;
+  const vd = curve.vd_aw_ml;
+  const pi = curve.pi_mmhg;
+  const area = curveArea(curve);
+  const peco2 = area / ve;
+  const vMid = (vd + 3 * curve.sigma_ml + ve) / 2;
+  const alv = lineAt(curve, vMid);
+  const pa = gas.paco2_mmhg;
+  const vdvtBohr = (alv - peco2) / (alv - pi);
+  const vdvtEnghoff = (pa - peco2) / (pa - pi);
+  const veco2 = STPD_ML_PER_MMHG_ML * area;
+  const vico2 = STPD_ML_PER_MMHG_ML * pi * vtInspMl;
+  const fowlerRaw = fowlerEqualArea(area, curve.a_mmhg, curve.b_mmhg_per_ml, ve);
+  const fowlerNet = fowlerEqualArea(area - pi * ve, curve.a_mmhg - pi, curve.b_mmhg_per_ml, ve);
+  return {
+    ...timing,
+    rr_bpm: 60 / (timing.t_end_s - timing.t_start_s),
+    vt_insp_ml: vtInspMl,
+    vt_exp_ml: ve,
+    vd_aw_ml: vd,
+    vd_fowler_exact_ml: fowlerRaw,
+    vd_fowler_net_exact_ml: fowlerNet,
+    vd_alv_ml: ((ve - vd) * (pa - gas.alv_mean_mmhg)) / (pa - pi),
+    vd_alv_unperfused_ml: cond.alv_dead_space_fraction * (ve - vd),
+    vd_phys_ml: vdvtEnghoff * ve,
+    vd_bohr_ml: vdvtBohr * ve,
+    vdvt_bohr: vdvtBohr,
+    vdvt_enghoff: vdvtEnghoff,
+    paco2_mmhg: pa,
+    pvco2_mmhg: gas.pv_mmhg,
+    pa_perfused_mmhg: gas.pa_perfused_mmhg,
+    petco2_mmhg: curvePco2(curve, ve),
+    peco2_mmhg: peco2,
+    paeco2_mmhg: area / (ve - vd),
+    alv_co2_mmhg: alv,
+    slope3_mmhg_per_l: cond.slope3_mmhg_per_l,
+    vtco2_ml: veco2 - vico2,
+    veco2_ml: veco2,
+    vico2_ml: vico2,
+    fico2_mmhg: pi,
+    shunt_fraction: cond.shunt_fraction,
+    alv_dead_space_fraction: cond.alv_dead_space_fraction,
+    q_l_min: cond.q_l_min,
+    vco2_ml_min: cond.vco2_ml_min,
+    eliminated_ml: gas.eliminated_ml,
+  };
+}

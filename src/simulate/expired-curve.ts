@@ -1,0 +1,104 @@
+import type { FrontShape } from './params';
+import { emgCdf, normalCdf } from './normal-cdf';
+
+/**
+ * True expired CO2 at the airway opening as a function of expired volume v (mL), for one breath:
+ *
+ *   P(v) = PI + (L(v) - PI) * F(v - VDaw)
+ *
+ * - phase I: P = PI (inspired level, 0 unless rebreathing);
+ * - phase II: F is a smooth front. 'symmetric': F(u) = Phi(u / sigma) (normal distribution function), symmetric
+ *   about VDaw, which makes Fowler's equal-area point equal VDaw up to a tiny residual (see `fowlerResidualMl`).
+ *   'skewed': F = exponentially modified Gaussian with mean VDaw (tail toward phase III);
+ * - phase III: L(v) = Pmix + b (v - (VDaw + V_E)/2), b = slope3 / 1000 mmHg/mL (sequential emptying), whose mean over
+ *   [VDaw, V_E] equals the mean alveolar expired PCO2 Pmix from gas exchange, so the breath's CO2 volume
+ *   (PI V_E + (Pmix - PI)(V_E - VDaw)) is what the lung eliminates.
+ * [common practice, no source: model construction; front shape in the spirit of primer 3.4 and W21]
+ */
+export interface ExpiredCurve {
+  pi_mmhg: number;
+  vd_aw_ml: number;
+  sigma_ml: number;
+  shape: FrontShape;
+  tail_ml: number;
+  /** phase III line L(v) = a + b v */
+  a_mmhg: number;
+  b_mmhg_per_ml: number;
+  ve_ml: number;
+}
+
+export function makeExpiredCurve(
+  piMmhg: number,
+  vdAwMl: number,
+  sigmaMl: number,
+  shape: FrontShape,
+  tailMl: number,
+  slope3MmhgPerL: number,
+  alvMeanMmhg: number,
+  veMl: number,
+): ExpiredCurve {
+  const b = slope3MmhgPerL / 1000;
+  const mid = (vdAwMl + veMl) / 2;
+  return {
+    pi_mmhg: piMmhg,
+    vd_aw_ml: vdAwMl,
+    sigma_ml: sigmaMl,
+    shape,
+    tail_ml: shape === 'skewed' ? tailMl : 0,
+    a_mmhg: alvMeanMmhg - b * mid,
+    b_mmhg_per_ml: b,
+    ve_ml: veMl,
+  };
+}
+
+/** Front F(u), u = v - VDaw. */
+export function frontFraction(c: ExpiredCurve, uMl: number): number {
+  return c.shape === 'skewed' && c.tail_ml > 0 ? emgCdf(uMl + c.tail_ml, c.sigma_ml, c.tail_ml) : normalCdf(uMl / c.sigma_ml);
+}
+
+/** Phase III line value at v, mmHg. */
+export function lineAt(c: ExpiredCurve, vMl: number): number {
+  return c.a_mmhg + c.b_mmhg_per_ml * vMl;
+}
+
+/** True PCO2 at expired volume v, mmHg. */
+export function curvePco2(c: ExpiredCurve, vMl: number): number {
+  return c.pi_mmhg + (lineAt(c, vMl) - c.pi_mmhg) * frontFraction(c, vMl - c.vd_aw_ml);
+}
+
+/**
+ * integral_0^{V_E} (P(v) - offset) dv by composite Simpson's rule with steps of at most sigma/4 and V_E/400, mmHg mL.
+ */
+export function curveArea(c: ExpiredCurve, offsetMmhg = 0): number {
+  const hMax = Math.min(c.sigma_ml / 4, c.ve_ml / 400);
+  let n = Math.ceil(c.ve_ml / hMax);
+  if (n % 2 === 1) n += 1;
+  const h = c.ve_ml / n;
+  let sum = curvePco2(c, 0) + curvePco2(c, c.ve_ml) - 2 * offsetMmhg;
+  for (let i = 1; i < n; i++) sum += (i % 2 === 1 ? 4 : 2) * (curvePco2(c, i * h) - offsetMmhg);
+  return (sum * h) / 3;
+}
+
+/**
+ * Fowler's equal-area airway dead space by the primer's closed form (primer 3.1): with A = integral_0^{Vx} P dV and
+ * the phase III line a + b V, solve (b/2) V*^2 + a V* - K = 0, K = a Vx + (b/2) Vx^2 - A, stable root
+ * V* = 2K / (a + sqrt(a^2 + 2 b K)) [common practice, no source: algebraic restatement of Fowler's area equality].
+ * Returns NaN when not computable. @example fowlerEqualArea(13050, 34, 0.01, 500) // 149.648 (primer W20)
+ */
+export function fowlerEqualArea(areaMmhgMl: number, aMmhg: number, bMmhgPerMl: number, vxMl: number): number {
+  const k = aMmhg * vxMl + (bMmhgPerMl / 2) * vxMl * vxMl - areaMmhgMl;
+  if (Math.abs(bMmhgPerMl * vxMl) < 1e-12 * Math.abs(aMmhg)) return aMmhg > 0 ? vxMl - areaMmhgMl / aMmhg : NaN;
+  const disc = aMmhg * aMmhg + 2 * bMmhgPerMl * k;
+  if (!(aMmhg > 0) || disc < 0) return NaN;
+  return (2 * k) / (aMmhg + Math.sqrt(disc));
+}
+
+/**
+ * Analytic residual of Fowler (on P - PI, V_x = V_E) for the symmetric front: the area lost by the front is
+ * b sigma^2 / 2 (the first moment of 1 - Phi on a half line is sigma^2/4 on each side), so
+ * V* - VDaw ~ b sigma^2 / (2 (L(VDaw) - PI))  (mL; about 0.03 mL for an adult with b = 10 mmHg/L, sigma = 15 mL)
+ * [common practice, no source: derivation in MODEL.md].
+ */
+export function fowlerResidualMl(c: ExpiredCurve): number {
+  return (c.b_mmhg_per_ml * c.sigma_ml * c.sigma_ml) / (2 * (lineAt(c, c.vd_aw_ml) - c.pi_mmhg));
+}

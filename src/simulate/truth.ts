@@ -1,0 +1,112 @@
+import type { TruthEvent } from './events';
+import type { SimParams } from './params';
+
+/**
+ * True values of one simulated breath, from the noise-free model (before any sensor effect). Times are when gas
+ * passes the airway opening (no sensor delay). Volumes BTPS as the flow sensor reports them, mL; CO2 volumes mL STPD.
+ * Dead-space ratios use the general mass balance VD/VT = (Pref - PE) / (Pref - PI) (primer 6.1), which is the
+ * primer's plain form when PI = 0.
+ */
+export interface TruthBreath {
+  breath: number;
+  /** start of inspiration */
+  t_start_s: number;
+  t_exp_start_s: number;
+  /** end of the breath = start of the next inspiration */
+  t_end_s: number;
+  rr_bpm: number;
+  vt_insp_ml: number;
+  /** expired volume passing the sensor (inspired minus leak) */
+  vt_exp_ml: number;
+  /** true airway dead space (centre of the phase II front), mL */
+  vd_aw_ml: number;
+  /** Fowler's equal-area V* on the true curve with the true phase III line, V_x = V_E, raw P (primer 3.1) */
+  vd_fowler_exact_ml: number;
+  /** same on P - PI (differs from the raw form only with rebreathing) */
+  vd_fowler_net_exact_ml: number;
+  /** alveolar dead space on the Enghoff basis: (V_E - VDaw)(PaCO2 - Pmix)/(PaCO2 - PI), mL (model formula) */
+  vd_alv_ml: number;
+  /** part of it from unperfused units: f_ads (V_E - VDaw), mL */
+  vd_alv_unperfused_ml: number;
+  /** physiologic dead space, Enghoff basis: vdvt_enghoff x V_E, mL */
+  vd_phys_ml: number;
+  /** Bohr dead space with PACO2 = alv_co2_mmhg: vdvt_bohr x V_E, mL */
+  vd_bohr_ml: number;
+  vdvt_bohr: number;
+  vdvt_enghoff: number;
+  paco2_mmhg: number;
+  pvco2_mmhg: number;
+  /** perfused alveolar = end-capillary PCO2 */
+  pa_perfused_mmhg: number;
+  /** true curve at V_E */
+  petco2_mmhg: number;
+  /** volume-weighted mean of the true expired curve (primer 5.2) */
+  peco2_mmhg: number;
+  /** integral P dV / (V_E - VDaw) (primer 5.5) */
+  paeco2_mmhg: number;
+  /** true phase III line at the midpoint of [VDaw + 3 sigma, V_E] */
+  alv_co2_mmhg: number;
+  slope3_mmhg_per_l: number;
+  /** net CO2 volume: veco2 - vico2, mL STPD (primer 5.1) */
+  vtco2_ml: number;
+  veco2_ml: number;
+  vico2_ml: number;
+  /** volume-weighted mean inspired PCO2 */
+  fico2_mmhg: number;
+  shunt_fraction: number;
+  alv_dead_space_fraction: number;
+  q_l_min: number;
+  /** CO2 production at this time, mL/min STPD */
+  vco2_ml_min: number;
+  /** CO2 leaving the lungs in this breath, mL STPD (equals vtco2_ml without leak, up to the front residual) */
+  eliminated_ml: number;
+}
+
+export interface ExportStats {
+  /** all lines written, incl. preamble, header and damaged lines */
+  lines: number;
+  /** 1-based line number of the header */
+  header_line: number;
+  /** well-formed data rows (incl. rows with blank cells) */
+  data_rows: number;
+  /** rows whose flow and CO2 cells were blanked for a 'blank' gap */
+  blank_gap_rows: number;
+  /** rows left out for a 'rows' gap */
+  omitted_gap_rows: number;
+  garbage_lines: number;
+  cut_lines: number;
+  /** first line numbers of garbage and cut lines (at most 50) */
+  damaged_line_numbers: number[];
+}
+
+export interface Truth {
+  scenario: string;
+  seed: number;
+  model: string;
+  internal_rate_hz: number;
+  params: SimParams;
+  breaths: TruthBreath[];
+  /** median of every numeric per-breath field */
+  summary: Record<string, number>;
+  events: TruthEvent[];
+  breath_count: number;
+  export?: ExportStats;
+}
+
+export const TRUTH_MODEL_ID = 'phasewise-sim-1';
+
+const NOT_SUMMARISED = new Set(['breath', 't_start_s', 't_exp_start_s', 't_end_s']);
+
+/** Medians of the numeric per-breath fields (NaN-free fields only; empty list gives an empty summary). */
+export function summariseBreaths(breaths: readonly TruthBreath[]): Record<string, number> {
+  const out: Record<string, number> = {};
+  if (breaths.length === 0) return out;
+  for (const key of Object.keys(breaths[0]!) as (keyof TruthBreath)[]) {
+    if (NOT_SUMMARISED.has(key)) continue;
+    const values = breaths.map((b) => b[key]).filter((v) => Number.isFinite(v)).sort((a, b) => a - b);
+    if (values.length === 0) continue;
+    const m = values.length >> 1;
+    out[key] = values.length % 2 === 1 ? values[m]! : (values[m - 1]! + values[m]!) / 2;
+  }
+  return out;
+}
