@@ -157,7 +157,14 @@ export function signAndLagFromEdges(
     if (fallLags.length < 3 || riseLags.length < 3) continue;
     const fall = median(fallLags);
     const rise = median(riseLags);
-    results.push({ sign, fall, rise, diff: rise - fall });
+    // edges are found as "the next one after", so lags live modulo the breath period
+    const period = median(bounds.map((b) => b.t_end_s - b.t_insp_s));
+    let diff = rise - fall;
+    if (period > 0) {
+      diff = ((diff % period) + period) % period;
+      if (diff > period - 0.05) diff -= period;
+    }
+    results.push({ sign, fall, rise, diff });
   }
   const valid = results.filter((r) => r.diff > -0.05).sort((a, b) => a.diff - b.diff);
   if (!valid.length) return null;
@@ -309,6 +316,12 @@ export function calibrate(
   const responseGiven = a.response_ms !== null;
   const tau = responseGiven ? a.response_ms! / 1000 : taus.length ? Math.max(0, median(taus)) : 0;
   if (!fits.length) notes.push('no clean inspiratory CO2 downstroke found: delay from the coarse search, response time 0');
+  if (!delayGiven && (tau >= 0.035 || delay >= 0.2)) {
+    notes.push(
+      `the CO2 sensor looks sidestream (delay ${delay.toFixed(2)} s, time constant ${(tau * 1000).toFixed(0)} ms): with regular breathing a ` +
+        'delay longer by whole breath periods would fit the signals equally; give --delay if the line delay is known',
+    );
+  }
 
   return {
     sign,

@@ -8,7 +8,7 @@
 // fit of ln q over the falling samples (q between 0.85 and 0.12) gives both tau and t0; the transport delay of this
 // breath is t0 - t_reversal. Method: common practice, no source (least-squares fit of the first-order step response).
 
-import { fitLine } from './stats.js';
+import { fitLine, median } from './stats.js';
 
 export interface FallFit {
   /** time the (delayed) step starts at the sensor, s */
@@ -52,10 +52,19 @@ export function fitInspiratoryFall(
   const dt = (t[i1]! - t[i0]!) / (i1 - i0);
   const before = Math.max(0, j - Math.max(3, Math.round(0.25 / dt)));
   const after = Math.min(n - 1, j + Math.max(6, Math.round(0.6 / dt)));
+  // levels before and after the fall, robust to noise (an extreme of noisy samples would bias tau upwards):
+  // highest 3-sample mean before the fall; median of the settled part 0.3-0.6 s after it
   let hi = -Infinity;
-  for (let i = before; i <= j; i++) if (co2[i]! > hi) hi = co2[i]!;
+  for (let i = Math.max(before, 1); i <= j; i++) {
+    const m3 = (co2[i - 1]! + co2[i]! + co2[Math.min(i + 1, j)]!) / 3;
+    if (m3 > hi) hi = m3;
+  }
+  const settled: number[] = [];
+  const settleFrom = j + Math.max(3, Math.round(0.3 / dt));
+  for (let i = settleFrom; i <= after; i++) settled.push(co2[i]!);
   let lo = Infinity;
-  for (let i = j + 1; i <= after; i++) if (co2[i]! < lo) lo = co2[i]!;
+  if (settled.length >= 3) lo = median(settled);
+  else for (let i = j + 1; i <= after; i++) if (co2[i]! < lo) lo = co2[i]!;
   const range = hi - lo;
   if (!(range >= min_drop_mmhg)) return null;
   // walk back to the last sample still near the top, then collect the falling run

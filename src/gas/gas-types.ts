@@ -1,0 +1,146 @@
+// Data shapes of the blood-gas analysis (issue 4). Units in every field name; NaN = not given / not computable.
+import type { Sex } from '../physiology/predicted-body-weight.js';
+
+/** One blood-gas sample (one valid row of the gas CSV). Optional inputs that were not given are NaN. */
+export interface GasSample {
+  /** 1-based line number in the gas file (for messages) */
+  line: number;
+  /** seconds from recording start (from time_s, or clock minus the recording start) */
+  time_s: number;
+  paco2_mmhg: number;
+  pao2_mmhg: number;
+  /** arterial O2 saturation, % (0-100) */
+  sao2_pct: number;
+  /** mixed (or central) venous O2 saturation, % (0-100) */
+  svo2_pct: number;
+  pvco2_mmhg: number;
+  /** venous PO2 (optional extra column); when absent it is estimated from svo2_pct with the Severinghaus curve */
+  pvo2_mmhg: number;
+  hb_g_dl: number;
+  /** inspired O2, % (21-100) */
+  fio2_pct: number;
+  /** patient temperature, deg C (recorded and passed through; blood-gas values are used as reported) */
+  temp_c: number;
+}
+
+export interface GasParseResult {
+  samples: GasSample[];
+  rejected: { line: number; reason: string }[];
+  /** header names that are not gas columns and were ignored */
+  ignoredColumns: string[];
+}
+
+/** Options of analyseGas. Every value actually used is recorded in GasResult.settings. */
+export interface GasOptions {
+  /** window of breaths before each sample, s (default 60) */
+  window_s?: number;
+  /** actual body weight, kg */
+  weight_kg?: number;
+  /** height, cm (adults: with sex gives predicted body weight) */
+  height_cm?: number;
+  sex?: Sex;
+  /** barometric pressure, mmHg */
+  pb_mmhg: number;
+  /** respiratory exchange ratio for the alveolar gas equation (default 0.8) */
+  rq?: number;
+  /** O2 bound per g Hb, mL/g (default 1.34) */
+  hb_o2_capacity_ml_per_g?: number;
+  /** dissolved O2 coefficient, mL/dL/mmHg (default 0.003) */
+  o2_dissolved_ml_per_dl_per_mmhg?: number;
+  /** end-capillary saturation: 'one' = assume 1.0 (default), 'odc' = Severinghaus curve at PAO2 */
+  end_capillary_saturation?: 'one' | 'odc';
+  /** alveolar gas equation form (default 'full') */
+  alveolar_gas_form?: 'full' | 'simplified';
+  /** P(v-a)CO2 assumed when PvCO2 is not measured, mmHg (default 6) */
+  default_pv_a_co2_mmhg?: number;
+  /** cardiac output, L/min: when given and PvCO2 is not measured, the Fick route replaces the default P(v-a)CO2 */
+  cardiac_output_l_min?: number;
+  /** effective CO2 dissociation slope k, mL CO2/dL/mmHg (default 0.67), used by the Fick route */
+  co2_slope_k?: number;
+  /** flag a gradient change larger than this between consecutive samples, mmHg (default 5) */
+  gradient_change_mmhg?: number;
+  /** half-width of the PaCO2 estimate band while only one gas is known, mmHg (default 5) */
+  single_gas_spread_mmhg?: number;
+}
+
+export type ShuntMethod = 'contents' | 'saturations' | '';
+export type Pvco2Source = 'measured' | 'default' | 'fick' | '';
+
+/** One row of gas.csv: one blood-gas sample matched with the breaths recorded before it. */
+export interface GasRow {
+  /** 1-based sample number in time order */
+  sample: number;
+  /** line in the gas file */
+  line: number;
+  time_s: number;
+  paco2_mmhg: number;
+  /** ok breaths inside the window that were used for the medians */
+  breaths_used: number;
+  /** window medians of the breath metrics */
+  petco2_mmhg: number;
+  peco2_mmhg: number;
+  vt_exp_ml: number;
+  /** PaCO2 - PETCO2 */
+  gradient_mmhg: number;
+  /** (PaCO2 - PETCO2) / PaCO2 */
+  avdsf: number;
+  /** median of the per-breath Bohr VD/VT */
+  vdvt_bohr: number;
+  /** (PaCO2 - median PECO2) / PaCO2 */
+  vdvt_enghoff: number;
+  /** vdvt_enghoff - vdvt_bohr */
+  vdvt_difference: number;
+  vd_aw_ml: number;
+  /** vd_phys_ml - vd_aw_ml */
+  vd_alv_ml: number;
+  /** vdvt_enghoff x median VTe */
+  vd_phys_ml: number;
+  vd_aw_ml_per_kg: number;
+  vd_alv_ml_per_kg: number;
+  vd_phys_ml_per_kg: number;
+  /** ideal alveolar PO2 from the alveolar gas equation (contents method and ODC option) */
+  pao2_alv_mmhg: number;
+  shunt_fraction: number;
+  shunt_method: ShuntMethod;
+  /** PvCO2 used for the shunt part of the gradient (measured, or PaCO2 + default P(v-a)CO2) */
+  pvco2_mmhg: number;
+  pvco2_source: Pvco2Source;
+  /** s/(1-s) x (PvCO2 - PaCO2) (or the Fick route) */
+  gradient_shunt_mmhg: number;
+  /** gradient_mmhg - gradient_shunt_mmhg: dead space and V/Q mismatch */
+  gradient_rest_mmhg: number;
+  /** gradient minus the previous sample's gradient */
+  gradient_change_mmhg: number;
+  /** |gradient_change_mmhg| > setting */
+  gradient_changed: boolean;
+  /** inputs that were missing, ';'-separated (breath metrics as breath.<field>) */
+  missing_inputs: string;
+  /** assumptions and fallbacks used for this row, ';'-separated */
+  notes: string;
+  /** patient temperature from the gas file, passed through */
+  temp_c: number;
+}
+
+/** Estimated PaCO2 for one ok breath after the first blood gas: PETCO2 + most recent gradient. */
+export interface Paco2Estimate {
+  breath: number;
+  t_start_s: number;
+  petco2_mmhg: number;
+  paco2_est_mmhg: number;
+  band_low_mmhg: number;
+  band_high_mmhg: number;
+  /** gradient added to PETCO2 (from the gas sample used) */
+  gradient_mmhg: number;
+  /** 1-based sample number of the gas used */
+  gas_sample: number;
+  /** gradients observed so far (samples at or before this breath) */
+  gases_in_band: number;
+  band_method: 'observed_range' | 'single_gas_spread';
+}
+
+export interface GasResult {
+  rows: GasRow[];
+  estimates: Paco2Estimate[];
+  settings: Record<string, unknown>;
+  warnings: string[];
+}

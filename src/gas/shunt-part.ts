@@ -1,0 +1,151 @@
+import { alveolarGasPao2 } from '../physiology/alveolar-gas-pao2.js';
+import { oxygenContent } from '../physiology/oxygen-content.js';
+import { severinghausPo2, severinghausSaturation } from '../physiology/severinghaus-saturation.js';
+import { shuntCo2Effect } from '../physiology/shunt-co2-effect.js';
+import { shuntFractionFromContents } from '../physiology/shunt-fraction-from-contents.js';
+import { shuntFractionFromSaturations } from '../physiology/shunt-fraction-from-saturations.js';
+import type { GasSample, Pvco2Source, ShuntMethod } from './gas-types.js';
+
+/** Resolved settings the shunt part needs (defaults already applied). */
+export interface ShuntSettings {
+  pb_mmhg: number;
+  rq: number;
+  hb_o2_capacity_ml_per_g: number;
+  o2_dissolved_ml_per_dl_per_mmhg: number;
+  end_capillary_saturation: 'one' | 'odc';
+  alveolar_gas_form: 'full' | 'simplified';
+  default_pv_a_co2_mmhg: number;
+  cardiac_output_l_min: number | null;
+  co2_slope_k: number;
+}
+
+export interface ShuntPart {
+  pao2_alv_mmhg: number;
+  shunt_fraction: number;
+  shunt_method: ShuntMethod;
+  pvco2_mmhg: number;
+  pvco2_source: Pvco2Source;
+  gradient_shunt_mmhg: number;
+  missing: string[];
+  notes: string[];
+}
+
+const has = (v: number) => Number.isFinite(v);
+
+/**
+ * Venous admixture of one blood-gas sample and the part of the CO2 gradient it explains.
+ *
+ * Shunt fraction (primer 10.3):
+ * - 'contents' when PaO2, SaO2, SvO2, Hb and FiO2 are present: Qs/Qt = (Cc'O2 - CaO2)/(Cc'O2 - CvO2), contents
+ *   k_Hb * Hb * S + c * PO2; PAO2 from the alveolar gas equation (full or simplified, R setting); Sc'O2 = 1.0 or
+ *   Severinghaus(PAO2); venous PO2 from pvo2_mmhg, else from SvO2 by inverting the Severinghaus curve.
+ * - 'saturations' when SaO2 and SvO2 are present but a content input is missing (PO2 terms neglected):
+ *   Qs/Qt ~ (Sc'O2 - SaO2)/(Sc'O2 - SvO2) with Sc'O2 = 1.0 (or Severinghaus(PAO2) when the ODC option is on and
+ *   PAO2 can be computed).
+ * Shunt part of the gradient (primer 10.4), PaCO2 - Pc'CO2 ~ s/(1 - s) * (PvCO2 - PaCO2), with PvCO2 measured;
+ * else, when a cardiac output is given, the Fick route s * V'CO2 / (k * Q' * (1 - s)) with V'CO2 from the breaths;
+ * else PvCO2 = PaCO2 + the default P(v-a)CO2 [from memory: textbooks].
+ *
+ * @param vco2MlPerMin CO2 elimination from the window breaths (for the Fick route), NaN if unknown
+ */
+export function shuntPart(sample: GasSample, settings: ShuntSettings, vco2MlPerMin: number): ShuntPart {
+  const missing: string[] = [];
+  const notes: string[] = [];
+  const out: ShuntPart = {
+    pao2_alv_mmhg: NaN,
+    shunt_fraction: NaN,
+    shunt_method: '',
+    pvco2_mmhg: NaN,
+    pvco2_source: '',
+    gradient_shunt_mmhg: NaN,
+    missing,
+    notes,
+  };
+  const constants = {
+    hbO2CapacityMlPerG: settings.hb_o2_capacity_ml_per_g,
+    dissolvedO2MlPerDlPerMmhg: settings.o2_dissolved_ml_per_dl_per_mmhg,
+  };
+
+  if (has(sample.fio2_pct)) {
+    out.pao2_alv_mmhg = alveolarGasPao2({
+      fio2: sample.fio2_pct / 100,
+      pbMmhg: settings.pb_mmhg,
+      paco2Mmhg: sample.paco2_mmhg,
+      rq: settings.rq,
+      form: settings.alveolar_gas_form,
+    });
+  }
+  let endCapillarySaturation = 1;
+  if (settings.end_capillary_saturation === 'odc') {
+    if (has(out.pao2_alv_mmhg)) {
+      endCapillarySaturation = severinghausSaturation(out.pao2_alv_mmhg);
+      notes.push(`Sc'O2 ${endCapillarySaturation.toFixed(4)} from the Severinghaus curve at PAO2`);
+    } else {
+      notes.push("Sc'O2 assumed 1.0 (fio2_pct missing, so no PAO2 for the dissociation curve)");
+    }
+  } else {
+    notes.push("Sc'O2 assumed 1.0");
+  }
+
+  for (const name of ['sao2_pct', 'svo2_pct'] as const) if (!has(sample[name])) missing.push(name);
+  const contentInputs = ['pao2_mmhg', 'hb_g_dl', 'fio2_pct'] as const;
+  const missingContent = contentInputs.filter((name) => !has(sample[name]));
+  missing.push(...missingContent);
+  if (missing.length > missingContent.length) return out; // no saturations: no shunt estimate at all
+
+  const sa = sample.sao2_pct / 100;
+  const sv = sample.svo2_pct / 100;
+  if (missingContent.length === 0) {
+    let pvo2 = sample.pvo2_mmhg;
+    if (!has(pvo2)) {
+      pvo2 = severinghausPo2(sv);
+      notes.push(`venous PO2 ${pvo2.toFixed(1)} mmHg estimated from SvO2 with the Severinghaus curve`);
+    }
+    const cc = oxygenContent(sample.hb_g_dl, endCapillarySaturation, out.pao2_alv_mmhg, constants);
+    const ca = oxygenContent(sample.hb_g_dl, sa, sample.pao2_mmhg, constants);
+    const cv = oxygenContent(sample.hb_g_dl, sv, pvo2, constants);
+    out.shunt_fraction = shuntFractionFromContents(cc, ca, cv);
+    out.shunt_method = 'contents';
+  } else {
+    out.shunt_fraction = shuntFractionFromSaturations(endCapillarySaturation, sa, sv);
+    out.shunt_method = 'saturations';
+    notes.push(`shunt from saturations only, dissolved O2 neglected (${missingContent.join(', ')} missing)`);
+  }
+  if (!has(out.shunt_fraction)) return out;
+
+  const s = out.shunt_fraction;
+  if (has(sample.pvco2_mmhg)) {
+    out.pvco2_mmhg = sample.pvco2_mmhg;
+    out.pvco2_source = 'measured';
+    out.gradient_shunt_mmhg = shuntCo2Effect({
+      route: 'venous_arterial',
+      shuntFraction: s,
+      venousMinusArterialMmhg: sample.pvco2_mmhg - sample.paco2_mmhg,
+    });
+    return out;
+  }
+  missing.push('pvco2_mmhg');
+  if (settings.cardiac_output_l_min !== null && has(vco2MlPerMin)) {
+    out.pvco2_source = 'fick';
+    out.gradient_shunt_mmhg = shuntCo2Effect({
+      route: 'fick',
+      shuntFraction: s,
+      vco2MlPerMin,
+      cardiacOutputLPerMin: settings.cardiac_output_l_min,
+      co2SlopeMlPerDlPerMmhg: settings.co2_slope_k,
+    });
+    notes.push(
+      `shunt part by the Fick route: V'CO2 ${vco2MlPerMin.toFixed(0)} mL/min, cardiac output ${settings.cardiac_output_l_min} L/min, k ${settings.co2_slope_k}`,
+    );
+    return out;
+  }
+  out.pvco2_mmhg = sample.paco2_mmhg + settings.default_pv_a_co2_mmhg;
+  out.pvco2_source = 'default';
+  out.gradient_shunt_mmhg = shuntCo2Effect({
+    route: 'venous_arterial',
+    shuntFraction: s,
+    venousMinusArterialMmhg: settings.default_pv_a_co2_mmhg,
+  });
+  notes.push(`PvCO2 not measured: assumed PaCO2 + ${settings.default_pv_a_co2_mmhg} mmHg`);
+  return out;
+}
