@@ -1,10 +1,15 @@
-// `phasewise analyse FILE --out DIR`: one recording -> breaths.csv, summary.json and a terminal summary.
+// `phasewise analyse FILE --out DIR`: one recording -> breaths.csv, summary.json (+ gas.csv and paco2_estimates.csv
+// with --gas) and a terminal summary.
 import { join } from 'node:path';
 import type { Command } from 'commander';
 import { analyseFile } from '../node/analyse-file.js';
 import { writeFileAtomic } from '../node/atomic-write.js';
 import { breathsCsv } from '../report/breaths-csv.js';
-import { formatSummaryText } from '../report/summary.js';
+import { formatSummaryText, type Summary } from '../report/summary.js';
+import { summaryFor } from '../report/summary-for.js';
+import { formatNumber } from '../report/format.js';
+import type { GasResult } from '../gas/index.js';
+import { addGasOptions, estimatesCsv, gasCsv, gasOptionsFrom, jsonSafe, readGasFile, runGasStep } from './gas-step.js';
 import { addInputOptions, resolveSettings } from './options.js';
 
 export function registerAnalyse(program: Command): void {
@@ -16,14 +21,63 @@ export function registerAnalyse(program: Command): void {
     .requiredOption('--out <dir>', 'output folder')
     .option('--json', 'print summary.json to the terminal instead of the table')
     .option('--quiet', 'print nothing on success');
-  addInputOptions(cmd).action(async (file: string, opts: Record<string, unknown>) => {
+  addGasOptions(addInputOptions(cmd)).action(async (file: string, opts: Record<string, unknown>) => {
     const { settings, given } = resolveSettings(opts);
+    const gas = readGasFile(opts); // read first: a bad gas file fails before the long analysis
     const result = await analyseFile(file, settings, given);
     const out = String(opts.out);
+    let summary: Summary = result.summary;
+    let gasResult: GasResult | null = null;
+    const written = [join(out, 'breaths.csv'), join(out, 'summary.json')];
+    if (gas) {
+      const gasOpts = gasOptionsFrom(opts, settings);
+      gasResult = runGasStep(result.core.breaths, gas, gasOpts, settings);
+      summary = summaryFor(result.core, result.report, settings, given);
+      summary.gas = jsonSafe({
+        file: opts.gas,
+        samples_read: gas.samples.length,
+        samples_rejected: gas.rejected,
+        per_breath_enghoff:
+          settings.analysis.paco2_mmhg === null ? 'PaCO2 of the most recent gas sample at or before each breath' : 'the --paco2 value',
+        rows: gasResult.rows,
+        settings: gasResult.settings,
+        warnings: gasResult.warnings,
+      });
+      writeFileAtomic(join(out, 'gas.csv'), gasCsv(gasResult));
+      writeFileAtomic(join(out, 'paco2_estimates.csv'), estimatesCsv(gasResult));
+      written.push(join(out, 'gas.csv'), join(out, 'paco2_estimates.csv'));
+    }
     writeFileAtomic(join(out, 'breaths.csv'), breathsCsv(result.core.breaths));
-    writeFileAtomic(join(out, 'summary.json'), JSON.stringify(result.summary, null, 2) + '\n');
+    writeFileAtomic(join(out, 'summary.json'), JSON.stringify(summary, null, 2) + '\n');
     if (opts.quiet) return;
-    if (opts.json) process.stdout.write(JSON.stringify(result.summary, null, 2) + '\n');
-    else process.stdout.write(formatSummaryText(result.summary) + `\n\nwritten: ${join(out, 'breaths.csv')}, ${join(out, 'summary.json')}\n`);
+    if (opts.json) {
+      process.stdout.write(JSON.stringify(summary, null, 2) + '\n');
+      return;
+    }
+    let text = formatSummaryText(summary);
+    if (gasResult) text = insertBeforeCaution(text, formatGasText(gasResult));
+    process.stdout.write(text + `\n\nwritten: ${written.join(', ')}\n`);
   });
+}
+
+function insertBeforeCaution(text: string, block: string): string {
+  const i = text.lastIndexOf('\nCAUTION:');
+  return i < 0 ? `${text}\n${block}` : `${text.slice(0, i)}\n${block}\n${text.slice(i)}`;
+}
+
+function formatGasText(g: GasResult): string {
+  const f = (x: number, d = 1) => (Number.isFinite(x) ? formatNumber(Number(x.toFixed(d))) : '—');
+  const lines = ['blood gases (median of ok breaths in the window before each sample):'];
+  lines.push(
+    `${'t (s)'.padStart(8)}${'PaCO2'.padStart(8)}${'PETCO2'.padStart(8)}${'Pa-ET'.padStart(8)}${'AVDSF'.padStart(8)}${'Bohr'.padStart(7)}${'Enghoff'.padStart(9)}${'shunt'.padStart(7)}${'by shunt'.padStart(10)}${'rest'.padStart(7)}  n`,
+  );
+  for (const r of g.rows) {
+    lines.push(
+      `${f(r.time_s, 0).padStart(8)}${f(r.paco2_mmhg).padStart(8)}${f(r.petco2_mmhg).padStart(8)}${f(r.gradient_mmhg).padStart(8)}${f(r.avdsf, 3).padStart(8)}` +
+        `${f(r.vdvt_bohr, 3).padStart(7)}${f(r.vdvt_enghoff, 3).padStart(9)}${f(r.shunt_fraction, 2).padStart(7)}${f(r.gradient_shunt_mmhg).padStart(10)}` +
+        `${f(r.gradient_rest_mmhg).padStart(7)}  ${r.breaths_used}${r.gradient_changed ? '  gradient changed' : ''}`,
+    );
+  }
+  for (const w of g.warnings) lines.push(`gas note: ${w}`);
+  return lines.join('\n');
 }

@@ -6,6 +6,7 @@ import { EXIT_CODES, exitCodeFor, isInputError } from '../ingest/errors.js';
 import { SettingsError } from '../settings-file.js';
 import { VERSION } from '../version.js';
 import { registerAnalyse } from './analyse-command.js';
+import { CliError } from './errors.js';
 import { registerSimulate } from './simulate-command.js';
 
 function fail(message: string, code: number): never {
@@ -17,6 +18,7 @@ function handle(e: unknown): never {
   if (process.env.PHASEWISE_DEBUG) console.error(e);
   if (e instanceof CommanderError) process.exit(e.exitCode === 0 ? 0 : EXIT_CODES.usage);
   if (isInputError(e)) fail(e.message, exitCodeFor(e.code));
+  if (e instanceof CliError) fail(e.message, e.exitCode);
   if (e instanceof SettingsError) fail(e.message, EXIT_CODES.usage);
   if (e instanceof AnalysisInputError) fail(e.message, EXIT_CODES.input);
   const err = e as NodeJS.ErrnoException;

@@ -19,3 +19,4 @@ export { estimatePaco2 } from './estimate-paco2.js';
 export { GAS_DEFAULTS } from './gas-defaults.js';
 export { GAS_COLUMNS, PACO2_ESTIMATE_COLUMNS } from './gas-columns.js';
 export { finiteMedian } from './median.js';
+export { applyArterialPco2 } from './apply-paco2.js';

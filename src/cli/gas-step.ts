@@ -1,0 +1,82 @@
+// The blood-gas part of `analyse`: read --gas FILE (or --paco2), apply PaCO2 to the breaths, compute the gas table.
+import { existsSync, readFileSync } from 'node:fs';
+import type { Command } from 'commander';
+import { InvalidArgumentError, Option } from 'commander';
+import { analyseGas, applyArterialPco2, GAS_COLUMNS, PACO2_ESTIMATE_COLUMNS, parseGasCsv, type GasOptions, type GasResult, type GasSample } from '../gas/index.js';
+import { EXIT_CODES } from '../ingest/errors.js';
+import { csvTable } from '../report/format.js';
+import type { Settings } from '../settings.js';
+import type { BreathRow } from '../types.js';
+import { CliError } from './errors.js';
+
+function positive(name: string) {
+  return (v: string) => {
+    const x = Number(v);
+    if (!(x > 0)) throw new InvalidArgumentError(`${name} needs a positive number, got "${v}"`);
+    return x;
+  };
+}
+
+export function addGasOptions(cmd: Command): Command {
+  return cmd
+    .option('--gas <file>', 'blood gas samples (CSV: time_s or clock, paco2_mmhg, optional pao2_mmhg, sao2_pct, svo2_pct, pvco2_mmhg, hb_g_dl, fio2_pct, temp_c)')
+    .option('--start <clock>', 'recording start as a clock time, for a gas file with a clock column (e.g. 2026-03-04T10:15:00 or 10:15:00)')
+    .option('--weight <kg>', 'body weight, kg (per-kg dead spaces)', positive('--weight'))
+    .option('--height <cm>', 'height, cm (adults: predicted body weight with --sex)', positive('--height'))
+    .addOption(new Option('--sex <sex>', 'sex for predicted body weight').choices(['male', 'female']))
+    .option('--gas-window <s>', 'seconds of ok breaths before each gas sample that are summarised (default 60)', positive('--gas-window'))
+    .option('--cardiac-output <l_min>', 'cardiac output, L/min (venous PCO2 by the Fick route when not measured)', positive('--cardiac-output'));
+}
+
+export interface GasStepResult {
+  samples: GasSample[];
+  rejected: { line: number; reason: string }[];
+  result: GasResult | null;
+}
+
+/** Reads the gas file (one-line errors, exit code 3 for unusable files). */
+export function readGasFile(opts: Record<string, unknown>): { samples: GasSample[]; rejected: { line: number; reason: string }[] } | null {
+  if (typeof opts.gas !== 'string') return null;
+  const path = opts.gas;
+  if (!existsSync(path)) throw new CliError(`${path}: gas file not found. Check the path given to --gas.`, EXIT_CODES.input);
+  try {
+    const parsed = parseGasCsv(readFileSync(path, 'utf8'), path, typeof opts.start === 'string' ? { start: opts.start } : {});
+    return { samples: parsed.samples, rejected: parsed.rejected };
+  } catch (e) {
+    throw new CliError((e as Error).message, EXIT_CODES.input);
+  }
+}
+
+export function gasOptionsFrom(opts: Record<string, unknown>, settings: Settings): GasOptions {
+  const o: GasOptions = { pb_mmhg: settings.ingest.pb_mmhg };
+  if (typeof opts.gasWindow === 'number') o.window_s = opts.gasWindow;
+  if (typeof opts.weight === 'number') o.weight_kg = opts.weight;
+  if (typeof opts.height === 'number') o.height_cm = opts.height;
+  if (opts.sex === 'male' || opts.sex === 'female') o.sex = opts.sex;
+  if (typeof opts.cardiacOutput === 'number') o.cardiac_output_l_min = opts.cardiacOutput;
+  return o;
+}
+
+/** Applies the gas samples to the breaths (Enghoff per breath when --paco2 was not given) and builds the gas table. */
+export function runGasStep(
+  breaths: BreathRow[],
+  gas: { samples: GasSample[]; rejected: { line: number; reason: string }[] },
+  opts: GasOptions,
+  settings: Settings,
+): GasResult {
+  if (settings.analysis.paco2_mmhg === null) applyArterialPco2(breaths, gas.samples, settings.analysis.bohr_inspired_term);
+  return analyseGas(breaths, gas.samples, opts);
+}
+
+export function gasCsv(result: GasResult): string {
+  return csvTable(GAS_COLUMNS as readonly string[], result.rows as unknown as Record<string, unknown>[]);
+}
+
+export function estimatesCsv(result: GasResult): string {
+  return csvTable(PACO2_ESTIMATE_COLUMNS as readonly string[], result.estimates as unknown as Record<string, unknown>[]);
+}
+
+/** JSON-safe copy (NaN -> null). */
+export function jsonSafe<T>(x: T): T {
+  return JSON.parse(JSON.stringify(x, (_k, v) => (typeof v === 'number' && !Number.isFinite(v) ? null : v)));
+}
