@@ -246,32 +246,68 @@ export function decomposeBreath(s: BreathSignals, ctx: BreathContext): BreathDec
     return { row, geometry, flags };
   }
 
-  // ---- phase II: steepest point of the compensated curve (inflection), smoothed local slopes
-  const slope = new Float64Array(M);
-  for (let j = 1; j < M - 1; j++) {
-    const dv = cv[j + 1]! - cv[j - 1]!;
-    slope[j] = dv > 0 ? (cp[j + 1]! - cp[j - 1]!) / dv : 0;
+  // ---- phase II: steepest point of the compensated curve (inflection). Slopes are taken on a uniform volume grid
+  // (V_E / 400 per step, central differences over +-2 steps, [1 2 1] smoothing), not between raw samples: at low
+  // flow neighbouring samples are a fraction of a mL apart and noise / dV would dominate (primer 2.1 B).
+  const G = 400;
+  const h = vte / G;
+  const grid = new Float64Array(G + 1);
+  {
+    let j = 0;
+    for (let g = 0; g <= G; g++) {
+      const v = g * h;
+      while (j < M - 2 && cv[j + 1]! < v) j++;
+      const v0 = cv[j]!;
+      const v1 = cv[j + 1]!;
+      grid[g] = v1 > v0 ? cp[j]! + ((Math.min(Math.max(v, v0), v1) - v0) / (v1 - v0)) * (cp[j + 1]! - cp[j]!) : cp[j]!;
+    }
   }
-  const sm = new Float64Array(M);
-  for (let j = 2; j < M - 2; j++) sm[j] = 0.25 * slope[j - 1]! + 0.5 * slope[j]! + 0.25 * slope[j + 1]!;
-  let jmax = -1;
+  const raw = new Float64Array(G + 1);
+  for (let g = 2; g <= G - 2; g++) raw[g] = (grid[g + 2]! - grid[g - 2]!) / (4 * h);
+  const sm = new Float64Array(G + 1);
+  for (let g = 3; g <= G - 3; g++) sm[g] = 0.25 * raw[g - 1]! + 0.5 * raw[g]! + 0.25 * raw[g + 1]!;
+  // anchor the search on the rise itself: first crossings of 25 % and 75 % of the preliminary phase III line by the
+  // grid curve smoothed over 5 steps; the steepest point is sought within one rise width of them (robust to noise)
+  const levelAt = (g: number) => {
+    let acc = 0;
+    let cnt = 0;
+    for (let k = Math.max(0, g - 2); k <= Math.min(G, g + 2); k++) {
+      acc += grid[k]!;
+      cnt++;
+    }
+    return (acc / cnt - base) / Math.max(1e-9, lineAt(prelim, g * h));
+  };
+  let g25 = -1;
+  let g75 = -1;
+  for (let g = 0; g <= G; g++) {
+    const level = levelAt(g);
+    if (g25 < 0 && level >= 0.25) g25 = g;
+    if (g25 >= 0 && level >= 0.75) {
+      g75 = g;
+      break;
+    }
+  }
+  const width = g75 > g25 && g25 >= 0 ? g75 - g25 : G;
+  const searchLo = g25 >= 0 ? Math.max(3, g25 - width) : 3;
+  const searchHi = g75 >= 0 ? Math.min(G - 3, g75 + width) : G - 3;
+  let gmax = -1;
   let smax = 0;
-  for (let j = 2; j < M - 2; j++) {
-    const level = (cp[j]! - base) / Math.max(1e-9, lineAt(prelim, cv[j]!));
+  for (let g = searchLo; g <= searchHi; g++) {
+    const level = (grid[g]! - base) / Math.max(1e-9, lineAt(prelim, g * h));
     if (level < 0.1 || level > 0.9) continue;
-    if (sm[j]! > smax) {
-      smax = sm[j]!;
-      jmax = j;
+    if (sm[g]! > smax) {
+      smax = sm[g]!;
+      gmax = g;
     }
   }
   let vInflection = NaN;
-  if (jmax > 0) {
-    const y0 = sm[jmax - 1]!;
-    const y1 = sm[jmax]!;
-    const y2 = sm[jmax + 1]!;
+  if (gmax > 0) {
+    const y0 = sm[gmax - 1]!;
+    const y1 = sm[gmax]!;
+    const y2 = sm[gmax + 1]!;
     const den = y0 - 2 * y1 + y2;
     const d = den < 0 ? Math.max(-0.5, Math.min(0.5, (0.5 * (y0 - y2)) / den)) : 0;
-    vInflection = cv[jmax]! + (d >= 0 ? d * (cv[jmax + 1]! - cv[jmax]!) : d * (cv[jmax]! - cv[jmax - 1]!));
+    vInflection = (gmax + d) * h;
     row.slope2_mmhg_per_l = smax * 1000;
     row.vd_inflection_ml = vInflection - cfg.apparatus_ml;
   }
@@ -312,6 +348,12 @@ export function decomposeBreath(s: BreathSignals, ctx: BreathContext): BreathDec
   const fit = fitPhase3(T, V, PS, F, from, to, ctx.tau_s, lowFlow, base);
   const minSpan = Math.max(cfg.min_phase3_ml, cfg.min_phase3_fraction * vte);
   if (!fit || fit.n < cfg.min_phase3_points || to - from < 0.5 * minSpan || vte - v3 < minSpan) {
+    flags.push('no_phase3');
+    return { row, geometry, flags };
+  }
+  // a "plateau" as steep as half the phase II slope is still phase II: the expiration ended before the plateau
+  // (phase III slopes are a small fraction of phase II slopes; common practice, no source)
+  if (Number.isFinite(row.slope2_mmhg_per_l) && fit.b * 1000 > 0.5 * row.slope2_mmhg_per_l) {
     flags.push('no_phase3');
     return { row, geometry, flags };
   }

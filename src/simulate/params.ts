@@ -23,10 +23,12 @@ export type EventParam =
   | 'shunt_fraction'
   | 'vco2_ml_min'
   | 'pi_co2_mmhg'
-  | 'slope3_mmhg_per_l';
+  | 'slope3_mmhg_per_l'
+  | 'leak_fraction'
+  | 'co2_clip_mmhg';
 
 /** What an event means, as recorded in the truth (the trend/event issue classifies by these). */
-export type EventKind = 'perfusion' | 'dead_space' | 'ventilation' | 'shunt' | 'metabolic' | 'rebreathing' | 'slope';
+export type EventKind = 'perfusion' | 'dead_space' | 'ventilation' | 'shunt' | 'metabolic' | 'rebreathing' | 'slope' | 'sensor';
 
 export const EVENT_KIND_OF: Readonly<Record<EventParam, EventKind>> = {
   q_l_min: 'perfusion',
@@ -37,6 +39,8 @@ export const EVENT_KIND_OF: Readonly<Record<EventParam, EventKind>> = {
   vco2_ml_min: 'metabolic',
   pi_co2_mmhg: 'rebreathing',
   slope3_mmhg_per_l: 'slope',
+  leak_fraction: 'sensor',
+  co2_clip_mmhg: 'sensor',
 };
 
 /** A change of one parameter starting at t_s (recording time): a step (ramp_s = 0) or a linear ramp. */
@@ -122,6 +126,8 @@ export interface SimParams {
   flow_offset_lps: number;
   /** expired volume lost before the flow sensor, fraction of the inspired volume */
   leak_fraction: number;
+  /** CO2 reading saturates at this value (sensor range, clipping); 0 = off */
+  co2_clip_mmhg: number;
   /** cardiogenic flow ripple amplitude, L/s */
   cardio_flow_lps: number;
   /** cardiogenic CO2 ripple amplitude at low expiratory flow, mmHg */
@@ -199,6 +205,7 @@ export const BASE_PARAMS: Readonly<SimParams> = {
   flow_noise_lps: 0.003,
   flow_offset_lps: 0,
   leak_fraction: 0,
+  co2_clip_mmhg: 0,
   cardio_flow_lps: 0,
   cardio_co2_mmhg: 0,
   hr_bpm: 75,

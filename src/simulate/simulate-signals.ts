@@ -104,6 +104,8 @@ export function* simulateSignals(params: SimParams, seed: number): Generator<Sim
     const vtNominal = paramAt(p, events, 'vt_ml', t0);
     const rrNominal = paramAt(p, events, 'rr_bpm', t0);
     const slope3 = paramAt(p, events, 'slope3_mmhg_per_l', t0);
+    const leak = paramAt(p, events, 'leak_fraction', t0);
+    const clip = paramAt(p, events, 'co2_clip_mmhg', t0);
     const g = gasAt(t0);
     const vt = clamp(vtNominal * (1 + p.vt_cv * breathRng.normal()), Math.max(vtMin, 0.4 * vtNominal), 1.8 * vtNominal);
     const periodNominal = 60 / rrNominal;
@@ -111,7 +113,7 @@ export function* simulateSignals(params: SimParams, seed: number): Generator<Sim
     fillBreathWave(
       wave,
       { mode: p.mode, vtMl: vt, periodS: period, ieRatio: p.ie_ratio, pauseFraction: p.pause_fraction, rcS: p.rc_s,
-        edgeS: p.flow_edge_ms / 1000, leak: p.leak_fraction, fsHz },
+        edgeS: p.flow_edge_ms / 1000, leak, fsHz },
       breathRng,
     );
     const n = wave.n;
@@ -138,7 +140,7 @@ export function* simulateSignals(params: SimParams, seed: number): Generator<Sim
       const co2Noise = p.co2_noise_mmhg > 0 ? p.co2_noise_mmhg * noiseRng.normal() : 0;
       chunk.block.t_s[m] = tS;
       chunk.block.flow_lps[m] = q + ripple + p.flow_offset_lps + flowNoise;
-      chunk.block.co2_mmhg[m] = reading + co2Noise;
+      chunk.block.co2_mmhg[m] = clip > 0 ? Math.min(reading + co2Noise, clip) : reading + co2Noise;
       const lungFlow = wave.lungFlow[k]!;
       const vol = wave.lungVolume[k]!;
       chunk.extra.paw_cmh2o[m] =

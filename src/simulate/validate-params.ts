@@ -50,6 +50,7 @@ export function validateParams(p: SimParams): void {
   num('flow_noise_lps', 0, 5);
   num('flow_offset_lps', -5, 5);
   num('leak_fraction', 0, 0.8);
+  num('co2_clip_mmhg', 0, 200);
   num('cardio_flow_lps', 0, 2);
   num('cardio_co2_mmhg', 0, 20);
   num('hr_bpm', 20, 250);

@@ -95,3 +95,17 @@ describe('decomposeBreath on primer synthetic curve C (W21, smooth symmetric fro
   it('Fowler VDaw = 150.00 mL', () => expectClose(d.row.vd_aw_ml, 150, { abs: 0.05 }));
   it('inflection (max slope) VDaw = 150.00 mL', () => expectClose(d.row.vd_inflection_ml, 150, { abs: 0.05 }));
 });
+
+describe('decomposeBreath quality codes on synthetic breaths (common practice, no source)', () => {
+  it('no_phase3 when the expiration ends inside phase II (curve A cut at 180 mL)', () => {
+    const curve = (v: number) => (v < 100 ? 0 : v < 200 ? (40 * (v - 100)) / 100 : 40);
+    const d = decomposeBreath(breathFromCurve(curve, 180), { breath: 1, delay_s: 0, tau_s: 0, settings: settings() });
+    expect(d.flags).toContain('no_phase3');
+    expect(Number.isNaN(d.row.vd_aw_ml)).toBe(true);
+  });
+  it('short_exp when the expiration is shorter than min_phase_s', () => {
+    const curve = (v: number) => (v < 100 ? 0 : 40);
+    const d = decomposeBreath(breathFromCurve(curve, 50, 1000, 0.5), { breath: 1, delay_s: 0, tau_s: 0, settings: settings() });
+    expect(d.flags).toContain('short_exp');
+  });
+});
