@@ -5,7 +5,8 @@
 //     "files": [ { "pattern": "**/site-b/*.csv", "ingest": { "decimal": ",", "delimiter": ";" } } ] }
 
 import { z } from 'zod';
-import { DEFAULT_ANALYSIS, DEFAULT_INGEST, type Settings } from './settings.js';
+import { DEFAULT_ANALYSIS, DEFAULT_INGEST, SETTING_GROUPS, type Settings } from './settings.js';
+import { DEFAULT_TRENDS, trendSettingsSchema } from './trends/settings.js';
 
 const num = z.number().finite();
 const pos = num.positive();
@@ -72,6 +73,7 @@ export const settingsFileSchema = z
   .object({
     ingest: ingestSchema.optional(),
     analysis: analysisSchema.optional(),
+    events: trendSettingsSchema.optional(),
     files: z
       .array(z.object({ pattern: z.string().min(1), ingest: ingestSchema.optional(), analysis: analysisSchema.optional() }).strict())
       .optional(),
@@ -102,10 +104,10 @@ export function parseSettingsFile(text: string, fileName: string): SettingsFile 
 /** Applies a partial settings group on top of settings, recording the dotted keys as given. */
 export function applySettings(
   target: Settings,
-  patch: { ingest?: Partial<Settings['ingest']>; analysis?: Partial<Settings['analysis']> },
+  patch: { ingest?: Partial<Settings['ingest']>; analysis?: Partial<Settings['analysis']>; events?: Partial<Settings['events']> },
   given: Set<string>,
 ): void {
-  for (const group of ['ingest', 'analysis'] as const) {
+  for (const group of SETTING_GROUPS) {
     const p = patch[group];
     if (!p) continue;
     for (const [k, v] of Object.entries(p)) {
@@ -118,10 +120,11 @@ export function applySettings(
 
 /** The full settings as a settings file (what the viewer exports and the CLI reads back). */
 export function settingsToFile(s: Settings): SettingsFile {
-  return { ingest: { ...s.ingest }, analysis: { ...s.analysis } };
+  return { ingest: { ...s.ingest }, analysis: { ...s.analysis }, events: { ...s.events } };
 }
 
 export const SETTING_KEYS = {
   ingest: Object.keys(DEFAULT_INGEST),
   analysis: Object.keys(DEFAULT_ANALYSIS),
+  events: Object.keys(DEFAULT_TRENDS),
 };

@@ -1,3 +1,5 @@
+import { DEFAULT_TRENDS, type TrendSettings } from './trends/settings.js';
+
 // Every tunable of the analysis, with its default. The CLI, the settings file (--settings FILE.json),
 // the viewer and the outputs all read this one table, so documentation and code cannot drift apart.
 // Each entry says what it does and why its default was chosen.
@@ -86,6 +88,8 @@ export interface AnalysisSettings {
 export interface Settings {
   ingest: IngestSettings;
   analysis: AnalysisSettings;
+  /** trends and event detection (src/trends/settings.ts) */
+  events: TrendSettings;
 }
 
 export const DEFAULT_INGEST: IngestSettings = {
@@ -139,5 +143,7 @@ export const DEFAULT_ANALYSIS: AnalysisSettings = {
 };
 
 export function defaultSettings(): Settings {
-  return { ingest: { ...DEFAULT_INGEST }, analysis: { ...DEFAULT_ANALYSIS } };
+  return { ingest: { ...DEFAULT_INGEST }, analysis: { ...DEFAULT_ANALYSIS }, events: { ...DEFAULT_TRENDS } };
 }
+
+export const SETTING_GROUPS = ['ingest', 'analysis', 'events'] as const;

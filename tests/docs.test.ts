@@ -4,6 +4,7 @@ import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
 import { REASON_CODES } from '../src/analyse/quality.js';
 import { DEFAULT_ANALYSIS, DEFAULT_INGEST } from '../src/settings.js';
+import { DEFAULT_TRENDS } from '../src/trends/settings.js';
 
 const readme = readFileSync(new URL('../README.md', import.meta.url), 'utf8');
 
@@ -14,6 +15,7 @@ describe('README', () => {
   it('lists every setting', () => {
     for (const k of Object.keys(DEFAULT_INGEST)) expect(readme, k).toContain(`ingest.${k}`);
     for (const k of Object.keys(DEFAULT_ANALYSIS)) expect(readme, k).toContain(`analysis.${k}`);
+    for (const k of Object.keys(DEFAULT_TRENDS)) expect(readme, k).toContain(`events.${k}`);
   });
   it('starts with the job paragraph, then the two set-up commands', () => {
     const firstParagraph = readme.split('\n\n')[1]!;

@@ -8,6 +8,8 @@ import { breathsCsv } from '../report/breaths-csv.js';
 import { formatSummaryText, type Summary } from '../report/summary.js';
 import { summaryFor } from '../report/summary-for.js';
 import { formatNumber } from '../report/format.js';
+import { eventsCsv, trendsAndEvents, trendsCsv } from '../report/trends-events.js';
+import { formatEventLine } from '../trends/index.js';
 import type { GasResult } from '../gas/index.js';
 import { addGasOptions, estimatesCsv, gasCsv, gasOptionsFrom, jsonSafe, readGasFile, runGasStep } from './gas-step.js';
 import { addInputOptions, resolveSettings } from './options.js';
@@ -47,6 +49,11 @@ export function registerAnalyse(program: Command): void {
       writeFileAtomic(join(out, 'paco2_estimates.csv'), estimatesCsv(gasResult));
       written.push(join(out, 'gas.csv'), join(out, 'paco2_estimates.csv'));
     }
+    const te = trendsAndEvents(result.core.breaths, settings.events, gas ? gas.samples : []);
+    summary.events = jsonSafe(te.events);
+    writeFileAtomic(join(out, 'trends.csv'), trendsCsv(te.trends));
+    writeFileAtomic(join(out, 'events.csv'), eventsCsv(te.events));
+    written.push(join(out, 'trends.csv'), join(out, 'events.csv'));
     writeFileAtomic(join(out, 'breaths.csv'), breathsCsv(result.core.breaths));
     writeFileAtomic(join(out, 'summary.json'), JSON.stringify(summary, null, 2) + '\n');
     if (opts.quiet) return;
@@ -56,6 +63,10 @@ export function registerAnalyse(program: Command): void {
     }
     let text = formatSummaryText(summary);
     if (gasResult) text = insertBeforeCaution(text, formatGasText(gasResult));
+    text = insertBeforeCaution(
+      text,
+      te.events.length ? ['events (patterns in the data, not diagnoses):', ...te.events.map((e) => `  ${formatEventLine(e)}`)].join('\n') : 'events: none detected',
+    );
     process.stdout.write(text + `\n\nwritten: ${written.join(', ')}\n`);
   });
 }

@@ -3,7 +3,7 @@
 import type { AnalysisCore } from '../analyse/analyser.js';
 import { REASON_CODES } from '../analyse/quality.js';
 import { quantileSorted } from '../analyse/stats.js';
-import type { Settings } from '../settings.js';
+import { SETTING_GROUPS, type Settings } from '../settings.js';
 import { SUMMARY_METRICS, type BreathRow, type MetricSummary, type RecordedSetting } from '../types.js';
 import { VERSION } from '../version.js';
 import { CAUTION } from './caution.js';
@@ -75,7 +75,7 @@ export function recordSettings(
   inferred: Record<string, { value: unknown; note?: string }> = {},
 ): Record<string, RecordedSetting> {
   const out: Record<string, RecordedSetting> = {};
-  for (const group of ['ingest', 'analysis'] as const) {
+  for (const group of SETTING_GROUPS) {
     for (const [k, v] of Object.entries(settings[group])) {
       const key = `${group}.${k}`;
       out[key] = { value: v, origin: given.has(key) ? 'given' : 'default' };

@@ -1,0 +1,72 @@
+import { median } from '../analyse/stats.js';
+import type { BreathRow } from '../types.js';
+import type { TrendSettings } from './settings.js';
+import type { TrendRow } from './trend-row.js';
+
+/**
+ * Summarises breath rows into fixed time bins of `opts.bin_s` seconds, aligned to recording time 0 (bin i covers
+ * [i bin_s, (i+1) bin_s)). A breath belongs to the bin holding its start. Every bin from the first breath's bin to the
+ * last breath's bin gets a row, so gaps show as rows with breaths = 0. Formulas and the handling of excluded breaths:
+ * see TrendRow (src/trends/trend-row.ts). Cost O(n log n) in the number of breaths (medians).
+ */
+export function computeTrends(breaths: readonly BreathRow[], opts: Pick<TrendSettings, 'bin_s' | 'min_ok_breaths'>): TrendRow[] {
+  const binS = opts.bin_s;
+  if (!(binS > 0)) throw new RangeError('bin_s must be positive');
+  const withTime = breaths.filter((b) => Number.isFinite(b.t_start_s));
+  if (withTime.length === 0) return [];
+  let first = Infinity;
+  let last = -Infinity;
+  for (const b of withTime) {
+    const i = Math.floor(b.t_start_s / binS);
+    if (i < first) first = i;
+    if (i > last) last = i;
+  }
+  const groups: BreathRow[][] = Array.from({ length: last - first + 1 }, () => []);
+  for (const b of withTime) groups[Math.floor(b.t_start_s / binS) - first]!.push(b);
+  return groups.map((g, j) => summariseBin((first + j) * binS, g, opts.min_ok_breaths));
+}
+
+function summariseBin(tS: number, all: BreathRow[], minOk: number): TrendRow {
+  const ok = all.filter((b) => b.status === 'ok');
+  const row: TrendRow = {
+    t_s: tS,
+    vco2_ml_min: NaN,
+    ve_l_min: NaN,
+    va_l_min: NaN,
+    rr_bpm: NaN,
+    vte_ml: NaN,
+    petco2_mmhg: NaN,
+    vd_aw_ml: NaN,
+    vdvt_bohr: NaN,
+    slope3_mmhg_per_l: NaN,
+    fico2_mmhg: median(all.map((b) => b.fico2_mmhg)),
+    delay_s: median(all.map((b) => b.delay_s)),
+    ok_share: all.length > 0 ? ok.length / all.length : NaN,
+    breaths: all.length,
+  };
+  if (ok.length < minOk || ok.length === 0) return row;
+  row.vco2_ml_min = ratePerMinute(ok, (b) => b.vtco2_ml);
+  row.ve_l_min = ratePerMinute(ok, (b) => b.vt_exp_ml / 1000);
+  row.va_l_min = ratePerMinute(ok, (b) => (b.vt_exp_ml - b.vd_aw_ml) / 1000);
+  row.rr_bpm = ratePerMinute(ok, () => 1);
+  row.vte_ml = median(ok.map((b) => b.vt_exp_ml));
+  row.petco2_mmhg = median(ok.map((b) => b.petco2_mmhg));
+  row.vd_aw_ml = median(ok.map((b) => b.vd_aw_ml));
+  row.vdvt_bohr = median(ok.map((b) => b.vdvt_bohr));
+  row.slope3_mmhg_per_l = median(ok.map((b) => b.slope3_mmhg_per_l));
+  return row;
+}
+
+/** sum(value) / (sum(duration)/60) over breaths where both are finite and the duration is positive; NaN if none. */
+function ratePerMinute(rows: readonly BreathRow[], value: (b: BreathRow) => number): number {
+  let sum = 0;
+  let seconds = 0;
+  for (const b of rows) {
+    const v = value(b);
+    const d = b.t_end_s - b.t_start_s;
+    if (!Number.isFinite(v) || !(d > 0)) continue;
+    sum += v;
+    seconds += d;
+  }
+  return seconds > 0 ? sum / (seconds / 60) : NaN;
+}
