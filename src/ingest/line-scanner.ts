@@ -1,0 +1,331 @@
+// The fast path: a hand-written scanner over string chunks (charCodeAt), reading only the time, flow and CO2
+// fields of each data line and handing the values to the RowAssembler.
+//
+// Plain decimals (optional sign, at most 15 digits, the file's decimal mark, no exponent) are converted as
+// integer mantissa / 10^k. Both operands are exact doubles (mantissa < 2^53, 10^k for k <= 22), so the one
+// IEEE division rounds the exact decimal value correctly: the result is bit-identical to Number()
+// (Clinger 1990, "How to read floating point numbers accurately", the fast path). Clock stamps are read in place
+// by clock-scan.ts. Anything else (exponents, more digits, quotes, missing-value words, odd stamps) goes through the
+// careful per-cell path (cell.ts, clock-time.ts); tests/ingest/equivalence.test.ts checks both give the same.
+import { parseNumberCell } from './cell';
+import { scanClock, type ClockParts } from './clock-scan';
+import { ClockReader, type ClockKind } from './clock-time';
+import { InputError } from './errors';
+import type { TableLayout } from './layout';
+import type { RowAssembler } from './row-assembler';
+import { MAX_LINE_CHARS } from './sniff-structure';
+import { acceptsFieldCount, splitFields } from './split-fields';
+
+const POW10 = [1, 1e1, 1e2, 1e3, 1e4, 1e5, 1e6, 1e7, 1e8, 1e9, 1e10, 1e11, 1e12, 1e13, 1e14, 1e15, 1e16];
+const ROLE_NONE = 0;
+const ROLE_TIME = 1;
+const ROLE_FLOW = 2;
+const ROLE_CO2 = 3;
+const ROLE_CLOCK = 4;
+/** cell results besides a number */
+const BAD = 1;
+
+export class LineScanner {
+  /** 0-based index of the next line to read */
+  lineIndex = 0;
+  private readonly roleOf: Int8Array;
+  private readonly delim: number;
+  private readonly dec: number;
+  private readonly eol: number;
+  private readonly ws2: number;
+  private readonly ws3: number;
+  private readonly eolChar: string;
+  private readonly dataStart: number;
+  private readonly fieldCount: number;
+  private readonly headerTrailingEmpty: boolean;
+  private readonly decimal: '.' | ',';
+  private readonly clock: ClockReader | null;
+  private readonly clockKind: ClockKind | null;
+  private readonly parts: ClockParts = { day: 0, sec: 0 };
+  private readonly delimiter: string;
+  // results of the current line
+  private tv = NaN;
+  private fv = NaN;
+  private cv = NaN;
+  private badCol = 0;
+  private timeBlank = false;
+
+  constructor(layout: TableLayout, private readonly rows: RowAssembler, private readonly file: string) {
+    this.roleOf = new Int8Array(layout.field_count + 2);
+    const clock = layout.units.time === 'clock';
+    if (layout.columns.time >= 0) this.roleOf[layout.columns.time] = clock ? ROLE_CLOCK : ROLE_TIME;
+    this.roleOf[layout.columns.flow] = ROLE_FLOW;
+    this.roleOf[layout.columns.co2] = ROLE_CO2;
+    this.delimiter = layout.delimiter;
+    this.delim = layout.delimiter.charCodeAt(0);
+    this.decimal = layout.decimal;
+    this.dec = layout.decimal.charCodeAt(0);
+    this.eolChar = layout.line_end;
+    this.eol = layout.line_end.charCodeAt(0);
+    this.ws2 = this.eol === 10 ? 13 : 10;
+    this.ws3 = this.delim === 9 ? 32 : 9;
+    this.dataStart = layout.data_start_index;
+    this.fieldCount = layout.field_count;
+    this.headerTrailingEmpty = layout.header_trailing_empty;
+    this.clock = layout.clock_kind ? new ClockReader(layout.clock_kind) : null;
+    this.clockKind = layout.clock_kind;
+  }
+
+  /**
+   * Read the complete lines of `s`. Returns the index of the first character not consumed (the start of an
+   * incomplete last line, to be carried over), or s.length. With `final`, the end of `s` ends the last line.
+   */
+  scan(s: string, final: boolean): number {
+    const len = s.length;
+    const eol = this.eol;
+    let pos = 0;
+    while (pos < len) {
+      if (this.lineIndex < this.dataStart) {
+        const e = s.indexOf(this.eolChar, pos);
+        if (e < 0) {
+          if (!final) return pos;
+          this.lineIndex++;
+          return len;
+        }
+        pos = e + 1;
+        this.lineIndex++;
+        continue;
+      }
+      // blank line?
+      let j = pos;
+      let c = s.charCodeAt(j);
+      while (c === 32 || c === this.ws2 || c === this.ws3) c = s.charCodeAt(++j);
+      if (c === eol || j >= len) {
+        if (j >= len && !final) return pos;
+        this.rows.blank();
+        this.lineIndex++;
+        pos = Math.min(j + 1, len);
+        continue;
+      }
+      if (c === 35 || (c === 47 && s.charCodeAt(j + 1) === 47)) {
+        const e = s.indexOf(this.eolChar, j);
+        if (e < 0 && !final) return pos;
+        this.rows.skip(this.lineIndex + 1, 'comment_line');
+        this.lineIndex++;
+        pos = e < 0 ? len : e + 1;
+        continue;
+      }
+      const next = this.line(s, pos, len, final);
+      if (next < 0) return pos;
+      if (next - pos > MAX_LINE_CHARS) throw this.tooLong();
+      pos = next;
+      this.lineIndex++;
+    }
+    return pos;
+  }
+
+  tooLong(): InputError {
+    const line = this.lineIndex + 1;
+    return new InputError('line_too_long', `line ${line} is longer than ${MAX_LINE_CHARS / 1000} kB`, 'This does not look like a table of samples; export it as CSV with one sample per line.', { file: this.file, line });
+  }
+
+  /** Parse one data line starting at `start`; returns the index after its terminator, or -1 if incomplete. */
+  private line(s: string, start: number, len: number, final: boolean): number {
+    const delim = this.delim;
+    const eol = this.eol;
+    const dec = this.dec;
+    const ws2 = this.ws2;
+    const ws3 = this.ws3;
+    const roleOf = this.roleOf;
+    const nRoles = roleOf.length;
+    this.tv = NaN;
+    this.fv = NaN;
+    this.cv = NaN;
+    this.badCol = 0;
+    this.timeBlank = false;
+    let field = 0;
+    let i = start;
+    let lastFieldStart = start;
+    let c = 0;
+    for (;;) {
+      lastFieldStart = i;
+      const role = field < nRoles ? roleOf[field]! : ROLE_NONE;
+      if (role === ROLE_NONE) {
+        c = s.charCodeAt(i);
+        while (c !== delim && c !== eol && i < len) {
+          if (c === 34) return this.slowLine(s, start, len, final);
+          c = s.charCodeAt(++i);
+        }
+      } else {
+        let j = i;
+        c = s.charCodeAt(j);
+        while (c === 32 || c === ws2 || c === ws3) c = s.charCodeAt(++j);
+        let v = NaN;
+        let done = false;
+        if (role === ROLE_CLOCK) {
+          const e = scanClock(s, j, this.clockKind!, this.parts, delim);
+          if (e >= 0) {
+            let q = e;
+            c = s.charCodeAt(q);
+            while (c === 32 || c === ws2 || c === ws3) c = s.charCodeAt(++q);
+            if (c === delim || c === eol || q >= len) {
+              v = this.clock!.fromParts(this.parts.day, this.parts.sec);
+              i = q;
+              done = true;
+            }
+          }
+          if (!done) c = s.charCodeAt(j);
+        }
+        if (!done) {
+          let neg = false;
+          let signed = false;
+          if (c === 45) {
+            neg = true;
+            signed = true;
+            c = s.charCodeAt(++j);
+          } else if (c === 43) {
+            signed = true;
+            c = s.charCodeAt(++j);
+          }
+          let m = 0;
+          let nd = 0;
+          let k = 0;
+          let dot = false;
+          while (c >= 48 && c <= 57) {
+            m = m * 10 + (c - 48);
+            nd++;
+            c = s.charCodeAt(++j);
+          }
+          if (c === dec) {
+            dot = true;
+            c = s.charCodeAt(++j);
+            while (c >= 48 && c <= 57) {
+              m = m * 10 + (c - 48);
+              nd++;
+              k++;
+              c = s.charCodeAt(++j);
+            }
+          }
+          while (c === 32 || c === ws2 || c === ws3) c = s.charCodeAt(++j);
+          const atEnd = c === delim || c === eol || j >= len;
+          if (atEnd && nd > 0 && nd <= 15 && role !== ROLE_CLOCK) {
+            v = k === 0 ? m : m / POW10[k]!;
+            if (neg) v = -v;
+            i = j;
+          } else if (atEnd && nd === 0 && !signed && !dot) {
+            v = NaN; // blank cell
+            i = j;
+          } else {
+            // careful path for this cell
+            let e = i;
+            c = s.charCodeAt(e);
+            while (c !== delim && c !== eol && e < len) {
+              if (c === 34) return this.slowLine(s, start, len, final);
+              c = s.charCodeAt(++e);
+            }
+            if (e >= len && !final) return -1;
+            v = this.cell(s.substring(i, e), role, field);
+            i = e;
+          }
+        }
+        if (role === ROLE_FLOW) this.fv = v;
+        else if (role === ROLE_CO2) this.cv = v;
+        else {
+          this.tv = v;
+          if (v !== v && this.badCol === 0) this.timeBlank = true;
+        }
+      }
+      field++;
+      if (c === delim && i < len) {
+        i++;
+        continue;
+      }
+      if (i < len) {
+        // c === eol
+        this.finishLine(field, false, s, lastFieldStart, i);
+        return i + 1;
+      }
+      if (!final) return -1;
+      this.finishLine(field, true, s, lastFieldStart, i);
+      return len;
+    }
+  }
+
+  /** Read one cell the careful way; NaN for blank, records the first unreadable column. */
+  private cell(text: string, role: number, field: number): number {
+    if (role === ROLE_CLOCK) {
+      const t = text.trim();
+      if (t === '') return NaN;
+      const v = this.clock!.read(t);
+      if (v === v) return v;
+    } else {
+      const v = parseNumberCell(text, this.decimal);
+      if (typeof v === 'number') return v;
+      if (v === null) return NaN;
+    }
+    if (this.badCol === 0) this.badCol = field + 1;
+    return BAD;
+  }
+
+  private finishLine(fields: number, unterminated: boolean, s: string, lastFieldStart: number, end: number): void {
+    const line = this.lineIndex + 1;
+    const rows = this.rows;
+    if (fields !== this.fieldCount) {
+      let lastEmpty = false;
+      if (fields === this.fieldCount + 1) lastEmpty = s.substring(lastFieldStart, end).trim() === '';
+      if (!acceptsFieldCount(fields, this.fieldCount, lastEmpty, this.headerTrailingEmpty)) {
+        rows.skip(line, unterminated ? 'truncated_line' : 'field_count');
+        return;
+      }
+    }
+    if (this.badCol !== 0) {
+      if (unterminated) rows.skip(line, 'truncated_line', this.badCol);
+      else rows.skip(line, 'non_numeric', this.badCol);
+      return;
+    }
+    if (this.timeBlank) {
+      rows.skip(line, unterminated ? 'truncated_line' : 'missing_time');
+      return;
+    }
+    rows.row(line, this.tv, this.fv, this.cv);
+  }
+
+  /** A line with quotes: split it with the quote-aware splitter, then read the cells carefully. */
+  private slowLine(s: string, start: number, len: number, final: boolean): number {
+    let e = s.indexOf(this.eolChar, start);
+    if (e < 0) {
+      if (!final) return -1;
+      e = len;
+    }
+    const unterminated = e >= len;
+    const fields = splitFields(s.substring(start, e), this.delimiter);
+    const line = this.lineIndex + 1;
+    if (fields === null) {
+      this.rows.skip(line, unterminated ? 'truncated_line' : 'field_count');
+      return unterminated ? len : e + 1;
+    }
+    this.tv = NaN;
+    this.fv = NaN;
+    this.cv = NaN;
+    this.badCol = 0;
+    this.timeBlank = false;
+    for (let f = 0; f < fields.length && f < this.roleOf.length; f++) {
+      const role = this.roleOf[f]!;
+      if (role === ROLE_NONE) continue;
+      const v = this.cell(fields[f]!, role, f);
+      if (role === ROLE_FLOW) this.fv = v;
+      else if (role === ROLE_CO2) this.cv = v;
+      else {
+        this.tv = v;
+        if (v !== v && this.badCol === 0) this.timeBlank = true;
+      }
+    }
+    const n = fields.length;
+    const lastEmpty = fields[n - 1]!.trim() === '';
+    if (n !== this.fieldCount && !acceptsFieldCount(n, this.fieldCount, lastEmpty, this.headerTrailingEmpty)) {
+      this.rows.skip(line, unterminated ? 'truncated_line' : 'field_count');
+    } else if (this.badCol !== 0) {
+      this.rows.skip(line, unterminated ? 'truncated_line' : 'non_numeric', this.badCol);
+    } else if (this.timeBlank) {
+      this.rows.skip(line, unterminated ? 'truncated_line' : 'missing_time');
+    } else {
+      this.rows.row(line, this.tv, this.fv, this.cv);
+    }
+    return unterminated ? len : e + 1;
+  }
+}

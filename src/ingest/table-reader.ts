@@ -1,0 +1,74 @@
+// createTableReader: streams a text table through the fast line scanner into SampleBlocks.
+// Text may arrive in chunks split anywhere (mid-line, mid-number, between CR and LF); an incomplete last line
+// is carried over to the next chunk. Binary content is refused by the sniffer (NUL in the first 64 kB); later, a NUL
+// or other stray character is ordinary damage: the line holding it is skipped and counted. Memory does not grow with the input: only the carried line and the
+// current block (about 64k samples) are kept.
+import type { IngestSettings } from '../settings';
+import type { SampleBlock } from '../types';
+import type { TableLayout } from './layout';
+import { LineScanner } from './line-scanner';
+import type { IngestReport } from './report';
+import { RowAssembler } from './row-assembler';
+import { MAX_LINE_CHARS } from './sniff-structure';
+
+export interface TableReader {
+  /** Feed the next piece of text (from the very start of the file, preamble and header included). */
+  push(text: string): SampleBlock[];
+  /** End of input: reads a last line without terminator, runs the final checks, returns the last blocks. */
+  end(): SampleBlock[];
+  /** The account so far (complete after end()). */
+  report(): IngestReport;
+}
+
+/** UTF-8 byte length of a string (fast when it is ASCII). */
+export function utf8Length(s: string): number {
+  // eslint-disable-next-line no-control-regex
+  if (!/[^\u0000-\u007f]/.test(s)) return s.length;
+  let n = 0;
+  for (let i = 0; i < s.length; i++) {
+    const c = s.charCodeAt(i);
+    if (c < 0x80) n += 1;
+    else if (c < 0x800) n += 2;
+    else if (c >= 0xd800 && c < 0xdc00 && i + 1 < s.length) {
+      n += 4;
+      i++;
+    } else n += 3;
+  }
+  return n;
+}
+
+export function createTableReader(layout: TableLayout, settings: IngestSettings, fileName: string): TableReader {
+  const rows = new RowAssembler(layout, settings, fileName);
+  const scanner = new LineScanner(layout, rows, fileName);
+  let carry = '';
+  let started = false;
+  let ended = false;
+  let bytes = 0;
+
+  return {
+    push(text: string): SampleBlock[] {
+      if (ended) throw new Error('TableReader.push after end');
+      if (text.length === 0) return [];
+      if (!started) {
+        started = true;
+        if (text.charCodeAt(0) === 0xfeff) text = text.slice(1);
+      }
+      bytes += utf8Length(text);
+      const s = carry.length ? carry + text : text;
+      const used = scanner.scan(s, false);
+      carry = used < s.length ? s.slice(used) : '';
+      if (carry.length > MAX_LINE_CHARS) throw scanner.tooLong();
+      return rows.take();
+    },
+    end(): SampleBlock[] {
+      if (ended) return [];
+      ended = true;
+      if (carry.length) scanner.scan(carry, true);
+      carry = '';
+      return rows.finish();
+    },
+    report(): IngestReport {
+      return rows.report(bytes);
+    },
+  };
+}
