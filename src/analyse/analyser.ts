@@ -101,6 +101,7 @@ export function createAnalyser(settings: Settings, onBreath?: (e: BreathEvent) =
   let partial = 0;
   let segments = 0;
   let inSegment = false;
+  let minVolumeMl = 0; // ripple floor: min_volume_fraction x running median tidal volume (updated per breath)
 
   function newSegment(): void {
     segments++;
@@ -112,10 +113,7 @@ export function createAnalyser(settings: Settings, onBreath?: (e: BreathEvent) =
     segmenter = createSegmenter({
       threshold_lps: cfg.flow_threshold_fraction * c.peak_flow_lps,
       min_phase_s: cfg.min_phase_s,
-      min_volume_ml: () => {
-        const typical = recentVt.length >= 5 ? median(recentVt) : c.typical_vt_ml;
-        return Number.isFinite(typical) ? cfg.min_volume_fraction * typical : 0;
-      },
+      min_volume_ml: () => minVolumeMl,
     });
   }
 
@@ -209,6 +207,7 @@ export function createAnalyser(settings: Settings, onBreath?: (e: BreathEvent) =
     if (d.row.vt_exp_ml > 0) {
       recentVt.push(d.row.vt_exp_ml);
       if (recentVt.length > 15) recentVt.shift();
+      if (recentVt.length >= 5) minVolumeMl = cfg.min_volume_fraction * median(recentVt);
     }
     onBreath?.({ decomposition: d, signals });
   }
@@ -245,6 +244,7 @@ export function createAnalyser(settings: Settings, onBreath?: (e: BreathEvent) =
     for (let i = 0; i < co2.length; i++) if (co2[i]! === co2[i]!) co2Seen++;
     if (co2Seen < 10) throw new AnalysisInputError('no_co2', 'the CO2 channel has no readable values in the first part of the recording');
     cal = calibrate(t, f, co2, settings);
+    minVolumeMl = Number.isFinite(cal.typical_vt_ml) ? cfg.min_volume_fraction * cal.typical_vt_ml : 0;
     for (let i = 0; i < t.length; i++) feed(t[i]!, f[i]!, co2[i]!);
     calT.length = calF.length = calC.length = 0;
   }

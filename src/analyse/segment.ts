@@ -141,17 +141,30 @@ export function createSegmenter(opts: SegmenterOptions): Segmenter {
     const thr = opts.threshold_lps;
     const eps = 0.3 * thr;
     if (prevI >= 0) cum += 500 * (fi + prevF) * (ti - prevT); // mL
-    for (const c of [up, down]) {
-      if (c.waiting) {
-        c.tb = ti;
-        c.fb = fi;
-        c.ib = idx;
-        c.cb = cum;
-        c.waiting = false;
-      }
+    if (up.waiting) {
+      up.tb = ti;
+      up.fb = fi;
+      up.ib = idx;
+      up.cb = cum;
+      up.waiting = false;
     }
-    if (fi < eps) Object.assign(up, { ta: ti, fa: fi, waiting: true });
-    if (fi > -eps) Object.assign(down, { ta: ti, fa: fi, waiting: true });
+    if (down.waiting) {
+      down.tb = ti;
+      down.fb = fi;
+      down.ib = idx;
+      down.cb = cum;
+      down.waiting = false;
+    }
+    if (fi < eps) {
+      up.ta = ti;
+      up.fa = fi;
+      up.waiting = true;
+    }
+    if (fi > -eps) {
+      down.ta = ti;
+      down.fa = fi;
+      down.waiting = true;
+    }
     // a new phase stays tentative until it has moved min_volume; if flow swings back across zero before that, its
     // onset was a ripple (e.g. a cardiogenic dip before the real inspiration): withdraw it and wait for the next onset
     const last = bounds[bounds.length - 1];
