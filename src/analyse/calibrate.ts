@@ -298,7 +298,7 @@ export function calibrate(
       offset = sign * est.offset; // in the file's sign convention
       offsetFound = true;
       for (let i = 0; i < n; i++) flow[i] = flow[i]! - est.offset;
-    } else notes.push('no end-inspiratory pause found: flow offset not corrected; give a flow offset in the settings if it is known');
+    } else notes.push('no end-inspiratory pause found: flow offset not corrected; set analysis.flow_offset_lps in a settings file if it is known');
   }
 
   // per-breath fall fits around the coarse lag

@@ -17,6 +17,7 @@ export function summaryFor(core: AnalysisCore, report: IngestReport, settings: S
     'ingest.time_unit': { value: report.units.time },
   };
   const record = recordSettings(settings, given, core, inferred);
-  return buildSummary(core, { ...report }, record, [...report.notes]);
+  // reading notes stay in input.notes; summary.notes holds the analysis notes
+  return buildSummary(core, { ...report }, record);
 }
 

@@ -192,7 +192,11 @@ export function formatSummaryText(s: Summary): string {
   }
   const skipped = Object.entries(inp.skipped_by_reason ?? {}).filter(([, n]) => n > 0);
   if (skipped.length) lines.push(`skipped rows by reason: ${skipped.map(([k, n]) => `${k} ${n}`).join(', ')}`);
+  const read = readingLine(inp);
+  if (read) lines.push(read);
   for (const n of s.notes) lines.push(`note: ${n}`);
+  const inputNotes = Array.isArray(inp.notes) ? (inp.notes as string[]) : [];
+  for (const n of inputNotes) if (n.startsWith('warning')) lines.push(`note: ${n}`);
   lines.push('');
   lines.push(`CAUTION: ${s.caution}`);
   return lines.join('\n');
@@ -202,4 +206,17 @@ function fmt(x: number | null, digits: number): string {
   if (x === null || !Number.isFinite(x)) return '—';
   const s = formatNumber(Number(x.toFixed(digits)));
   return s === '' ? '—' : s;
+}
+
+/** One line on how the file was read (all reading notes are in summary.json, input.notes). */
+function readingLine(inp: InputSummary): string {
+  const cols = inp.columns as { time: string | null; flow: string; co2: string } | undefined;
+  const units = inp.units as { time: string; flow: string; co2: string } | undefined;
+  if (!cols || !units) return '';
+  const delim = inp.delimiter === '\t' ? 'tab' : inp.delimiter === ';' ? 'semicolon' : inp.delimiter === ',' ? 'comma' : String(inp.delimiter);
+  const rate = typeof inp.rate_hz === 'number' && Number.isFinite(inp.rate_hz) ? `, ${fmt(inp.rate_hz, 0)} Hz` : '';
+  return (
+    `read: ${delim}-separated, decimal '${String(inp.decimal)}', time ${cols.time ?? '(from --rate)'} [${units.time}], ` +
+    `flow ${cols.flow} [${units.flow}], CO2 ${cols.co2} [${units.co2}]${rate} (details: summary.json input.notes)`
+  );
 }
