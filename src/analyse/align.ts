@@ -13,6 +13,7 @@
 //   slow: the raw reading shifted by delay + tau (a first-order lag delays a ramp by exactly tau), which keeps the
 //         raw noise level and is used for the phase III regression.
 
+import { detExp } from '../numeric/det-math.js';
 /** Compensated series and the time each compensated value belongs to. */
 export function deconvolveFirstOrder(t: ArrayLike<number>, y: ArrayLike<number>, tau_s: number): { t: Float64Array; x: Float64Array } {
   const n = y.length;
@@ -31,7 +32,7 @@ export function deconvolveFirstOrder(t: ArrayLike<number>, y: ArrayLike<number>,
   tx[0] = t[0]!;
   for (let i = 1; i < n; i++) {
     const dt = t[i]! - t[i - 1]!;
-    const beta = Math.exp(-dt / tau_s);
+    const beta = detExp(-dt / tau_s);
     const alpha = 1 - beta;
     raw[i] = (y[i]! - beta * y[i - 1]!) / alpha;
     tx[i] = t[i]! - (tau_s - (dt * beta) / alpha);

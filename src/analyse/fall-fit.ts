@@ -8,6 +8,7 @@
 // fit of ln q over the falling samples (q between 0.85 and 0.12) gives both tau and t0; the transport delay of this
 // breath is t0 - t_reversal. Method: common practice, no source (least-squares fit of the first-order step response).
 
+import { detLog } from '../numeric/det-math.js';
 import { fitLine, median } from './stats.js';
 
 export interface FallFit {
@@ -77,7 +78,7 @@ export function fitInspiratoryFall(
     if (i > j && q < 0.12) break;
     if (q < 0.85 && q > 0.12) {
       xs.push(t[i]!);
-      ys.push(Math.log(q));
+      ys.push(detLog(q));
     }
   }
   if (xs.length >= 2) {

@@ -9,6 +9,7 @@
 // With tau = 0 the rows are [1, V_k] and this is the ordinary phase III regression.
 // Method: common practice, no source (linear least squares on the discretised first-order sensor model).
 
+import { detExp } from '../numeric/det-math.js';
 import { MultivariateLinearRegression } from 'ml-regression';
 
 export interface Phase3Fit {
@@ -54,7 +55,7 @@ export function fitPhase3(
     let beta = 0;
     let centre = 0;
     if (tauS > 0 && dt > 0) {
-      beta = Math.exp(-dt / tauS);
+      beta = detExp(-dt / tauS);
       centre = tauS - (dt * beta) / (1 - beta);
     }
     const alpha = 1 - beta;
@@ -85,7 +86,7 @@ export function fitPhase3(
   for (let i = 0; i < xs.length; i++) {
     const r = ys[i]![0]! - a * xs[i]![0]! - b * xs[i]![1]!;
     sse += r * r;
-    sst += (ys[i]![0]! - mean) ** 2;
+    sst += (ys[i]![0]! - mean) * (ys[i]![0]! - mean);
   }
   return { a, b, r2: sst > 0 ? 1 - sse / sst : NaN, rms: Math.sqrt(sse / xs.length), n: xs.length };
 }

@@ -1,3 +1,4 @@
+import { detLog } from '../numeric/det-math.js';
 /**
  * Expected anatomic dead space of infants and children, mL/kg (Numa & Newth).
  *
@@ -11,5 +12,5 @@
  */
 export function numaNewthDeadSpacePerKg(ageYears: number): number {
   if (!(ageYears >= 0)) return NaN;
-  return 3.28 - 0.56 * Math.log(1 + ageYears);
+  return 3.28 - 0.56 * detLog(1 + ageYears);
 }

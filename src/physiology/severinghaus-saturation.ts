@@ -12,7 +12,7 @@
  */
 export function severinghausSaturation(po2Mmhg: number): number {
   if (!(po2Mmhg > 0)) return NaN;
-  return 1 / (23400 / (po2Mmhg ** 3 + 150 * po2Mmhg) + 1);
+  return 1 / (23400 / (po2Mmhg * po2Mmhg * po2Mmhg + 150 * po2Mmhg) + 1);
 }
 
 /**

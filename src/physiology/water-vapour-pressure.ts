@@ -1,3 +1,4 @@
+import { detExp } from '../numeric/det-math.js';
 /** hPa per mmHg (1 mmHg = 133.322 Pa). */
 const HPA_PER_MMHG = 1.33322;
 
@@ -13,6 +14,6 @@ const HPA_PER_MMHG = 1.33322;
  * Valid for about 0-50 C; NaN propagates.
  */
 export function waterVapourPressureMmhg(tempC: number): number {
-  const hPa = 6.1121 * Math.exp((17.502 * tempC) / (240.97 + tempC));
+  const hPa = 6.1121 * detExp((17.502 * tempC) / (240.97 + tempC));
   return hPa / HPA_PER_MMHG;
 }

@@ -1,5 +1,6 @@
 // summary.json and the terminal summary of one recording.
 
+import { detLog } from '../numeric/det-math.js';
 import type { AnalysisCore } from '../analyse/analyser.js';
 import { REASON_CODES } from '../analyse/quality.js';
 import { quantileSorted } from '../analyse/stats.js';
@@ -139,7 +140,7 @@ export function buildSummary(
       per_breath_p75: d.length ? quantileSorted(d, 0.75) : null,
       n: d.length,
     },
-    response_ms: { value: c.response_ms, origin: c.response_origin, rise_10_90_ms: c.response_ms * Math.log(9) },
+    response_ms: { value: c.response_ms, origin: c.response_origin, rise_10_90_ms: c.response_ms * detLog(9) },
     flow_offset_lps: { value: c.offset_lps, origin: c.offset_origin },
     expiration: { value: c.sign > 0 ? 'positive' : 'negative', origin: c.sign_origin },
     metrics: metricSummaries(rows),

@@ -8,12 +8,13 @@
 //
 // Two-sided scheme: 1/ARL = 1/ARL+ + 1/ARL-, with ARL- the one-sided ARL at -delta.
 
+import { detExp } from '../numeric/det-math.js';
 /** One-sided ARL (number of values until an alarm) by Siegmund's approximation. */
 export function siegmundArl(k: number, h: number, delta = 0): number {
   const d = delta - k;
   const b = h + 1.166;
   if (Math.abs(d) < 1e-9) return b * b;
-  return (Math.exp(-2 * d * b) + 2 * d * b - 1) / (2 * d * d);
+  return (detExp(-2 * d * b) + 2 * d * b - 1) / (2 * d * d);
 }
 
 /** Two-sided ARL of the tabular CUSUM (upper and lower sides with the same k and h). */

@@ -1,0 +1,332 @@
+// phasewise review: page flows (loaded by main.ts). Open a file -> mapping step -> analyse (in worker.ts) -> review
+// -> exclude / load blood gases (outputs recomputed in the worker) -> export. The page never parses the recording.
+
+import 'uplot/dist/uPlot.min.css';
+import './style.css';
+import type { AnalysisCore } from '../src/analyse/analyser';
+import { CAUTION } from '../src/report/caution';
+import { clearError, fail, onScreen, setBodyState, show, state } from './app-state';
+import { byId, download, h } from './dom';
+import { startHeartbeat, type HeartbeatStats } from './heartbeat';
+import { bindReviewKeys } from './keys';
+import { renderMappingFields, renderPreview } from './mapping-step';
+import { exportRows, outputFile, type ComposedOutputs } from './outputs';
+import { breathPng } from './png';
+import type { Done, FromWorker } from './protocol';
+import { EXCLUSION_REASONS } from './review';
+import {
+  breathCanvas, buildReview, currentScene, overviewChart, renderBreath, resizeCharts, select, setExportsEnabled, showComposed,
+  showTrends, step, teardownReview,
+} from './review-screen';
+import { unpackRowsInSlices } from './row-columns';
+import { changedKeys, settingsFileText, settingsProblem, withSetting } from './settings-form';
+import { renderSettingsForm, wireSettingsScreen } from './settings-screen';
+import { createWorkerClient, type WorkerClient } from './worker-client';
+
+let worker: WorkerClient;
+let composeId = 0;
+/** a new blood-gas file since the last recomputation (the trend charts need a rebuild) */
+let gasChanged = false;
+let stopHeartbeat: (() => HeartbeatStats) | null = null;
+let analyseStarted = 0;
+
+// ---------------------------------------------------------------- opening a file and the mapping step
+
+function openFile(file: File): void {
+  worker.restart();
+  clearError();
+  state.file = file;
+  state.preview = null;
+  state.gasParsed = null;
+  state.gasInput = null;
+  byId('gas').replaceChildren();
+  byId('file-name').textContent = `${file.name} · ${(file.size / 1e6).toFixed(1)} MB`;
+  setBodyState('sniffing');
+  show('map');
+  renderMapping();
+  worker.send({ type: 'sniff', file, settings: state.settings });
+}
+
+function renderMapping(): void {
+  renderMappingFields(byId('map-fields'), () => state.settings, state.preview, (key, value) => {
+    state.settings = withSetting(state.settings, 'ingest', key, value);
+    renderSettingsForm();
+    if (state.file) {
+      setBodyState('sniffing');
+      worker.send({ type: 'sniff', file: state.file, settings: state.settings });
+    }
+  });
+  renderPreview(byId<HTMLTableElement>('map-preview'), byId('map-notes'), state.preview);
+}
+
+function analyse(): void {
+  if (!state.file) return;
+  const problem = settingsProblem(state.settings);
+  if (problem) {
+    fail(`settings: ${problem}`);
+    return;
+  }
+  clearError();
+  teardownReview();
+  state.analysed = { settings: state.settings, given: changedKeys(state.settings) };
+  state.excluded = new Map();
+  setBodyState('analysing');
+  show('progress');
+  byId<HTMLProgressElement>('progress').value = 0;
+  byId('progress-text').textContent = 'reading…';
+  analyseStarted = performance.now();
+  stopHeartbeat = startHeartbeat();
+  worker.send({ type: 'analyse', file: state.file, settings: state.settings, given: [...state.analysed.given] });
+}
+
+// ---------------------------------------------------------------- worker messages
+
+function onWorker(m: FromWorker): void {
+  switch (m.type) {
+    case 'sniffed':
+      state.preview = m.preview;
+      byId('map-error').textContent = '';
+      byId<HTMLButtonElement>('analyse-button').disabled = false;
+      setBodyState('mapped');
+      renderMapping();
+      return;
+    case 'progress':
+      byId<HTMLProgressElement>('progress').value = m.total ? m.bytes / m.total : 0;
+      byId('progress-text').textContent = `read ${(m.bytes / 1e6).toFixed(1)} of ${(m.total / 1e6).toFixed(1)} MB · ${m.breaths} breaths so far`;
+      return;
+    case 'done':
+      void onDone(m);
+      return;
+    case 'composed':
+      onComposed(m.id, m.outputs);
+      return;
+    case 'gas':
+      state.gasParsed = m.result;
+      state.gasInput = { file: m.file, samples: m.result.samples, rejected: m.result.rejected };
+      gasChanged = true;
+      recompose();
+      renderBreath();
+      return;
+    case 'window':
+      return; // answered inside the worker client
+    case 'error':
+      if (m.stage === 'sniff') {
+        byId('map-error').textContent = m.message;
+        byId<HTMLButtonElement>('analyse-button').disabled = true;
+        setBodyState('sniff-error');
+        state.preview = null;
+        renderMapping();
+      } else if (m.stage === 'analyse') {
+        stopHeartbeat?.();
+        stopHeartbeat = null;
+        setBodyState('error');
+        show(state.preview ? 'map' : 'open');
+        if (state.preview) byId('map-error').textContent = m.message;
+        fail(m.message);
+      } else fail(m.message);
+      return;
+  }
+}
+
+async function onDone(d: Done): Promise<void> {
+  const received = performance.now();
+  const transferMs = performance.timeOrigin + received - d.posted_epoch_ms;
+  byId('progress-text').textContent = `analysed ${d.rows.count} breaths · preparing the review…`;
+  const breaths = await unpackRowsInSlices(d.rows);
+  const unpackMs = performance.now() - received;
+  const core: AnalysisCore = { ...d.core, breaths };
+  state.result = d;
+  state.core = core;
+  state.selected = core.breaths.length ? 0 : -1;
+  state.rows = exportRows(core, state.analysed!.settings, state.excluded, state.gasInput);
+  state.outputs = { rows: state.rows, ...d.outputs };
+  show('review');
+  const beforeBuild = performance.now();
+  buildReview(worker.fetchWindow);
+  const buildMs = performance.now() - beforeBuild;
+  // stop the heartbeat two frames later, so that the frame gap of the work above is counted
+  requestAnimationFrame(() =>
+    requestAnimationFrame(() => {
+      const heartbeat = stopHeartbeat ? stopHeartbeat() : startHeartbeat()();
+      stopHeartbeat = null;
+      state.load = {
+        file_bytes: state.file?.size ?? 0,
+        worker_ms: Math.round(d.worker_ms),
+        transfer_ms: Math.round(transferMs),
+        unpack_ms: Math.round(unpackMs),
+        build_ms: Math.round(buildMs),
+        total_ms: Math.round(performance.now() - analyseStarted),
+        breaths: core.breaths.length,
+        heartbeat,
+      };
+      setBodyState('done');
+      // a blood-gas file loaded before this analysis (settings changed) applies to it too
+      if (state.gasInput) {
+        gasChanged = true;
+        recompose();
+      }
+    }),
+  );
+}
+
+// ---------------------------------------------------------------- exclusions and blood gases
+
+/**
+ * After an exclusion or a blood-gas file the rows change at once (one cheap pass); the summary, gas table, trends
+ * and events are recomputed in the worker (about 0.2-0.3 s on a 24-hour file) so the page never stalls. Exports
+ * are disabled until they arrive.
+ */
+function recompose(): void {
+  const core = state.core;
+  const a = state.analysed;
+  if (!core || !a) return;
+  state.rows = exportRows(core, a.settings, state.excluded, state.gasInput);
+  composeId++;
+  setExportsEnabled(false);
+  setBodyState('updating');
+  worker.send({ type: 'compose', id: composeId, excluded: [...state.excluded.entries()], gas: state.gasInput });
+}
+
+function onComposed(id: number, outputs: ComposedOutputs): void {
+  if (id !== composeId || !state.result) return;
+  state.outputs = { rows: state.rows, ...outputs };
+  showComposed(outputs, gasChanged);
+  gasChanged = false;
+  setBodyState('done');
+}
+
+function toggleExclusion(): void {
+  const i = state.selected;
+  if (i < 0) return;
+  if (state.excluded.has(i)) state.excluded.delete(i);
+  else state.excluded.set(i, byId<HTMLSelectElement>('exclude-reason').value);
+  recompose();
+  renderBreath();
+  overviewChart()?.redraw();
+}
+
+// ---------------------------------------------------------------- exports
+
+function exportFile(name: string): void {
+  if (!state.outputs) return;
+  const text = outputFile(state.outputs, name);
+  if (text !== undefined) download(name, text, name.endsWith('.json') ? 'application/json' : 'text/csv;charset=utf-8');
+}
+
+function exportPng(): void {
+  const scene = currentScene();
+  const canvas = breathCanvas();
+  if (!scene || !canvas) return;
+  const base = (state.file?.name ?? 'recording').replace(/\.[^.]+$/, '');
+  const a = h('a', { href: breathPng(canvas, scene, state.file?.name ?? '', state.rows.length), download: `${base}-breath-${scene.row.breath}.png` });
+  document.body.append(a);
+  a.click();
+  a.remove();
+}
+
+// ---------------------------------------------------------------- wiring
+
+function onFileInput(id: string, use: (f: File) => void): void {
+  byId<HTMLInputElement>(id).addEventListener('change', (e) => {
+    const input = e.target as HTMLInputElement;
+    const f = input.files?.[0];
+    input.value = '';
+    if (f) use(f);
+  });
+}
+
+function wire(): void {
+  // read-only view for the browser tests and the load measurement
+  (window as unknown as { __phasewise: unknown }).__phasewise = {
+    get state() {
+      return document.body.dataset.state;
+    },
+    get selected() {
+      return state.selected;
+    },
+    get load() {
+      return state.load;
+    },
+  };
+  worker = createWorkerClient(onWorker, fail);
+  byId('caution').textContent = CAUTION;
+  const reasonSel = byId<HTMLSelectElement>('exclude-reason');
+  for (const [k, label] of Object.entries(EXCLUSION_REASONS)) reasonSel.append(h('option', { value: k, text: k, title: label }));
+  onScreen((s) => {
+    if (s === 'settings') byId<HTMLButtonElement>('settings-apply').disabled = !state.file;
+    if (s === 'review') requestAnimationFrame(resizeCharts);
+  });
+
+  onFileInput('file-input', openFile);
+  const root = document.documentElement;
+  root.addEventListener('dragover', (e) => {
+    e.preventDefault();
+    byId('drop-zone').classList.add('over');
+  });
+  root.addEventListener('dragleave', () => byId('drop-zone').classList.remove('over'));
+  root.addEventListener('drop', (e) => {
+    e.preventDefault();
+    byId('drop-zone').classList.remove('over');
+    const f = e.dataTransfer?.files?.[0];
+    if (f) openFile(f);
+  });
+  byId('analyse-button').addEventListener('click', analyse);
+  wireSettingsScreen(renderMapping, () => {
+    if (!state.file) return;
+    if (state.preview) analyse();
+    else openFile(state.file);
+  });
+
+  byId('tabs').querySelectorAll<HTMLButtonElement>('button').forEach((b) => {
+    b.addEventListener('click', () => {
+      byId('tabs').querySelectorAll('button').forEach((o) => o.classList.toggle('active', o === b));
+      for (const p of ['review', 'trends', 'notes']) byId(`pane-${p}`).hidden = p !== b.dataset.pane;
+      if (b.dataset.pane === 'trends') showTrends();
+      requestAnimationFrame(resizeCharts);
+    });
+  });
+  byId('ov-left').addEventListener('click', () => overviewChart()?.pan(-0.5));
+  byId('ov-right').addEventListener('click', () => overviewChart()?.pan(0.5));
+  byId('ov-in').addEventListener('click', () => overviewChart()?.zoom(0.5));
+  byId('ov-out').addEventListener('click', () => overviewChart()?.zoom(2));
+  byId('ov-whole').addEventListener('click', () => overviewChart()?.whole());
+  byId('prev-breath').addEventListener('click', () => step(-1, false));
+  byId('next-breath').addEventListener('click', () => step(1, false));
+  byId('exclude-button').addEventListener('click', toggleExclusion);
+  byId('shading').addEventListener('change', renderBreath);
+  byId('show-raw').addEventListener('change', renderBreath);
+
+  const files: [string, string][] = [
+    ['export-breaths', 'breaths.csv'], ['export-summary', 'summary.json'], ['export-trends', 'trends.csv'],
+    ['export-events', 'events.csv'], ['export-gas', 'gas.csv'], ['export-estimates', 'paco2_estimates.csv'],
+  ];
+  for (const [id, name] of files) byId(id).addEventListener('click', () => exportFile(name));
+  byId('export-png').addEventListener('click', exportPng);
+  byId('export-settings').addEventListener('click', () => download('phasewise-settings.json', settingsFileText(state.analysed?.settings ?? state.settings), 'application/json'));
+  onFileInput('gas-input', (f) => {
+    if (!state.result) return;
+    const start = byId<HTMLInputElement>('gas-start').value.trim();
+    worker.send({ type: 'gas', file: f, start: start || null });
+  });
+
+  bindReviewKeys({
+    active: () => state.screen === 'review',
+    step,
+    first: () => select(0),
+    last: () => select(state.rows.length - 1),
+    toggleExclusion,
+    zoom: (f) => overviewChart()?.zoom(f),
+  });
+  let resizeTimer: ReturnType<typeof setTimeout> | null = null;
+  window.addEventListener('resize', () => {
+    if (resizeTimer) clearTimeout(resizeTimer);
+    resizeTimer = setTimeout(resizeCharts, 100);
+  });
+  renderSettingsForm();
+}
+
+/** Wires the page (called once by main.ts). */
+export function start(): void {
+  wire();
+  setBodyState('idle');
+}

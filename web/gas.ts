@@ -1,0 +1,47 @@
+// Blood gases in the viewer: the gas file is parsed in the worker (parseGasCsv) and analysed with the breaths in
+// outputs.ts (as `phasewise analyse --gas` does); this file shows the gas table and picks the PaCO2 line of the
+// breath view.
+//
+// The PaCO2 drawn for a breath is the one its per-breath Enghoff values use: the analysis setting paco2_mmhg when
+// given, else the most recent gas sample at or before the breath's start (src/gas/apply-paco2.ts), else none.
+
+import type { GasParseResult, GasResult, GasSample } from '../src/gas/index';
+import type { Settings } from '../src/settings';
+import type { BreathRow } from '../src/types';
+import { h } from './dom';
+import { fixed } from './metrics-table';
+import { clockLabel } from './overview-chart';
+
+export function paco2ForBreath(
+  row: BreathRow, samples: readonly GasSample[], settings: Settings,
+): { mmhg: number; source: string } | null {
+  if (settings.analysis.paco2_mmhg !== null) return { mmhg: settings.analysis.paco2_mmhg, source: 'setting paco2_mmhg' };
+  let best: GasSample | null = null;
+  for (const s of samples) if (s.time_s <= row.t_start_s && (!best || s.time_s >= best.time_s)) best = s;
+  if (!best || !Number.isFinite(best.paco2_mmhg)) return null;
+  return { mmhg: best.paco2_mmhg, source: `gas sample of ${clockLabel(best.time_s, 1e9)}, line ${best.line}` };
+}
+
+export function renderGas(host: HTMLElement, file: string, parsed: GasParseResult, result: GasResult): void {
+  const table = h('table', { class: 'gas-table', id: 'gas-table' }, [
+    h('tr', {}, ['#', 'time', 'PaCO2', 'PETCO2', 'Pa−ETCO2', 'VD/VT Enghoff', 'VD phys (mL)', 'shunt', 'breaths'].map((t) => h('th', { text: t }))),
+  ]);
+  for (const r of result.rows) {
+    table.append(
+      h('tr', {}, [
+        String(r.sample), clockLabel(r.time_s, 1e9), fixed(r.paco2_mmhg, 1), fixed(r.petco2_mmhg, 1), fixed(r.gradient_mmhg, 1),
+        fixed(r.vdvt_enghoff, 3), fixed(r.vd_phys_ml, 0), fixed(r.shunt_fraction, 2), String(r.breaths_used),
+      ].map((t) => h('td', { class: 'num', text: t }))),
+    );
+  }
+  const notes = [
+    ...parsed.rejected.map((r) => `line ${r.line} not used: ${r.reason}`),
+    ...(parsed.ignoredColumns.length ? [`columns ignored: ${parsed.ignoredColumns.join(', ')}`] : []),
+    ...result.warnings,
+  ];
+  host.replaceChildren(
+    h('p', { text: `${file}: ${result.rows.length} sample${result.rows.length === 1 ? '' : 's'}` }),
+    table,
+    ...(notes.length ? [h('ul', { class: 'notes' }, notes.map((n) => h('li', { text: n })))] : []),
+  );
+}

@@ -1,0 +1,61 @@
+// Messages between the page (main.ts) and the analysis worker (worker.ts).
+
+import type { AnalysisCore } from '../src/analyse/analyser';
+import type { GasParseResult } from '../src/gas/index';
+import type { IngestReport, TableLayout } from '../src/ingest/index';
+import type { Settings } from '../src/settings';
+import type { PackedGeometry } from './geometry-store';
+import type { ComposedOutputs, GasInput } from './outputs';
+import type { PackedRows } from './row-columns';
+import type { SignalWindow } from './signal-store';
+
+export type ToWorker =
+  | { type: 'sniff'; file: File; settings: Settings }
+  | { type: 'analyse'; file: File; settings: Settings; given: string[] }
+  /** recompute the outputs of the last analysis with these exclusions and blood gases */
+  | { type: 'compose'; id: number; excluded: [number, string][]; gas: GasInput | null }
+  | { type: 'window'; id: number; t0: number; t1: number; columns: number }
+  | { type: 'gas'; file: File; start: string | null };
+
+/** The head of the file as the mapping step shows it. */
+export interface Preview {
+  layout: TableLayout;
+  /** header cells (generated names when the file has none) */
+  header: string[];
+  /** the first data rows, split at the delimiter */
+  rows: string[][];
+  /** 1-based line number of each preview row */
+  lines: number[];
+}
+
+export interface Done {
+  type: 'done';
+  /** the analysis without its breath rows, which travel packed by column in `rows` */
+  core: Omit<AnalysisCore, 'breaths'>;
+  rows: PackedRows;
+  report: IngestReport;
+  geometry: PackedGeometry;
+  /** calibration sign and offset applied to flow for display */
+  sign: number;
+  offset_lps: number;
+  t_first_s: number;
+  t_last_s: number;
+  /** overall ranges for fixed chart scales: flow L/s (positive = expiration), CO2 mmHg */
+  flow_range: [number, number];
+  co2_range: [number, number];
+  /** the outputs with no exclusion and no blood gas */
+  outputs: ComposedOutputs;
+  /** milliseconds spent reading + analysing in the worker */
+  worker_ms: number;
+  /** epoch ms when the worker posted this message (to time the transfer) */
+  posted_epoch_ms: number;
+}
+
+export type FromWorker =
+  | { type: 'sniffed'; preview: Preview }
+  | { type: 'progress'; bytes: number; total: number; breaths: number }
+  | Done
+  | { type: 'window'; id: number; data: SignalWindow }
+  | { type: 'composed'; id: number; outputs: ComposedOutputs; ms: number }
+  | { type: 'gas'; result: GasParseResult; file: string }
+  | { type: 'error'; stage: 'sniff' | 'analyse' | 'gas'; message: string; code: string };
