@@ -4,14 +4,12 @@ import { join } from 'node:path';
 import type { Command } from 'commander';
 import { analyseFile } from '../node/analyse-file.js';
 import { writeFileAtomic } from '../node/atomic-write.js';
-import { breathsCsv } from '../report/breaths-csv.js';
-import { formatSummaryText, type Summary } from '../report/summary.js';
-import { summaryFor } from '../report/summary-for.js';
 import { formatNumber } from '../report/format.js';
-import { eventsCsv, trendsAndEvents, trendsCsv } from '../report/trends-events.js';
+import { composeOutputs, outputFile, outputNames } from '../report/outputs.js';
+import { formatSummaryText } from '../report/summary.js';
 import { formatEventLine } from '../trends/index.js';
 import type { GasResult } from '../gas/index.js';
-import { addGasOptions, estimatesCsv, gasCsv, gasOptionsFrom, jsonSafe, readGasFile, runGasStep } from './gas-step.js';
+import { addGasOptions, gasOptionsFrom, readGasFile } from './gas-step.js';
 import { addInputOptions, resolveSettings } from './options.js';
 
 export function registerAnalyse(program: Command): void {
@@ -28,44 +26,23 @@ export function registerAnalyse(program: Command): void {
     const gas = readGasFile(opts); // read first: a bad gas file fails before the long analysis
     const result = await analyseFile(file, settings, given);
     const out = String(opts.out);
-    let summary: Summary = result.summary;
-    let gasResult: GasResult | null = null;
-    const written = [join(out, 'breaths.csv'), join(out, 'summary.json')];
-    if (gas) {
-      const gasOpts = gasOptionsFrom(opts, settings);
-      gasResult = runGasStep(result.core.breaths, gas, gasOpts, settings);
-      summary = summaryFor(result.core, result.report, settings, given);
-      summary.gas = jsonSafe({
-        file: opts.gas,
-        samples_read: gas.samples.length,
-        samples_rejected: gas.rejected,
-        per_breath_enghoff:
-          settings.analysis.paco2_mmhg === null ? 'PaCO2 of the most recent gas sample at or before each breath' : 'the --paco2 value',
-        rows: gasResult.rows,
-        settings: gasResult.settings,
-        warnings: gasResult.warnings,
-      });
-      writeFileAtomic(join(out, 'gas.csv'), gasCsv(gasResult));
-      writeFileAtomic(join(out, 'paco2_estimates.csv'), estimatesCsv(gasResult));
-      written.push(join(out, 'gas.csv'), join(out, 'paco2_estimates.csv'));
+    const gasInput = gas ? { file: String(opts.gas), ...gas } : null;
+    const o = composeOutputs(result.core, result.report, settings, given, new Map(), gasInput, gasOptionsFrom(opts, settings));
+    const written: string[] = [];
+    for (const name of outputNames(o)) {
+      writeFileAtomic(join(out, name), outputFile(o, name)!);
+      written.push(join(out, name));
     }
-    const te = trendsAndEvents(result.core.breaths, settings.events, gas ? gas.samples : []);
-    summary.events = jsonSafe(te.events);
-    writeFileAtomic(join(out, 'trends.csv'), trendsCsv(te.trends));
-    writeFileAtomic(join(out, 'events.csv'), eventsCsv(te.events));
-    written.push(join(out, 'trends.csv'), join(out, 'events.csv'));
-    writeFileAtomic(join(out, 'breaths.csv'), breathsCsv(result.core.breaths));
-    writeFileAtomic(join(out, 'summary.json'), JSON.stringify(summary, null, 2) + '\n');
     if (opts.quiet) return;
     if (opts.json) {
-      process.stdout.write(JSON.stringify(summary, null, 2) + '\n');
+      process.stdout.write(JSON.stringify(o.summary, null, 2) + '\n');
       return;
     }
-    let text = formatSummaryText(summary);
-    if (gasResult) text = insertBeforeCaution(text, formatGasText(gasResult));
+    let text = formatSummaryText(o.summary);
+    if (o.gas) text = insertBeforeCaution(text, formatGasText(o.gas));
     text = insertBeforeCaution(
       text,
-      te.events.length ? ['events (patterns in the data, not diagnoses):', ...te.events.map((e) => `  ${formatEventLine(e)}`)].join('\n') : 'events: none detected',
+      o.events.length ? ['events (patterns in the data, not diagnoses):', ...o.events.map((e) => `  ${formatEventLine(e)}`)].join('\n') : 'events: none detected',
     );
     process.stdout.write(text + `\n\nwritten: ${written.join(', ')}\n`);
   });

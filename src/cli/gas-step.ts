@@ -2,11 +2,9 @@
 import { existsSync, readFileSync } from 'node:fs';
 import type { Command } from 'commander';
 import { InvalidArgumentError, Option } from 'commander';
-import { analyseGas, applyArterialPco2, GAS_COLUMNS, PACO2_ESTIMATE_COLUMNS, parseGasCsv, type GasOptions, type GasResult, type GasSample } from '../gas/index.js';
+import { parseGasCsv, type GasOptions, type GasSample } from '../gas/index.js';
 import { EXIT_CODES } from '../ingest/errors.js';
-import { csvTable } from '../report/format.js';
 import type { Settings } from '../settings.js';
-import type { BreathRow } from '../types.js';
 import { CliError } from './errors.js';
 
 function positive(name: string) {
@@ -26,12 +24,6 @@ export function addGasOptions(cmd: Command): Command {
     .addOption(new Option('--sex <sex>', 'sex for predicted body weight').choices(['male', 'female']))
     .option('--gas-window <s>', 'seconds of ok breaths before each gas sample that are summarised (default 60)', positive('--gas-window'))
     .option('--cardiac-output <l_min>', 'cardiac output, L/min (venous PCO2 by the Fick route when not measured)', positive('--cardiac-output'));
-}
-
-export interface GasStepResult {
-  samples: GasSample[];
-  rejected: { line: number; reason: string }[];
-  result: GasResult | null;
 }
 
 /** Reads the gas file (one-line errors, exit code 3 for unusable files). */
@@ -55,28 +47,4 @@ export function gasOptionsFrom(opts: Record<string, unknown>, settings: Settings
   if (opts.sex === 'male' || opts.sex === 'female') o.sex = opts.sex;
   if (typeof opts.cardiacOutput === 'number') o.cardiac_output_l_min = opts.cardiacOutput;
   return o;
-}
-
-/** Applies the gas samples to the breaths (Enghoff per breath when --paco2 was not given) and builds the gas table. */
-export function runGasStep(
-  breaths: BreathRow[],
-  gas: { samples: GasSample[]; rejected: { line: number; reason: string }[] },
-  opts: GasOptions,
-  settings: Settings,
-): GasResult {
-  if (settings.analysis.paco2_mmhg === null) applyArterialPco2(breaths, gas.samples, settings.analysis.bohr_inspired_term);
-  return analyseGas(breaths, gas.samples, opts);
-}
-
-export function gasCsv(result: GasResult): string {
-  return csvTable(GAS_COLUMNS as readonly string[], result.rows as unknown as Record<string, unknown>[]);
-}
-
-export function estimatesCsv(result: GasResult): string {
-  return csvTable(PACO2_ESTIMATE_COLUMNS as readonly string[], result.estimates as unknown as Record<string, unknown>[]);
-}
-
-/** JSON-safe copy (NaN -> null). */
-export function jsonSafe<T>(x: T): T {
-  return JSON.parse(JSON.stringify(x, (_k, v) => (typeof v === 'number' && !Number.isFinite(v) ? null : v)));
 }

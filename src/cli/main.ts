@@ -8,6 +8,7 @@ import { VERSION } from '../version.js';
 import { registerAnalyse } from './analyse-command.js';
 import { CliError } from './errors.js';
 import { registerSimulate } from './simulate-command.js';
+import { registerBatch } from './batch-command.js';
 
 function fail(message: string, code: number): never {
   process.stderr.write(`phasewise: ${message}\n`);
@@ -37,6 +38,7 @@ program
   .configureOutput({ writeErr: (s) => process.stderr.write(s) });
 registerAnalyse(program);
 registerSimulate(program);
+registerBatch(program);
 for (const c of program.commands) c.exitOverride();
 
 process.on('unhandledRejection', handle);

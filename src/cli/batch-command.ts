@@ -1,0 +1,107 @@
+// `phasewise batch INPUTS... --out DIR [--settings FILE.json] [--jobs N] [--resume] [--shard I/N]` and
+// `phasewise batch merge SHARD_DIR... --out DIR`. Exit codes: 0 all recordings analysed; 4 some failed (the rest are
+// complete and the manifest names each failure); 2 usage (bad options, no inputs, shards that do not fit together).
+import { availableParallelism } from 'node:os';
+import { Command, InvalidArgumentError } from 'commander';
+import { EXIT_CODES } from '../ingest/errors.js';
+import { settingsPlan } from '../batch/file-settings.js';
+import { mergeShards, MergeError } from '../batch/merge.js';
+import { BatchUsageError, runBatch } from '../batch/run-batch.js';
+import { parseShard, ShardError } from '../batch/shard.js';
+import type { Manifest } from '../batch/manifest.js';
+import { addInputOptions } from './options.js';
+
+function positiveInt(v: string): number {
+  const n = Number(v);
+  if (!Number.isInteger(n) || n < 1) throw new InvalidArgumentError(`--jobs needs a whole number of at least 1, got "${v}"`);
+  return n;
+}
+
+function usage(message: string): void {
+  process.stderr.write(`phasewise batch: ${message}\n`);
+  process.exitCode = EXIT_CODES.usage;
+}
+
+function report(m: Manifest, out: string, quiet: boolean): void {
+  const failed = m.inputs.filter((e) => e.status === 'failed');
+  if (failed.length) {
+    process.stderr.write(`${failed.length} recording(s) failed (details in ${out}/manifest.json and recordings.csv):\n`);
+    for (const e of failed) process.stderr.write(`  ${e.recording}: [${e.error?.code}] ${e.error?.message}\n`);
+  }
+  if (quiet) return;
+  const c = m.counts;
+  process.stdout.write(
+    `batch: ${m.inputs.length} recording(s): ${c.ok} ok (${c.resumed} kept from an earlier run), ${c.failed} failed` +
+      (m.elapsed_s === null ? '' : m.merged_from.length ? ` (merged from ${m.merged_from.length} shard folder(s))` : ` in ${m.elapsed_s} s`) +
+      `\nwritten: ${out}/breaths.csv, ${out}/recordings.csv, ${out}/manifest.json\n`,
+  );
+}
+
+/** The command as it could be typed again (recorded in the manifest). */
+function commandLine(inputs: readonly string[], opts: Record<string, unknown>): string {
+  const q = (s: string) => (/^[\w./:@%+=,-]+$/.test(s) ? s : `'${s.replace(/'/g, `'\\''`)}'`);
+  const parts = ['phasewise', 'batch', ...inputs.map(q)];
+  for (const [k, v] of Object.entries(opts)) {
+    if (v === undefined || v === false) continue;
+    const flag = '--' + k.replace(/[A-Z]/g, (c) => '-' + c.toLowerCase());
+    parts.push(v === true ? flag : `${flag} ${q(String(v))}`);
+  }
+  return parts.join(' ');
+}
+
+/** Adds `batch` and `batch merge` to the program. */
+export function registerBatch(program: Command): void {
+  const cmd = program
+    .command('batch')
+    .description('analyse many recordings (files, folders, globs) into one breaths table, one recordings table and a manifest')
+    .argument('<inputs...>', 'recording files, folders (searched for .csv, .tsv, .txt) or quoted globs like "data/**/*.csv"')
+    // not requiredOption: Commander would then demand it of `batch merge` too (it checks ancestors' options)
+    .option('--out <dir>', 'output folder (required)')
+    .option('--jobs <n>', 'recordings analysed at a time: the main thread and N - 1 worker threads (default: number of cores)', positiveInt)
+    .option('--resume', 'keep results whose input content and settings are unchanged since the manifest in --out')
+    .option('--shard <I/N>', 'analyse only shard I of N (0-based; input k goes to shard k mod N); see `batch merge`')
+    .option('--quiet', 'no progress and no closing summary (failures are still listed on stderr)');
+  addInputOptions(cmd).action(async (inputs: string[], opts: Record<string, unknown>) => {
+    try {
+      if (typeof opts.out !== 'string') return usage(`missing --out DIR (the output folder), e.g. phasewise batch ${inputs[0] ?? 'data/'} --out results/`);
+      const shard = typeof opts.shard === 'string' ? parseShard(opts.shard) : null;
+      const plan = settingsPlan(opts);
+      const quiet = Boolean(opts.quiet);
+      const out = String(opts.out);
+      const outcome = await runBatch({
+        inputs, outDir: out, plan, shard,
+        jobs: (opts.jobs as number | undefined) ?? availableParallelism(),
+        resume: Boolean(opts.resume),
+        progress: quiet ? 'none' : process.stderr.isTTY ? 'bar' : 'lines',
+        command: commandLine(inputs, opts),
+      });
+      for (const w of outcome.warnings) process.stderr.write(`phasewise batch: warning: ${w}\n`);
+      report(outcome.manifest, out, quiet);
+      process.exitCode = outcome.exitCode;
+    } catch (e) {
+      if (e instanceof ShardError || e instanceof BatchUsageError) return usage(e.message);
+      throw e;
+    }
+  });
+  // `batch merge`: the root program parses options anywhere on the line, so `--out` and `--quiet` written after
+  // `merge` may land on `batch` itself; read them from either.
+  cmd
+    .command('merge')
+    .description('combine the output folders of `batch --shard I/N` runs into the tables one run would write')
+    .argument('<shard_dirs...>', 'output folders of the shard runs')
+    .option('--out <dir>', 'output folder for the merged tables (required)')
+    .option('--quiet', 'no closing summary')
+    .action((dirs: string[], own: { out?: string; quiet?: boolean }, self: Command) => {
+      const parent = (self.parent?.opts() ?? {}) as { out?: string; quiet?: boolean };
+      const out = own.out ?? parent.out;
+      if (typeof out !== 'string') return usage('merge: missing --out DIR (the folder for the merged tables)');
+      try {
+        const outcome = mergeShards(dirs, out, ['phasewise', 'batch', 'merge', ...dirs, '--out', out].join(' '));
+        report(outcome.manifest, out, Boolean(own.quiet ?? parent.quiet));
+        process.exitCode = outcome.exitCode;
+      } catch (e) {
+        if (e instanceof MergeError) return usage(`merge: ${e.message}`);
+        throw e;
+      }
+    });
+}

@@ -1,0 +1,118 @@
+// Every output file of one analysed recording, composed in one place for the CLI (`analyse`, `batch`) and the viewer,
+// so that for the same file, settings and gas file their exports are byte-identical:
+//   breaths.csv, summary.json (with `gas` when a gas file is given, and `events`), trends.csv, events.csv,
+//   gas.csv and paco2_estimates.csv (with a gas file).
+// The viewer's exclusions (review.ts) are applied first, so they flow into the gas medians, the trends and the events
+// exactly as an automatic exclusion would; the CLI passes none.
+
+import type { AnalysisCore } from '../analyse/analyser.js';
+import { analyseGas, applyArterialPco2, GAS_COLUMNS, PACO2_ESTIMATE_COLUMNS, type GasOptions, type GasResult, type GasSample } from '../gas/index.js';
+import type { IngestReport } from '../ingest/index.js';
+import { breathsCsv } from './breaths-csv.js';
+import { csvTable } from './format.js';
+import type { Summary } from './summary.js';
+import { summaryFor } from './summary-for.js';
+import { eventsCsv, trendsAndEvents, trendsCsv } from './trends-events.js';
+import type { Settings } from '../settings.js';
+import type { EventRow, TrendRow } from '../trends/index.js';
+import type { BreathRow } from '../types.js';
+import { exclusionNote, reviewedRows } from './review.js';
+
+export interface GasInput {
+  /** the gas file's name (the CLI records the path given to --gas) */
+  file: string;
+  samples: GasSample[];
+  rejected: { line: number; reason: string }[];
+}
+
+export interface Outputs {
+  rows: BreathRow[];
+  summary: Summary;
+  gas: GasResult | null;
+  trends: TrendRow[];
+  events: EventRow[];
+}
+
+/** JSON-safe copy (NaN -> null), as the CLI makes it. */
+export function jsonSafe<T>(x: T): T {
+  return JSON.parse(JSON.stringify(x, (_k, v) => (typeof v === 'number' && !Number.isFinite(v) ? null : v)));
+}
+
+/**
+ * The breath rows as exported: the reviewer's exclusions applied and, with a gas file, the per-breath Enghoff values
+ * of the gas step. The analyser's rows are never changed: excluded rows and rows given Enghoff values are copies.
+ * Cheap (one pass), so the page and the worker both call it and hold the same rows.
+ */
+export function exportRows(
+  core: AnalysisCore, settings: Settings, excluded: ReadonlyMap<number, string>, gas: GasInput | null,
+): BreathRow[] {
+  const rows = reviewedRows(core.breaths, excluded);
+  if (!gas || settings.analysis.paco2_mmhg !== null) return rows;
+  const copies = rows.map((r) => ({ ...r, flags: [...r.flags] }));
+  applyArterialPco2(copies, gas.samples, settings.analysis.bohr_inspired_term);
+  return copies;
+}
+
+/** Everything but the rows: what the worker computes and posts to the page. */
+export type ComposedOutputs = Omit<Outputs, 'rows'>;
+
+export function composeOutputs(
+  core: AnalysisCore,
+  report: IngestReport,
+  settings: Settings,
+  given: ReadonlySet<string>,
+  excluded: ReadonlyMap<number, string>,
+  gas: GasInput | null,
+  gasOptions: GasOptions = { pb_mmhg: settings.ingest.pb_mmhg },
+): Outputs {
+  const rows = exportRows(core, settings, excluded, gas);
+  const reviewed: AnalysisCore = { ...core, breaths: rows };
+  let gasResult: GasResult | null = null;
+  let summary: Summary;
+  if (gas) {
+    gasResult = analyseGas(rows, gas.samples, gasOptions);
+    summary = summaryFor(reviewed, report, settings, given);
+    summary.gas = jsonSafe({
+      file: gas.file,
+      samples_read: gas.samples.length,
+      samples_rejected: gas.rejected,
+      per_breath_enghoff:
+        settings.analysis.paco2_mmhg === null ? 'PaCO2 of the most recent gas sample at or before each breath' : 'the --paco2 value',
+      rows: gasResult.rows,
+      settings: gasResult.settings,
+      warnings: gasResult.warnings,
+    });
+  } else {
+    summary = summaryFor(reviewed, report, settings, given);
+  }
+  const note = exclusionNote(core.breaths, excluded);
+  if (note) summary.notes.push(note);
+  const te = trendsAndEvents(rows, settings.events, gas ? gas.samples : []);
+  summary.events = jsonSafe(te.events);
+  return { rows, summary, gas: gasResult, trends: te.trends, events: te.events };
+}
+
+/** Names of the files the CLI would write for these outputs. */
+export function outputNames(o: Pick<Outputs, 'gas'>): string[] {
+  return ['breaths.csv', 'summary.json', 'trends.csv', 'events.csv', ...(o.gas ? ['gas.csv', 'paco2_estimates.csv'] : [])];
+}
+
+/** One file's text, as the CLI writes it; undefined when this output has no such file. */
+export function outputFile(o: Outputs, name: string): string | undefined {
+  switch (name) {
+    case 'breaths.csv':
+      return breathsCsv(o.rows);
+    case 'summary.json':
+      return JSON.stringify(o.summary, null, 2) + '\n';
+    case 'trends.csv':
+      return trendsCsv(o.trends);
+    case 'events.csv':
+      return eventsCsv(o.events);
+    case 'gas.csv':
+      return o.gas ? csvTable(GAS_COLUMNS as readonly string[], o.gas.rows as unknown as Record<string, unknown>[]) : undefined;
+    case 'paco2_estimates.csv':
+      return o.gas ? csvTable(PACO2_ESTIMATE_COLUMNS as readonly string[], o.gas.estimates as unknown as Record<string, unknown>[]) : undefined;
+    default:
+      return undefined;
+  }
+}
