@@ -30,12 +30,20 @@ export function deconvolveFirstOrder(t: ArrayLike<number>, y: ArrayLike<number>,
   const raw = new Float64Array(n);
   raw[0] = y[0]!;
   tx[0] = t[0]!;
+  let lastDt = NaN;
+  let beta = 0;
+  let alpha = 1;
+  let centre = 0;
   for (let i = 1; i < n; i++) {
     const dt = t[i]! - t[i - 1]!;
-    const beta = detExp(-dt / tau_s);
-    const alpha = 1 - beta;
+    if (dt !== lastDt) {
+      lastDt = dt;
+      beta = detExp(-dt / tau_s);
+      alpha = 1 - beta;
+      centre = tau_s - (dt * beta) / alpha;
+    }
     raw[i] = (y[i]! - beta * y[i - 1]!) / alpha;
-    tx[i] = t[i]! - (tau_s - (dt * beta) / alpha);
+    tx[i] = t[i]! - centre;
   }
   tx[0] = t[0]! - (tx.length > 1 ? t[1]! - tx[1]! : 0);
   x[0] = raw[0]!;

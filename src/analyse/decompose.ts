@@ -8,7 +8,7 @@
 import type { AnalysisSettings } from '../settings.js';
 import type { BreathRow } from '../types.js';
 import { fowlerDeadSpace } from './fowler.js';
-import { fitPhase3 } from './phase3-fit.js';
+import { fitLineOls, fitPhase3 } from './phase3-fit.js';
 
 export interface BreathSignals {
   t_s: ArrayLike<number>;
@@ -239,7 +239,7 @@ export function decomposeBreath(s: BreathSignals, ctx: BreathContext): BreathDec
 
   // ---- preliminary phase III line on the slow signal over the second half of the expirate
   const lowFlow = cfg.phase3_low_flow_fraction * peakFlow;
-  const prelim = fitPhase3(T, V, PS, F, 0.5 * vte, vte, ctx.tau_s, lowFlow, base);
+  const prelim = fitLineOls(V, PS, F, 0.5 * vte, vte, lowFlow, base);
   const lineAt = (L: { a: number; b: number }, v: number) => L.a + L.b * v;
   if (!prelim) {
     flags.push('no_phase3');

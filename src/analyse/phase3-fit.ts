@@ -5,12 +5,14 @@
 // y_k = beta_k y_{k-1} + alpha_k x(V̄_k)  (exact for a first-order sensor, V̄_k = volume at the centre of the
 // interval's exponential weights; see align.ts). Unrolled from the first window sample k0:
 //   y_k - E_k y_k0 = a (1 - E_k) + b G_k,   E_k = prod beta,   G_k = beta_k G_{k-1} + alpha_k V̄_k,  G_k0 = 0
-// which is linear in (a, b): least squares without intercept (ml-regression MultivariateLinearRegression).
-// With tau = 0 the rows are [1, V_k] and this is the ordinary phase III regression.
+// which is linear in (a, b): least squares without intercept, solved from its 2x2 normal equations (closed form; a
+// general matrix solver allocated several matrices per breath and cost ~8 % of a whole analysis). With tau = 0 the
+// rows are [1, V_k] and this is the ordinary phase III regression (tests/analyse/phase3-fit.test.ts checks it against
+// ml-regression's SimpleLinearRegression).
 // Method: common practice, no source (linear least squares on the discretised first-order sensor model).
 
+import { SimpleLinearRegression } from 'ml-regression';
 import { detExp } from '../numeric/det-math.js';
-import { MultivariateLinearRegression } from 'ml-regression';
 
 export interface Phase3Fit {
   /** line intercept at V = 0 and slope, on CO2 above `base` (mmHg, mmHg/mL) */
@@ -46,47 +48,85 @@ export function fitPhase3(
   }
   if (k0 < 0 || k1 - k0 < 3) return null;
   const y0 = Y[k0]! - base;
-  const xs: number[][] = [];
-  const ys: number[][] = [];
+  // accumulate the normal equations of y' = a u + b g  (u = 1 - E, g = G) and the sums for r² / RMS
+  let suu = 0;
+  let sug = 0;
+  let sgg = 0;
+  let suy = 0;
+  let sgy = 0;
+  let syy = 0;
+  let sy = 0;
+  let count = 0;
+  let gmin = Infinity;
+  let gmax = -Infinity;
   let E = 1;
   let G = 0;
+  let lastDt = NaN;
+  let beta = 0;
+  let centreFrac = 0;
   for (let k = k0 + 1; k <= k1; k++) {
     const dt = T[k]! - T[k - 1]!;
-    let beta = 0;
-    let centre = 0;
-    if (tauS > 0 && dt > 0) {
-      beta = detExp(-dt / tauS);
-      centre = tauS - (dt * beta) / (1 - beta);
+    if (dt !== lastDt) {
+      lastDt = dt;
+      beta = tauS > 0 && dt > 0 ? detExp(-dt / tauS) : 0;
+      centreFrac = beta > 0 ? (tauS - (dt * beta) / (1 - beta)) / dt : 0;
     }
     const alpha = 1 - beta;
-    const vbar = dt > 0 ? V[k]! - (centre / dt) * (V[k]! - V[k - 1]!) : V[k]!;
+    const vbar = dt > 0 ? V[k]! - centreFrac * (V[k]! - V[k - 1]!) : V[k]!;
     E *= beta;
     G = beta * G + alpha * vbar;
     const y = Y[k]! - base;
     if (!Number.isFinite(y) || F[k]! < minFlow || V[k]! < from) continue;
-    xs.push([1 - E, G]);
-    ys.push([y - E * y0]);
+    const u = 1 - E;
+    const yy = y - E * y0;
+    suu += u * u;
+    sug += u * G;
+    sgg += G * G;
+    suy += u * yy;
+    sgy += G * yy;
+    syy += yy * yy;
+    sy += yy;
+    count++;
+    if (G < gmin) gmin = G;
+    if (G > gmax) gmax = G;
   }
-  if (xs.length < 3) return null;
-  let vmin = Infinity;
-  let vmax = -Infinity;
-  for (const r of xs) {
-    vmin = Math.min(vmin, r[1]!);
-    vmax = Math.max(vmax, r[1]!);
+  if (count < 3 || !(gmax > gmin)) return null;
+  const det = suu * sgg - sug * sug;
+  if (!(Math.abs(det) > 0)) return null;
+  const a = (suy * sgg - sgy * sug) / det;
+  const b = (sgy * suu - suy * sug) / det;
+  // residual sum of squares from the sums (exact for the least-squares solution)
+  const sse = Math.max(0, syy - a * suy - b * sgy);
+  const sst = syy - (sy * sy) / count;
+  const rms = Math.sqrt(sse / count);
+  const r2 = sst > 0 ? 1 - sse / sst : NaN;
+  return { a, b, r2, rms, n: count };
+}
+
+/**
+ * Preliminary phase III line: ordinary least squares (ml-regression SimpleLinearRegression) of the sensor reading on
+ * volume over [from, to], low-flow samples left out. It only serves as a level reference for finding the phase
+ * boundaries, so the sensor lag is not modelled here.
+ */
+export function fitLineOls(
+  V: ArrayLike<number>,
+  Y: ArrayLike<number>,
+  F: ArrayLike<number>,
+  from: number,
+  to: number,
+  minFlow: number,
+  base: number,
+): Phase3Fit | null {
+  const xs: number[] = [];
+  const ys: number[] = [];
+  for (let k = 0; k < V.length; k++) {
+    const v = V[k]!;
+    const y = Y[k]! - base;
+    if (v < from || v > to || F[k]! < minFlow || !Number.isFinite(y)) continue;
+    xs.push(v);
+    ys.push(y);
   }
-  if (!(vmax > vmin)) return null;
-  const reg = new MultivariateLinearRegression(xs, ys, { intercept: false, statistics: false });
-  const a = reg.weights[0]![0]!;
-  const b = reg.weights[1]![0]!;
-  let sse = 0;
-  let sum = 0;
-  for (let i = 0; i < xs.length; i++) sum += ys[i]![0]!;
-  const mean = sum / xs.length;
-  let sst = 0;
-  for (let i = 0; i < xs.length; i++) {
-    const r = ys[i]![0]! - a * xs[i]![0]! - b * xs[i]![1]!;
-    sse += r * r;
-    sst += (ys[i]![0]! - mean) * (ys[i]![0]! - mean);
-  }
-  return { a, b, r2: sst > 0 ? 1 - sse / sst : NaN, rms: Math.sqrt(sse / xs.length), n: xs.length };
+  if (xs.length < 3 || !(xs[xs.length - 1]! > xs[0]!)) return null;
+  const reg = new SimpleLinearRegression(xs, ys);
+  return { a: reg.intercept, b: reg.slope, r2: NaN, rms: NaN, n: xs.length };
 }

@@ -1,0 +1,97 @@
+// One batch input -> DIR/<folder>/breaths.csv, summary.json, trends.csv, events.csv (exactly what `analyse` writes,
+// through the same src/report/outputs.ts), or a recorded failure.
+// Runs in a worker thread or in the main thread (--jobs 1); never throws, so one bad file cannot stop a batch.
+import { existsSync, rmSync } from 'node:fs';
+import { join } from 'node:path';
+import { AnalysisInputError } from '../analyse/analyser.js';
+import { isInputError } from '../ingest/errors.js';
+import { analyseFile } from '../node/analyse-file.js';
+import { writeFileAtomic } from '../node/atomic-write.js';
+import { composeOutputs, outputFile, outputNames } from '../report/outputs.js';
+import type { Settings } from '../settings.js';
+import { sha256File } from './hash.js';
+
+export interface RecordingTask {
+  /** position in the (sharded) input list */
+  index: number;
+  recording: string;
+  /** absolute path of the file (read from here; messages and summary.json name the recording id instead) */
+  path: string;
+  /** absolute output folder of this recording */
+  outFolder: string;
+  settings: Settings;
+  given: string[];
+  /** content hash of a completed earlier result with the same settings (--resume); null = analyse */
+  resumeSha256: string | null;
+}
+
+export interface RecordingResult {
+  index: number;
+  status: 'ok' | 'failed';
+  resumed: boolean;
+  size: number | null;
+  sha256: string | null;
+  error: { code: string; message: string } | null;
+  rows: number | null;
+  breaths_found: number | null;
+  breaths_ok: number | null;
+  elapsed_s: number;
+}
+
+export const BREATHS_FILE = 'breaths.csv';
+export const SUMMARY_FILE = 'summary.json';
+
+/** Stable code and one-line message for anything a recording can throw (naming the recording id, not the path). */
+export function describeError(e: unknown, recording: string, path: string = recording): { code: string; message: string } {
+  const d = describe(e, recording);
+  return { code: d.code, message: d.message.split(path).join(recording) };
+}
+
+function describe(e: unknown, recording: string): { code: string; message: string } {
+  if (isInputError(e)) return { code: e.code, message: e.message };
+  if (e instanceof AnalysisInputError) return { code: e.code, message: `${recording}: ${e.message}.`.replace(/\.\.$/, '.') };
+  const err = e as NodeJS.ErrnoException;
+  if (err && (err.code === 'EACCES' || err.code === 'ENOSPC' || err.code === 'EROFS' || err.code === 'EISDIR' || err.code === 'ENOTDIR')) {
+    return { code: 'write_failed', message: `${recording}: cannot write output (${err.message}). Choose another --out folder.` };
+  }
+  const text = (err?.message ?? String(e)).replace(/[\r\n]+/g, ' ');
+  return { code: 'internal', message: `${recording}: internal error: ${text} (please report it)` };
+}
+
+export async function processRecording(task: RecordingTask): Promise<RecordingResult> {
+  const t0 = performance.now();
+  const breathsPath = join(task.outFolder, BREATHS_FILE);
+  const summaryPath = join(task.outFolder, SUMMARY_FILE);
+  const result: RecordingResult = {
+    index: task.index, status: 'failed', resumed: false, size: null, sha256: null, error: null,
+    rows: null, breaths_found: null, breaths_ok: null, elapsed_s: 0,
+  };
+  try {
+    if (existsSync(task.path)) Object.assign(result, await sha256File(task.path));
+    if (task.resumeSha256 !== null && result.sha256 === task.resumeSha256 && existsSync(breathsPath) && existsSync(summaryPath)) {
+      result.status = 'ok';
+      result.resumed = true;
+    } else {
+      const given = new Set(task.given);
+      const { core, report } = await analyseFile(task.path, task.settings, given);
+      // the recording id, not the absolute path: outputs must not depend on where the folder is mounted
+      report.file = task.recording;
+      const o = composeOutputs(core, report, task.settings, given, new Map(), null);
+      const summary = o.summary;
+      // summary.json last: its presence marks a complete result for --resume
+      for (const name of outputNames(o).filter((n) => n !== SUMMARY_FILE)) writeFileAtomic(join(task.outFolder, name), outputFile(o, name)!);
+      writeFileAtomic(summaryPath, outputFile(o, SUMMARY_FILE)!);
+      result.status = 'ok';
+      result.rows = report.rows;
+      result.breaths_found = summary.breaths.found;
+      result.breaths_ok = summary.breaths.ok;
+    }
+  } catch (e) {
+    result.status = 'failed';
+    result.error = describeError(e, task.recording, task.path);
+    // never leave an earlier run's outputs looking like this input's result
+    for (const name of [BREATHS_FILE, SUMMARY_FILE, 'trends.csv', 'events.csv']) rmSync(join(task.outFolder, name), { force: true });
+  }
+  result.elapsed_s = (performance.now() - t0) / 1000;
+  return result;
+}

@@ -1,0 +1,50 @@
+// DIR/recordings.csv: one row per recording (ok or failed), built from its summary.json, so a batch run, a resumed
+// run and a merge of shards all write the same bytes. Medians and quartiles are over the ok breaths only
+// (summary.json `metrics`); excluded_<reason> counts breaths excluded for that reason (a breath can have several).
+import { REASON_CODES } from '../analyse/quality.js';
+import type { Summary } from '../report/summary.js';
+import { SUMMARY_METRICS } from '../types.js';
+import type { ManifestEntry } from './manifest.js';
+
+export const RECORDING_COLUMNS: readonly string[] = [
+  'recording', 'status', 'error_code', 'error',
+  'rows', 'rows_used', 'rows_skipped', 'duration_s',
+  'breaths_found', 'breaths_ok', 'breaths_excluded', 'breaths_partial',
+  'delay_s', 'delay_origin', 'response_ms', 'response_origin', 'expiration',
+  ...SUMMARY_METRICS.flatMap((m) => [`${m}_median`, `${m}_p25`, `${m}_p75`]),
+  ...Object.keys(REASON_CODES).map((c) => `excluded_${c}`),
+];
+
+/** One row of recordings.csv; `summary` is null for a failed recording. */
+export function recordingRow(entry: ManifestEntry, summary: Summary | null): Record<string, unknown> {
+  const row: Record<string, unknown> = {
+    recording: entry.recording,
+    status: entry.status,
+    error_code: entry.error?.code ?? '',
+    error: entry.error?.message ?? '',
+  };
+  if (!summary) return row;
+  Object.assign(row, {
+    rows: summary.input.rows,
+    rows_used: summary.input.rows_used,
+    rows_skipped: summary.input.rows_skipped,
+    duration_s: summary.recording.duration_s,
+    breaths_found: summary.breaths.found,
+    breaths_ok: summary.breaths.ok,
+    breaths_excluded: summary.breaths.excluded,
+    breaths_partial: summary.breaths.partial_not_analysed,
+    delay_s: summary.delay_s.value,
+    delay_origin: summary.delay_s.origin,
+    response_ms: summary.response_ms.value,
+    response_origin: summary.response_ms.origin,
+    expiration: summary.expiration.value,
+  });
+  for (const m of SUMMARY_METRICS) {
+    const s = summary.metrics[m];
+    row[`${m}_median`] = s?.median ?? null;
+    row[`${m}_p25`] = s?.p25 ?? null;
+    row[`${m}_p75`] = s?.p75 ?? null;
+  }
+  for (const c of Object.keys(REASON_CODES)) row[`excluded_${c}`] = summary.breaths.excluded_by_reason[c] ?? 0;
+  return row;
+}

@@ -1,0 +1,140 @@
+// `phasewise batch`: expand inputs, pick the shard, analyse every recording (pool of worker threads), record each
+// result in DIR/manifest.json as it arrives (so an interrupted run can be resumed), then write the tables.
+// Exit code: 0 when every recording was analysed, 4 (BATCH_EXIT_SOME_FAILED) when at least one failed.
+import { createHash } from 'node:crypto';
+import { statSync } from 'node:fs';
+import { join, resolve } from 'node:path';
+import { writeFileAtomic } from '../node/atomic-write.js';
+import { VERSION } from '../version.js';
+import { expandInputs } from './expand-inputs.js';
+import { settingsForRecording, type SettingsPlan } from './file-settings.js';
+import { countEntries, manifestJson, MANIFEST_FILE, MANIFEST_FORMAT, readManifest, type Manifest, type ManifestEntry } from './manifest.js';
+import { outputFolders } from './output-names.js';
+import { runTasks } from './pool.js';
+import { BREATHS_FILE, SUMMARY_FILE, type RecordingResult, type RecordingTask } from './process-recording.js';
+import { createProgress } from './progress.js';
+import { selectShard, type Shard } from './shard.js';
+import { writeBatchTables } from './tables.js';
+
+/** Exit code of a batch in which at least one recording failed (the others are complete). */
+export const BATCH_EXIT_SOME_FAILED = 4;
+
+/** A batch that cannot start (no inputs, bad options): one-line message, exit code 2. */
+export class BatchUsageError extends Error {}
+
+export interface BatchOptions {
+  inputs: readonly string[];
+  outDir: string;
+  plan: SettingsPlan;
+  jobs: number;
+  resume: boolean;
+  shard: Shard | null;
+  progress: 'bar' | 'lines' | 'none';
+  /** worker bundle (default: batch-worker.cjs next to the running bundle) */
+  workerFile?: string | null;
+  /** working folder: recording ids are relative to it (default process.cwd()) */
+  cwd?: string;
+  /** the command line, recorded in the manifest */
+  command?: string;
+}
+
+export interface BatchOutcome {
+  manifest: Manifest;
+  exitCode: 0 | typeof BATCH_EXIT_SOME_FAILED;
+  warnings: string[];
+}
+
+/** SHA-256 of the recording ids, one per line: shards of one batch share it. */
+export function inputListHash(recordings: readonly string[]): string {
+  return createHash('sha256').update(recordings.join('\n')).digest('hex');
+}
+
+export async function runBatch(o: BatchOptions): Promise<BatchOutcome> {
+  const t0 = performance.now();
+  const started = new Date().toISOString();
+  const cwd = o.cwd ?? process.cwd();
+  const outDir = resolve(cwd, o.outDir);
+  const { inputs: all, warnings } = expandInputs(o.inputs, cwd, outDir);
+  if (!all.length) throw new BatchUsageError(`no recordings found in ${o.inputs.join(' ')}: give files, folders (searched for .csv, .tsv, .txt) or quoted globs such as 'data/**/*.csv'`);
+  const folders = outputFolders(all.map((i) => i.recording));
+  const picked = o.shard ? selectShard(all.map((input, k) => ({ input, folder: folders[k]! })), o.shard) : all.map((input, k) => ({ input, folder: folders[k]! }));
+  const previous = o.resume ? readManifest(outDir) : null;
+  const done = new Map<string, ManifestEntry>();
+  if (previous && previous.version === VERSION) for (const e of previous.inputs) if (e.status === 'ok' && e.sha256) done.set(e.recording, e);
+
+  const entries: ManifestEntry[] = [];
+  const tasks: RecordingTask[] = [];
+  for (const [k, { input, folder }] of picked.entries()) {
+    const rs = settingsForRecording(o.plan, input.recording);
+    const path = input.path;
+    const before = done.get(input.recording);
+    const outputs = { breaths: `${folder}/${BREATHS_FILE}`, summary: `${folder}/${SUMMARY_FILE}` };
+    // kept only with the same content, settings, version (checked above) and output folder
+    const resumeSha256 = before && before.settings_sha256 === rs.sha256 && before.outputs.summary === outputs.summary ? before.sha256 : null;
+    entries.push(
+      resumeSha256 && before
+        ? // until checked again, the earlier result stands (so an interrupted resumed run loses nothing)
+          { ...before, path, patterns: rs.patterns, outputs, resumed: true }
+        : {
+            recording: input.recording, path, size: null, sha256: null, settings_sha256: rs.sha256, patterns: rs.patterns,
+            status: 'pending', error: null, outputs,
+            rows: null, breaths_found: null, breaths_ok: null, resumed: false, elapsed_s: null,
+          },
+    );
+    tasks.push({ index: k, recording: input.recording, path, outFolder: join(outDir, folder), settings: rs.settings, given: rs.given, resumeSha256 });
+  }
+
+  const manifest: Manifest = {
+    format: MANIFEST_FORMAT, tool: 'phasewise', version: VERSION, command: o.command ?? 'phasewise batch',
+    settings: o.plan.base, settings_given: o.plan.baseGiven, settings_file: o.plan.settingsFile,
+    settings_files_patterns: o.plan.files, settings_sha256: o.plan.sha256,
+    shard: o.shard ?? { index: 0, count: 1 }, inputs_total: all.length, input_list_sha256: inputListHash(all.map((i) => i.recording)),
+    merged_from: [], warnings, jobs: o.jobs, counts: countEntries(entries), started_at: started, finished_at: null, elapsed_s: null, inputs: entries,
+  };
+  const writeManifest = () => {
+    manifest.counts = countEntries(entries);
+    writeFileAtomic(join(outDir, MANIFEST_FILE), manifestJson(manifest));
+  };
+  writeManifest();
+
+  // sizes for the progress bar (bytes), read cheaply before hashing
+  const sizes = picked.map(({ input }) => {
+    try {
+      return statSync(input.path).size;
+    } catch {
+      return 0;
+    }
+  });
+  const progress = createProgress(picked.map(({ input }, k) => ({ recording: input.recording, size: sizes[k]! })), { mode: o.progress });
+  let lastWrite = performance.now();
+  await runTasks(
+    tasks,
+    o.jobs,
+    (r: RecordingResult) => {
+      const e = entries[r.index]!;
+      const before = done.get(e.recording);
+      Object.assign(e, {
+        status: r.status, error: r.error, size: r.size, sha256: r.sha256, resumed: r.resumed, elapsed_s: round3(r.elapsed_s),
+        rows: r.resumed ? (before?.rows ?? null) : r.rows,
+        breaths_found: r.resumed ? (before?.breaths_found ?? null) : r.breaths_found,
+        breaths_ok: r.resumed ? (before?.breaths_ok ?? null) : r.breaths_ok,
+      });
+      progress.done({ recording: e.recording, size: sizes[r.index]! }, r, e.rows);
+      if (performance.now() - lastWrite > 1000) {
+        writeManifest();
+        lastWrite = performance.now();
+      }
+    },
+    o.workerFile,
+  );
+  progress.stop();
+  writeBatchTables(outDir, entries);
+  manifest.finished_at = new Date().toISOString();
+  manifest.elapsed_s = round3((performance.now() - t0) / 1000);
+  writeManifest();
+  return { manifest, exitCode: manifest.counts.failed > 0 ? BATCH_EXIT_SOME_FAILED : 0, warnings };
+}
+
+function round3(x: number): number {
+  return Math.round(x * 1000) / 1000;
+}

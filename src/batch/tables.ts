@@ -1,0 +1,58 @@
+// The batch tables, written from the per-recording folders in input order (never completion order):
+// DIR/breaths.csv  every breath of every ok recording, with a leading `recording` column (the per-recording
+//                  breaths.csv lines, unchanged, so the bytes equal breathsCsv(rows, { column: 'recording', ... }));
+// DIR/recordings.csv one row per recording (recordings-table.ts).
+// breaths.csv is streamed recording by recording, so memory holds one recording's table at a time.
+import { closeSync, mkdirSync, openSync, readFileSync, renameSync, rmSync, writeSync } from 'node:fs';
+import { join } from 'node:path';
+import { writeFileAtomic } from '../node/atomic-write.js';
+import { csvCell, csvTable } from '../report/format.js';
+import type { Summary } from '../report/summary.js';
+import { BREATH_COLUMNS } from '../types.js';
+import type { ManifestEntry } from './manifest.js';
+import { recordingRow, RECORDING_COLUMNS } from './recordings-table.js';
+
+export const BATCH_BREATHS_FILE = 'breaths.csv';
+export const BATCH_RECORDINGS_FILE = 'recordings.csv';
+
+const BREATHS_HEADER = BREATH_COLUMNS.join(',');
+
+/** Writes DIR/breaths.csv and DIR/recordings.csv from the entries (in the order given). */
+export function writeBatchTables(outDir: string, entries: readonly ManifestEntry[]): void {
+  mkdirSync(outDir, { recursive: true });
+  const target = join(outDir, BATCH_BREATHS_FILE);
+  const tmp = `${target}.tmp-${process.pid}`;
+  const fd = openSync(tmp, 'w');
+  let open = true;
+  const rows: Record<string, unknown>[] = [];
+  try {
+    writeSync(fd, `recording,${BREATHS_HEADER}\n`);
+    for (const e of entries) {
+      if (e.status !== 'ok') {
+        rows.push(recordingRow(e, null));
+        continue;
+      }
+      const summary = JSON.parse(readFileSync(join(outDir, e.outputs.summary), 'utf8')) as Summary;
+      rows.push(recordingRow(e, summary));
+      const text = readFileSync(join(outDir, e.outputs.breaths), 'utf8');
+      const firstEnd = text.indexOf('\n');
+      const header = firstEnd < 0 ? text : text.slice(0, firstEnd);
+      if (header !== BREATHS_HEADER) {
+        throw new Error(`${e.outputs.breaths}: its columns differ from this version's breaths.csv; analyse ${e.recording} again (without --resume)`);
+      }
+      const body = text.slice(firstEnd + 1);
+      if (!body) continue;
+      const prefix = csvCell(e.recording) + ',';
+      const lines = body.endsWith('\n') ? body.slice(0, -1).split('\n') : body.split('\n');
+      writeSync(fd, lines.map((l) => prefix + l).join('\n') + '\n');
+    }
+    closeSync(fd);
+    open = false;
+    renameSync(tmp, target);
+  } catch (err) {
+    if (open) closeSync(fd);
+    rmSync(tmp, { force: true });
+    throw err;
+  }
+  writeFileAtomic(join(outDir, BATCH_RECORDINGS_FILE), csvTable(RECORDING_COLUMNS, rows));
+}
