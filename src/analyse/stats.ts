@@ -2,12 +2,14 @@
 
 /** Quantile by linear interpolation between order statistics (R type 7, numpy's default). NaN when empty. */
 export function quantile(values: ArrayLike<number>, q: number): number {
-  const finite: number[] = [];
+  // typed-array sort is numeric and much faster than Array#sort with a comparator (calibration sorts ~10^4 values)
+  const finite = new Float64Array(values.length);
+  let n = 0;
   for (let i = 0; i < values.length; i++) {
     const v = values[i]!;
-    if (Number.isFinite(v)) finite.push(v);
+    if (Number.isFinite(v)) finite[n++] = v;
   }
-  return quantileSorted(finite.sort((a, b) => a - b), q);
+  return quantileSorted(finite.subarray(0, n).sort(), q);
 }
 
 export function quantileSorted(sorted: ArrayLike<number>, q: number): number {
