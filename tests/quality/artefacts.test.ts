@@ -7,6 +7,7 @@ import { createAnalyser } from '../../src/analyse/analyser.js';
 import { defaultSettings } from '../../src/settings.js';
 import { concatBlocks, scenarioParams, simulateRecording, type SimParams } from '../../src/simulate/index.js';
 import type { BreathRow, SampleBlock } from '../../src/types.js';
+import { expectClose } from '../helpers/expect-close.js';
 
 const ONSET = 90;
 
@@ -96,6 +97,14 @@ describe('quality codes on recordings with an artefact from 90 s', () => {
     const rows = analyse(b);
     expectCleanBefore(rows);
     expect(share(after(rows, 2), 'poor_fit')).toBeGreaterThan(0.8);
+  });
+
+  it('implausible: CO2 spikes of 250 mmHg (a damaged sensor line) in every breath', () => {
+    const b = record({});
+    for (let i = 0; i < b.n; i++) if (b.t_s[i]! >= ONSET && Math.round(b.t_s[i]! * 100) % 200 === 0) b.co2_mmhg[i] = 250;
+    const rows = analyse(b);
+    expectClose(share(before(rows), 'implausible'), 0, { abs: 0 });
+    expect(share(after(rows, 2), 'implausible')).toBeGreaterThan(0.9);
   });
 
   it('gap: rows missing inside breaths are flagged; a long gap splits the recording and cut breaths are counted', () => {
