@@ -6,6 +6,7 @@ const entries = [
   ['src/cli/main.ts', 'dist/cli.cjs'],
   ['scripts/bench.ts', 'dist/bench.cjs'],
   ['src/batch/worker.ts', 'dist/batch-worker.cjs'],
+  ['src/node/read-worker.ts', 'dist/read-worker.cjs'],
 ];
 for (const [entry, outfile] of entries) {
   if (!existsSync(entry)) continue;

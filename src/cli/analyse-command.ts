@@ -24,7 +24,7 @@ export function registerAnalyse(program: Command): void {
   addGasOptions(addInputOptions(cmd)).action(async (file: string, opts: Record<string, unknown>) => {
     const { settings, given } = resolveSettings(opts);
     const gas = readGasFile(opts); // read first: a bad gas file fails before the long analysis
-    const result = await analyseFile(file, settings, given);
+    const result = await analyseFile(file, settings, given, true);
     const out = String(opts.out);
     const gasInput = gas ? { file: String(opts.gas), ...gas } : null;
     const o = composeOutputs(result.core, result.report, settings, given, new Map(), gasInput, gasOptionsFrom(opts, settings));
