@@ -57,7 +57,8 @@ export function readInWorker(workerFile: string, path: string, settings: Setting
   const inFlight = new SharedArrayBuffer(4);
   const counter = new Int32Array(inFlight);
   const data: ReadWorkerData = { path, ingest: settings.ingest, min_rate_hz: settings.analysis.min_rate_hz, inFlight };
-  const worker = new Worker(workerFile, { workerData: data });
+  // the reader holds one chunk and one block at a time: a small heap keeps the process under the memory target
+  const worker = new Worker(workerFile, { workerData: data, resourceLimits: { maxYoungGenerationSizeMb: 8, maxOldGenerationSizeMb: 96 } });
   return new Promise<IngestReport>((resolve, reject) => {
     let settled = false;
     const finish = (f: () => void) => {
