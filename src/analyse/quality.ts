@@ -4,7 +4,7 @@
 import type { AnalysisSettings } from '../settings.js';
 import type { BreathRow } from '../types.js';
 import type { BreathGeometry } from './decompose.js';
-import { median } from './stats.js';
+import { quantileSorted } from './stats.js';
 
 /** Every reason code with its meaning (the README table is generated from this list). */
 export const REASON_CODES: Record<string, string> = {
@@ -59,16 +59,21 @@ export function checkBreath(input: BreathCheckInput, cfg: AnalysisSettings): str
  * the surrounding `half` breaths on each side (robust statistics; Hampel-type filter, common practice, no source).
  */
 export function markOutliers(rows: BreathRow[], cfg: AnalysisSettings, half = 10): void {
-  const vt = rows.map((r) => r.vt_exp_ml);
-  const dur = rows.map((r) => r.t_end_s - r.t_start_s);
+  const vt = Float64Array.from(rows, (r) => r.vt_exp_ml);
+  const dur = Float64Array.from(rows, (r) => r.t_end_s - r.t_start_s);
+  const win = new Float64Array(2 * half);
+  const dev = new Float64Array(2 * half);
   for (let i = 0; i < rows.length; i++) {
     const lo = Math.max(0, i - half);
     const hi = Math.min(rows.length, i + half + 1);
     if (hi - lo < 5) continue;
     for (const series of [vt, dur]) {
-      const win = series.slice(lo, hi).filter((_, j) => j + lo !== i);
-      const m = median(win);
-      const spread = 1.4826 * median(win.map((x) => Math.abs(x - m)));
+      let n = 0;
+      for (let j = lo; j < hi; j++) if (j !== i && Number.isFinite(series[j]!)) win[n++] = series[j]!;
+      if (n === 0) continue;
+      const m = quantileSorted(win.subarray(0, n).sort(), 0.5);
+      for (let k = 0; k < n; k++) dev[k] = Math.abs(win[k]! - m);
+      const spread = 1.4826 * quantileSorted(dev.subarray(0, n).sort(), 0.5);
       const floor = 0.05 * Math.abs(m);
       if (Math.abs(series[i]! - m) > cfg.outlier_mad * Math.max(spread, floor)) {
         if (!rows[i]!.flags.includes('outlier')) rows[i]!.flags.push('outlier');

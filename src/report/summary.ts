@@ -45,7 +45,10 @@ export interface Summary {
 }
 
 export function summariseMetric(values: number[]): MetricSummary {
-  const v = values.filter((x) => Number.isFinite(x)).sort((a, b) => a - b);
+  const all = Float64Array.from(values);
+  let n = 0;
+  for (let i = 0; i < all.length; i++) if (Number.isFinite(all[i]!)) all[n++] = all[i]!;
+  const v = all.subarray(0, n).sort();
   if (!v.length) return { median: null, p25: null, p75: null, n: 0 };
   return { median: quantileSorted(v, 0.5), p25: quantileSorted(v, 0.25), p75: quantileSorted(v, 0.75), n: v.length };
 }
