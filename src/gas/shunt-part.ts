@@ -4,7 +4,7 @@ import { severinghausPo2, severinghausSaturation } from '../physiology/severingh
 import { shuntCo2Effect } from '../physiology/shunt-co2-effect.js';
 import { shuntFractionFromContents } from '../physiology/shunt-fraction-from-contents.js';
 import { shuntFractionFromSaturations } from '../physiology/shunt-fraction-from-saturations.js';
-import type { GasSample, Pvco2Source, ShuntMethod } from './gas-types.js';
+import type { GasRow, GasSample, Pvco2Source, ShuntMethod } from './gas-types.js';
 
 /** Resolved settings the shunt part needs (defaults already applied). */
 export interface ShuntSettings {
@@ -19,16 +19,11 @@ export interface ShuntSettings {
   co2_slope_k: number;
 }
 
-export interface ShuntPart {
-  pao2_alv_mmhg: number;
-  shunt_fraction: number;
-  shunt_method: ShuntMethod;
-  pvco2_mmhg: number;
-  pvco2_source: Pvco2Source;
-  gradient_shunt_mmhg: number;
+/** The shunt columns of a gas row, with the inputs that were missing and notes on assumptions. */
+export type ShuntPart = Pick<GasRow, 'pao2_alv_mmhg' | 'shunt_fraction' | 'shunt_method' | 'pvco2_mmhg' | 'pvco2_source' | 'gradient_shunt_mmhg'> & {
   missing: string[];
   notes: string[];
-}
+};
 
 const has = (v: number) => Number.isFinite(v);
 

@@ -1,3 +1,4 @@
+import type { SimParams } from './params';
 import { ALV_VENT_CONSTANT } from './constants';
 import { arterialPco2ByMixing } from './shunt-mixing';
 
@@ -18,17 +19,18 @@ import { arterialPco2ByMixing } from './shunt-mixing';
  * breath-to-breath changes); the CO2 eliminated in a breath uses that breath's own alveolar volume.
  * [common practice, no source: mass-balance derivation; constants from the primer as cited]
  */
-export interface GasInputs {
-  vco2_ml_min: number;
-  q_l_min: number;
-  shunt_fraction: number;
-  co2_slope_ml_dl_mmhg: number;
-  co2_store_ml_per_mmhg: number;
-  pi_co2_mmhg: number;
-  alv_dead_space_fraction: number;
-  alv_mixing_tau_s: number;
-  vd_aw_ml: number;
-}
+export type GasInputs = Pick<
+  SimParams,
+  | 'vco2_ml_min'
+  | 'q_l_min'
+  | 'shunt_fraction'
+  | 'co2_slope_ml_dl_mmhg'
+  | 'co2_store_ml_per_mmhg'
+  | 'pi_co2_mmhg'
+  | 'alv_dead_space_fraction'
+  | 'alv_mixing_tau_s'
+  | 'vd_aw_ml'
+>;
 
 export interface Co2BodyState {
   pv_mmhg: number;
