@@ -8,7 +8,7 @@ import { resolveSettings } from '../cli/options.js';
 import { sha256Json } from './hash.js';
 import { patternMatches } from './glob.js';
 
-type Patch = { ingest?: Partial<Settings['ingest']>; analysis?: Partial<Settings['analysis']> };
+type Patch = { ingest?: Partial<Settings['ingest']>; analysis?: Partial<Settings['analysis']>; events?: Partial<Settings['events']> };
 export type FilePattern = NonNullable<SettingsFile['files']>[number];
 
 export interface SettingsPlan {
@@ -36,9 +36,9 @@ export interface RecordingSettings {
 }
 
 function patchFrom(settings: Settings, given: Iterable<string>): Patch {
-  const patch: { ingest: Record<string, unknown>; analysis: Record<string, unknown> } = { ingest: {}, analysis: {} };
+  const patch: Record<'ingest' | 'analysis' | 'events', Record<string, unknown>> = { ingest: {}, analysis: {}, events: {} };
   for (const key of given) {
-    const [group, name] = key.split('.') as ['ingest' | 'analysis', string];
+    const [group, name] = key.split('.') as ['ingest' | 'analysis' | 'events', string];
     patch[group][name] = (settings[group] as unknown as Record<string, unknown>)[name];
   }
   return patch as Patch;
@@ -49,7 +49,11 @@ export function settingsPlan(opts: Record<string, unknown>): SettingsPlan {
   const all = resolveSettings(opts);
   const cliOnly = resolveSettings({ ...opts, settings: undefined });
   const file = all.file;
-  const fileTop: Patch = { ...(file?.ingest ? { ingest: file.ingest } : {}), ...(file?.analysis ? { analysis: file.analysis } : {}) };
+  const fileTop: Patch = {
+    ...(file?.ingest ? { ingest: file.ingest } : {}),
+    ...(file?.analysis ? { analysis: file.analysis } : {}),
+    ...(file?.events ? { events: file.events } : {}),
+  };
   const baseGiven = [...all.given].sort();
   const files = file?.files ?? [];
   return {

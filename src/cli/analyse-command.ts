@@ -1,6 +1,5 @@
 // `phasewise analyse FILE --out DIR`: one recording -> breaths.csv, summary.json (+ gas.csv and paco2_estimates.csv
 // with --gas) and a terminal summary.
-import { join } from 'node:path';
 import type { Command } from 'commander';
 import { analyseFile } from '../node/analyse-file.js';
 import { writeFileAtomic } from '../node/atomic-write.js';
@@ -10,7 +9,10 @@ import { formatSummaryText } from '../report/summary.js';
 import { formatEventLine } from '../trends/index.js';
 import type { GasResult } from '../gas/index.js';
 import { addGasOptions, gasOptionsFrom, readGasFile } from './gas-step.js';
-import { addInputOptions, resolveSettings } from './options.js';
+import { join, resolve } from 'node:path';
+import { recordingId } from '../batch/expand-inputs.js';
+import { settingsForRecording, settingsPlan } from '../batch/file-settings.js';
+import { addInputOptions } from './options.js';
 
 export function registerAnalyse(program: Command): void {
   const cmd = program
@@ -22,7 +24,10 @@ export function registerAnalyse(program: Command): void {
     .option('--json', 'print summary.json to the terminal instead of the table')
     .option('--quiet', 'print nothing on success');
   addGasOptions(addInputOptions(cmd)).action(async (file: string, opts: Record<string, unknown>) => {
-    const { settings, given } = resolveSettings(opts);
+    // the same settings resolution as batch: defaults < settings file < its matching `files` patterns < options
+    const rec = settingsForRecording(settingsPlan(opts), recordingId(resolve(file), process.cwd()));
+    const settings = rec.settings;
+    const given = new Set(rec.given);
     const gas = readGasFile(opts); // read first: a bad gas file fails before the long analysis
     const result = await analyseFile(file, settings, given, true);
     const out = String(opts.out);
