@@ -1,6 +1,7 @@
 // phasewise review: page flows (loaded by main.ts). Open a file -> mapping step -> analyse (in worker.ts) -> review
 // -> exclude / load blood gases (outputs recomputed in the worker) -> export. The page never parses the recording.
 
+import type { GasOptions } from '../src/gas/index';
 import 'uplot/dist/uPlot.min.css';
 import './style.css';
 import type { AnalysisCore } from '../src/analyse/analyser';
@@ -102,7 +103,7 @@ function onWorker(m: FromWorker): void {
       return;
     case 'gas':
       state.gasParsed = m.result;
-      state.gasInput = { file: m.file, samples: m.result.samples, rejected: m.result.rejected };
+      state.gasInput = { file: m.file, samples: m.result.samples, rejected: m.result.rejected, options: gasOptionsFromForm() };
       gasChanged = true;
       recompose();
       renderBreath();
@@ -303,6 +304,16 @@ function wire(): void {
   for (const [id, name] of files) byId(id).addEventListener('click', () => exportFile(name));
   byId('export-png').addEventListener('click', exportPng);
   byId('export-settings').addEventListener('click', () => download('phasewise-settings.json', settingsFileText(state.analysed?.settings ?? state.settings), 'application/json'));
+  // patient and method options of the gas analysis (the CLI's --weight, --height, --sex, --gas-window,
+  // --cardiac-output): changing one recomputes the gas table with the same core as `analyse --gas`
+  for (const id of ['gas-weight', 'gas-height', 'gas-sex', 'gas-window', 'gas-co']) {
+    byId(id).addEventListener('change', () => {
+      if (!state.gasInput) return;
+      state.gasInput = { ...state.gasInput, options: gasOptionsFromForm() };
+      gasChanged = true;
+      recompose();
+    });
+  }
   onFileInput('gas-input', (f) => {
     if (!state.result) return;
     const start = byId<HTMLInputElement>('gas-start').value.trim();
@@ -329,4 +340,25 @@ function wire(): void {
 export function start(): void {
   wire();
   setBodyState('idle');
+}
+
+/** The gas options typed in the sidebar (empty fields are left to the defaults). */
+function gasOptionsFromForm(): Partial<GasOptions> {
+  const num = (id: string) => {
+    const v = byId<HTMLInputElement>(id).value.trim();
+    const x = Number(v);
+    return v !== '' && x > 0 ? x : undefined;
+  };
+  const o: Partial<GasOptions> = {};
+  const weight = num('gas-weight');
+  const height = num('gas-height');
+  const window = num('gas-window');
+  const co = num('gas-co');
+  const sex = byId<HTMLSelectElement>('gas-sex').value;
+  if (weight !== undefined) o.weight_kg = weight;
+  if (height !== undefined) o.height_cm = height;
+  if (sex === 'male' || sex === 'female') o.sex = sex;
+  if (window !== undefined) o.window_s = window;
+  if (co !== undefined) o.cardiac_output_l_min = co;
+  return o;
 }

@@ -171,7 +171,7 @@ export function analyseGas(breaths: readonly BreathRow[], samples: readonly GasS
     weight_note: weight.note,
     estimate_band: 'min-max of the gradients observed so far; +/- single_gas_spread_mmhg while only one gas is known',
     sources: Object.fromEntries(Object.entries(GAS_DEFAULTS).map(([k, v]) => [k, v.source])),
-    given: Object.keys(opts).filter((k) => opts[k as keyof GasOptions] !== undefined),
+    given: Object.keys(opts).filter((k) => opts[k as keyof GasOptions] !== undefined).sort(),
   };
 
   const estimates = estimatePaco2(breaths, rows, { single_gas_spread_mmhg: singleGasSpread });

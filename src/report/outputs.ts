@@ -23,6 +23,9 @@ export interface GasInput {
   file: string;
   samples: GasSample[];
   rejected: { line: number; reason: string }[];
+  /** patient and method options of the gas analysis (weight, height, sex, window, cardiac output); the CLI's
+   *  --weight/--height/--sex/--gas-window/--cardiac-output */
+  options?: Partial<GasOptions>;
 }
 
 export interface Outputs {
@@ -63,7 +66,7 @@ export function composeOutputs(
   given: ReadonlySet<string>,
   excluded: ReadonlyMap<number, string>,
   gas: GasInput | null,
-  gasOptions: GasOptions = { pb_mmhg: settings.ingest.pb_mmhg },
+  gasOptions: GasOptions = { pb_mmhg: settings.ingest.pb_mmhg, ...(gas?.options ?? {}) },
 ): Outputs {
   const rows = exportRows(core, settings, excluded, gas);
   const reviewed: AnalysisCore = { ...core, breaths: rows };

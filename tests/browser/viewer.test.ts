@@ -282,6 +282,26 @@ describe.skipIf(!HAVE)('review viewer in headless Chromium', () => {
     }
   });
 
+  it('takes the patient options of the gas analysis: the same files as analyse --gas --weight --gas-window', async () => {
+    const gasDir = join(tmp, 'gasrun');
+    run(process.execPath, [join(ROOT, 'bin', 'phasewise.cjs'), 'analyse', SAMPLE, '--gas', 'gas.csv', '--weight', '70', '--gas-window', '90', '--out', 'out-opts', '--quiet'], gasDir);
+    // typing then leaving the field fires its change event (as a user does), which recomputes the gas table
+    for (const [id, value] of [['#gas-weight', '70'], ['#gas-window', '90']] as const) {
+      await page.fill(id, value);
+      await page.locator(id).evaluate((el) => (el as HTMLInputElement).blur());
+      expect(await waitState(page, ['done'])).toBe('done');
+    }
+    for (const name of ['gas.csv', 'summary.json']) {
+      const f = await downloadText(page, EXPORT_BUTTON[name]!);
+      expect(f.text, name).toBe(readFileSync(join(gasDir, 'out-opts', name), 'utf8'));
+    }
+    for (const id of ['#gas-weight', '#gas-window']) {
+      await page.fill(id, '');
+      await page.locator(id).evaluate((el) => (el as HTMLInputElement).blur());
+      expect(await waitState(page, ['done'])).toBe('done');
+    }
+  });
+
   it('writes a settings file the CLI reads to the same outputs', async () => {
     await page.click('#settings-button');
     await page.fill('#set-analysis-apparatus_ml', '12');
