@@ -28,6 +28,8 @@ export const ingestSchema = z
     co2_percent: z.enum(['ambient', 'dry']),
     expiration: nullable(z.enum(['positive', 'negative'])),
     max_silence_s: pos,
+    flow_condition: z.enum(['btps', 'atps', 'atpd']),
+    flow_temp_c: num.min(0).max(45),
   })
   .strict()
   .partial();

@@ -26,6 +26,11 @@ export interface IngestSettings {
   expiration: 'positive' | 'negative' | null;
   /** a channel silent for longer than this is a gap, s */
   max_silence_s: number;
+  /** gas condition in which the flow sensor reports volume: 'btps' (as used internally; no conversion), 'atps'
+   *  (ambient temperature, saturated) or 'atpd' (ambient, dry) — converted to BTPS at ingest (primer 7.3-7.4) */
+  flow_condition: 'btps' | 'atps' | 'atpd';
+  /** gas temperature at the flow sensor for 'atps' / 'atpd', deg C */
+  flow_temp_c: number;
 }
 
 export interface AnalysisSettings {
@@ -106,6 +111,8 @@ export const DEFAULT_INGEST: IngestSettings = {
   co2_percent: 'ambient',
   expiration: null,
   max_silence_s: 0.5,
+  flow_condition: 'btps',
+  flow_temp_c: 22,
 };
 
 export const DEFAULT_ANALYSIS: AnalysisSettings = {

@@ -26,6 +26,8 @@ export function addInputOptions(cmd: Command): Command {
     .addOption(new Option('--co2-unit <unit>', 'CO2 unit (default: from header or values)').choices(['mmHg', 'kPa', '%']))
     .option('--pb <mmhg>', 'barometric pressure for % CO2, mmHg (default 760)', number('--pb'))
     .addOption(new Option('--co2-percent <basis>', '% CO2 basis: ambient (F x PB) or dry (F x (PB - 47))').choices(['ambient', 'dry']))
+    .addOption(new Option('--flow-condition <c>', 'gas condition of the flow sensor: btps (default, no conversion), atps or atpd').choices(['btps', 'atps', 'atpd']))
+    .option('--flow-temp <celsius>', 'gas temperature at the flow sensor for atps/atpd (default 22)', number('--flow-temp'))
     .addOption(new Option('--expiration <sign>', 'sign of expiratory flow in the file (default: infer)').choices(['positive', 'negative']))
     .option('--delay <s>', 'CO2-to-flow transport delay in seconds (default: estimate)', number('--delay'))
     .option('--response-ms <ms>', 'CO2 sensor time constant in ms (default: estimate)', number('--response-ms'))
@@ -66,6 +68,8 @@ export function resolveSettings(opts: Record<string, unknown>): ResolvedSettings
     ['pb', 'ingest', 'pb_mmhg'],
     ['co2Percent', 'ingest', 'co2_percent'],
     ['expiration', 'ingest', 'expiration'],
+    ['flowCondition', 'ingest', 'flow_condition'],
+    ['flowTemp', 'ingest', 'flow_temp_c'],
     ['delay', 'analysis', 'delay_s'],
     ['responseMs', 'analysis', 'response_ms'],
     ['paco2', 'analysis', 'paco2_mmhg'],

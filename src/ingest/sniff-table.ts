@@ -11,6 +11,7 @@ import { InputError } from './errors';
 import type { TableLayout, TimeFormat } from './layout';
 import { sniffStructure, type TableStructure } from './sniff-structure';
 import { splitFields } from './split-fields';
+import { btpsFactor } from '../physiology/btps-factor';
 import {
   co2FactorToMmhg, co2UnitMismatch, flowFactorToLps, flowUnitMismatch, inferCo2Unit, inferFlowUnit, inferTimeUnit,
   parseUnitText, robustMax, splitNameAndUnit, type Co2Unit, type FlowUnit, type HeaderUnit,
@@ -91,6 +92,11 @@ export function sniffTable(head: string, settings: IngestSettings, min_rate_hz: 
 
   const recorded = (value: unknown, origin: RecordedSetting['origin'], note?: string): RecordedSetting => (note ? { value, origin, note } : { value, origin });
   const givenOrDefault = (k: keyof IngestSettings): RecordedSetting => recorded(settings[k], settings[k] === DEFAULT_INGEST[k] ? 'default' : 'given');
+  // flow volumes to BTPS (primer 7.3: F_BTPS = (310.15 / (273.15 + T)) (PB - PH2O(T)) / (PB - 47); dry gas: PH2O(T) = 0)
+  const conditionFactor = settings.flow_condition === 'btps' ? 1 : btpsFactor(settings.flow_temp_c, settings.pb_mmhg, settings.flow_condition === 'atps');
+  if (settings.flow_condition !== 'btps') {
+    notes.push(`flow converted from ${settings.flow_condition.toUpperCase()} at ${settings.flow_temp_c} C to BTPS (x ${conditionFactor.toFixed(4)})`);
+  }
   return {
     delimiter: st.delimiter,
     decimal: st.decimal,
@@ -105,7 +111,7 @@ export function sniffTable(head: string, settings: IngestSettings, min_rate_hz: 
     names: { time: rateMode ? null : st.header[cols.time]!, flow: st.header[cols.flow]!, co2: st.header[cols.co2]! },
     units: { time: timeFormat, flow: flowUnit.unit, co2: co2Unit.unit },
     clock_kind,
-    flow_factor: flowFactorToLps(flowUnit.unit),
+    flow_factor: flowFactorToLps(flowUnit.unit) * conditionFactor,
     co2_factor: co2FactorToMmhg(co2Unit.unit, settings.pb_mmhg, settings.co2_percent),
     time_divisor: timeFormat === 'ms' ? 1000 : 1,
     rate_hz,
