@@ -2,12 +2,14 @@
 // DIR/breaths.csv  every breath of every ok recording, with a leading `recording` column (the per-recording
 //                  breaths.csv lines, unchanged, so the bytes equal breathsCsv(rows, { column: 'recording', ... }));
 // DIR/recordings.csv one row per recording (recordings-table.ts).
+// DIR/trends.csv, DIR/events.csv  every recording's trends and events, with a leading `recording` column.
 // breaths.csv is streamed recording by recording, so memory holds one recording's table at a time.
 import { closeSync, mkdirSync, openSync, readFileSync, renameSync, rmSync, writeSync } from 'node:fs';
-import { join } from 'node:path';
+import { dirname, join } from 'node:path';
 import { writeFileAtomic } from '../node/atomic-write.js';
 import { csvCell, csvTable } from '../report/format.js';
 import type { Summary } from '../report/summary.js';
+import { EVENT_COLUMNS, TREND_COLUMNS } from '../trends/index.js';
 import { BREATH_COLUMNS } from '../types.js';
 import type { ManifestEntry } from './manifest.js';
 import { recordingRow, RECORDING_COLUMNS } from './recordings-table.js';
@@ -55,4 +57,32 @@ export function writeBatchTables(outDir: string, entries: readonly ManifestEntry
     throw err;
   }
   writeFileAtomic(join(outDir, BATCH_RECORDINGS_FILE), csvTable(RECORDING_COLUMNS, rows));
+  for (const [file, columns] of [['trends.csv', TREND_COLUMNS], ['events.csv', EVENT_COLUMNS]] as const) {
+    writeFileAtomic(join(outDir, file), combined(outDir, entries, file, columns.join(',')));
+  }
+}
+
+/** One recording-prefixed table from the per-recording files `name` of the ok entries (input order). */
+function combined(outDir: string, entries: readonly ManifestEntry[], name: string, header: string): string {
+  const parts = [`recording,${header}\n`];
+  for (const e of entries) {
+    if (e.status !== 'ok') continue;
+    const path = join(outDir, dirname(e.outputs.breaths), name);
+    let text: string;
+    try {
+      text = readFileSync(path, 'utf8');
+    } catch {
+      throw new Error(`${join(dirname(e.outputs.breaths), name)} is missing; analyse ${e.recording} again (without --resume)`);
+    }
+    const firstEnd = text.indexOf('\n');
+    if ((firstEnd < 0 ? text : text.slice(0, firstEnd)) !== header) {
+      throw new Error(`${join(dirname(e.outputs.breaths), name)}: its columns differ from this version's; analyse ${e.recording} again (without --resume)`);
+    }
+    const body = text.slice(firstEnd + 1);
+    if (!body) continue;
+    const prefix = csvCell(e.recording) + ',';
+    const lines = body.endsWith('\n') ? body.slice(0, -1).split('\n') : body.split('\n');
+    parts.push(lines.map((l) => prefix + l).join('\n') + '\n');
+  }
+  return parts.join('');
 }
