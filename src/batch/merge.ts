@@ -57,7 +57,8 @@ export function mergeShards(shardDirs: readonly string[], outDir: string, comman
   }
   for (const { e, dir } of entries) {
     if (e.status !== 'ok') continue;
-    for (const rel of [e.outputs.breaths, e.outputs.summary]) {
+    const folder = dirname(e.outputs.breaths);
+    for (const rel of [e.outputs.breaths, e.outputs.summary, join(folder, 'trends.csv'), join(folder, 'events.csv')]) {
       const from = resolve(dir, rel);
       const to = join(out, rel);
       if (from === to) continue;
