@@ -66,6 +66,8 @@ export interface BreathRow {
   vd_enghoff_ml: number;
   vdvt_enghoff: number;
   delay_s: number;
+  /** transport delay measured on this breath's own inspiratory CO2 downstroke (NaN when none was found), s */
+  delay_measured_s: number;
   flags: string[];
 }
 
@@ -73,7 +75,7 @@ export const BREATH_COLUMNS: readonly (keyof BreathRow)[] = [
   'breath', 't_start_s', 't_exp_start_s', 't_end_s', 'status', 'rr_bpm', 'ti_s', 'te_s', 'vt_insp_ml', 'vt_exp_ml',
   'vd_aw_ml', 'vd_inflection_ml', 'v_phase2_start_ml', 'v_phase3_start_ml', 'slope2_mmhg_per_l', 'slope3_mmhg_per_l',
   'slope3_norm_per_l', 'slope3_r2', 'petco2_mmhg', 'peco2_mmhg', 'paeco2_mmhg', 'alv_co2_mmhg', 'vtco2_ml', 'veco2_ml',
-  'vico2_ml', 'fico2_mmhg', 'vd_bohr_ml', 'vdvt_bohr', 'vd_alv_ml', 'vd_enghoff_ml', 'vdvt_enghoff', 'delay_s',
+  'vico2_ml', 'fico2_mmhg', 'vd_bohr_ml', 'vdvt_bohr', 'vd_alv_ml', 'vd_enghoff_ml', 'vdvt_enghoff', 'delay_s', 'delay_measured_s',
 ] as const;
 
 /** Numeric breath columns that get a summary (median, p25, p75, n over ok breaths). */

@@ -201,6 +201,7 @@ export function createAnalyser(settings: Settings, onBreath?: (e: BreathEvent) =
       { row: d.row, geometry: d.geometry, flags: d.flags, breath_delay_s: breathDelay, delay_s: c.delay_s, median_dt_s: medianDt },
       cfg,
     );
+    d.row.delay_measured_s = breathDelay;
     d.row.flags = flags;
     d.row.status = statusOf(flags);
     rows.push(d.row);

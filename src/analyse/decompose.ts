@@ -210,6 +210,7 @@ export function decomposeBreath(s: BreathSignals, ctx: BreathContext): BreathDec
     vd_enghoff_ml: NaN,
     vdvt_enghoff: NaN,
     delay_s: ctx.delay_s,
+    delay_measured_s: NaN,
     flags,
   };
   const geometry: BreathGeometry = {

@@ -65,6 +65,17 @@ export function classifyPattern(p: ChangePattern, gas: GasComparison | null, o: 
   const okShare = p.ok_share;
   const delay = p.delay_s;
 
+  // R0 sensor: the measured CO2 delay jumped. A delay change misaligns CO2 and flow, which itself puts CO2 on the
+  // inspiratory side, so it is checked before rebreathing.
+  const delayJump = Math.abs(delay.delta) >= o.delay_min_change_s;
+  if (delayJump) {
+    return {
+      kind: 'sensor',
+      confidence: conf(beyond(delay.delta, o.delay_min_change_s)),
+      signal: 'delay_s',
+      note: `CO2 delay ${delay.before.toFixed(2)} -> ${delay.after.toFixed(2)} s`,
+    };
+  }
   // R1 rebreathing: inspired PCO2 rose
   if (fi.delta >= o.fico2_min_change_mmhg) {
     return {
@@ -74,17 +85,14 @@ export function classifyPattern(p: ChangePattern, gas: GasComparison | null, o: 
       note: `inspired PCO2 ${fi.before.toFixed(1)} -> ${fi.after.toFixed(1)} mmHg`,
     };
   }
-  // R2 sensor: usable breaths collapsed or the CO2 delay jumped
+  // R2 sensor: usable breaths collapsed
   const okFell = -okShare.delta >= o.ok_share_min_change;
-  const delayJump = Math.abs(delay.delta) >= o.delay_min_change_s;
-  if (okFell || delayJump) {
+  if (okFell) {
     return {
       kind: 'sensor',
-      confidence: conf(Math.max(okFell ? beyond(okShare.delta, o.ok_share_min_change) : 0, delayJump ? beyond(delay.delta, o.delay_min_change_s) : 0)),
-      signal: okFell ? 'ok_share' : 'delay_s',
-      note: okFell
-        ? `usable breaths ${(100 * okShare.before).toFixed(0)} % -> ${(100 * okShare.after).toFixed(0)} %`
-        : `CO2 delay ${delay.before.toFixed(2)} -> ${delay.after.toFixed(2)} s`,
+      confidence: conf(beyond(okShare.delta, o.ok_share_min_change)),
+      signal: 'ok_share',
+      note: `usable breaths ${(100 * okShare.before).toFixed(0)} % -> ${(100 * okShare.after).toFixed(0)} %`,
     };
   }
   // R3 ventilation: V'E changed and PETCO2 did not move the same way

@@ -40,7 +40,7 @@ function summariseBin(tS: number, all: BreathRow[], minOk: number): TrendRow {
     vdvt_bohr: NaN,
     slope3_mmhg_per_l: NaN,
     fico2_mmhg: median(all.map((b) => b.fico2_mmhg)),
-    delay_s: median(all.map((b) => b.delay_s)),
+    delay_s: median(all.map((b) => b.delay_measured_s)),
     ok_share: all.length > 0 ? ok.length / all.length : NaN,
     breaths: all.length,
   };

@@ -36,6 +36,7 @@ export function makeBreath(fields: Partial<BreathRow> & { t_start_s: number }): 
     vd_enghoff_ml: nan,
     vdvt_enghoff: nan,
     delay_s: nan,
+    delay_measured_s: nan,
     flags: [],
     ...fields,
   };

@@ -12,7 +12,7 @@ const opts = { bin_s: 60, min_ok_breaths: 3 };
 
 /** breath of duration d starting at t with VTe, VDaw, VTCO2, PETCO2 */
 const b = (t: number, d: number, vte: number, vtco2: number, pet: number, extra: Parameters<typeof breathRow>[0] = {}) =>
-  breathRow({ t_start_s: t, t_end_s: t + d, vt_exp_ml: vte, vd_aw_ml: 150, vtco2_ml: vtco2, petco2_mmhg: pet, fico2_mmhg: 0, delay_s: 0.1, vdvt_bohr: 0.3, slope3_mmhg_per_l: 8, ...extra });
+  breathRow({ t_start_s: t, t_end_s: t + d, vt_exp_ml: vte, vd_aw_ml: 150, vtco2_ml: vtco2, petco2_mmhg: pet, fico2_mmhg: 0, delay_s: 0.1, delay_measured_s: 0.1, vdvt_bohr: 0.3, slope3_mmhg_per_l: 8, ...extra });
 
 describe('computeTrends', () => {
   it('rates over the ok breaths own time; excluded breaths add neither CO2 nor time', () => {
