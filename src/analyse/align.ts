@@ -15,10 +15,34 @@
 
 import { detExp } from '../numeric/det-math.js';
 /** Compensated series and the time each compensated value belongs to. */
-export function deconvolveFirstOrder(t: ArrayLike<number>, y: ArrayLike<number>, tau_s: number): { t: Float64Array; x: Float64Array } {
+/** Reusable buffers for deconvolveFirstOrder (the analyser calls it once per breath). */
+export interface DeconvolveScratch {
+  x: Float64Array;
+  t: Float64Array;
+  raw: Float64Array;
+}
+
+function ensure(buf: Float64Array | undefined, n: number): Float64Array {
+  return buf && buf.length >= n ? buf : new Float64Array(Math.max(n, 2 * (buf?.length ?? 0)));
+}
+
+/** Grows the scratch buffers to at least n samples (keeps them when large enough). */
+export function scratchFor(s: DeconvolveScratch | null, n: number): DeconvolveScratch {
+  return { x: ensure(s?.x, n), t: ensure(s?.t, n), raw: ensure(s?.raw, n) };
+}
+
+/**
+ * With `scratch`, the results are views into its buffers, valid until the next call with the same scratch.
+ */
+export function deconvolveFirstOrder(
+  t: ArrayLike<number>,
+  y: ArrayLike<number>,
+  tau_s: number,
+  scratch: DeconvolveScratch | null = null,
+): { t: Float64Array; x: Float64Array } {
   const n = y.length;
-  const x = new Float64Array(n);
-  const tx = new Float64Array(n);
+  const x = scratch ? scratch.x.subarray(0, n) : new Float64Array(n);
+  const tx = scratch ? scratch.t.subarray(0, n) : new Float64Array(n);
   if (n === 0) return { t: tx, x };
   if (!(tau_s > 0)) {
     for (let i = 0; i < n; i++) {
@@ -27,7 +51,7 @@ export function deconvolveFirstOrder(t: ArrayLike<number>, y: ArrayLike<number>,
     }
     return { t: tx, x };
   }
-  const raw = new Float64Array(n);
+  const raw = scratch ? scratch.raw.subarray(0, n) : new Float64Array(n);
   raw[0] = y[0]!;
   tx[0] = t[0]!;
   let lastDt = NaN;
@@ -53,8 +77,14 @@ export function deconvolveFirstOrder(t: ArrayLike<number>, y: ArrayLike<number>,
 }
 
 /** Linear interpolation of (ts, vs) at the ascending query times q + shift; NaN outside the data. */
-export function interpolateAt(ts: ArrayLike<number>, vs: ArrayLike<number>, q: ArrayLike<number>, shift: number): Float64Array {
-  const out = new Float64Array(q.length);
+export function interpolateAt(
+  ts: ArrayLike<number>,
+  vs: ArrayLike<number>,
+  q: ArrayLike<number>,
+  shift: number,
+  into: Float64Array | null = null,
+): Float64Array {
+  const out = into ? into.subarray(0, q.length) : new Float64Array(q.length);
   const n = ts.length;
   let j = 0;
   for (let k = 0; k < q.length; k++) {

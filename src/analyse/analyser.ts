@@ -6,7 +6,7 @@
 
 import type { Settings } from '../settings.js';
 import type { BreathRow, SampleBlock } from '../types.js';
-import { deconvolveFirstOrder, interpolateAt } from './align.js';
+import { deconvolveFirstOrder, interpolateAt, scratchFor, type DeconvolveScratch } from './align.js';
 import { calibrate, type Calibration } from './calibrate.js';
 import { decomposeBreath, type BreathDecomposition, type BreathSignals } from './decompose.js';
 import { fitInspiratoryFall, lowerBound } from './fall-fit.js';
@@ -30,6 +30,7 @@ export interface AnalysisCore {
 
 export interface BreathEvent {
   decomposition: BreathDecomposition;
+  /** the breath's samples; the arrays are reused for the next breath, so copy what you keep */
   signals: BreathSignals;
 }
 
@@ -101,6 +102,9 @@ export function createAnalyser(settings: Settings, onBreath?: (e: BreathEvent) =
   let partial = 0;
   let segments = 0;
   let inSegment = false;
+  let scratch: DeconvolveScratch | null = null;
+  let fastBuf = new Float64Array(0);
+  let rawBuf = new Float64Array(0);
   let minVolumeMl = 0; // ripple floor: min_volume_fraction x running median tidal volume (updated per breath)
 
   function newSegment(): void {
@@ -166,9 +170,13 @@ export function createAnalyser(settings: Settings, onBreath?: (e: BreathEvent) =
     const t = tv.subarray(i0, i1);
     const f = bf.view().subarray(i0, i1);
     const co2 = bc.view().subarray(i0, i1);
-    const dec = deconvolveFirstOrder(t, co2, tau);
-    const fast = interpolateAt(dec.t, dec.x, t, c.delay_s);
-    const raw = interpolateAt(t, co2, t, c.delay_s);
+    // per-breath buffers are reused (the signals handed to onBreath are valid during the call only)
+    scratch = scratchFor(scratch, t.length);
+    if (fastBuf.length < t.length) fastBuf = new Float64Array(2 * t.length);
+    if (rawBuf.length < t.length) rawBuf = new Float64Array(2 * t.length);
+    const dec = deconvolveFirstOrder(t, co2, tau, scratch);
+    const fast = interpolateAt(dec.t, dec.x, t, c.delay_s, fastBuf);
+    const raw = interpolateAt(t, co2, t, c.delay_s, rawBuf);
     const fall = fitInspiratoryFall(t, co2, b.t_end_s + c.delay_s - 0.35, b.t_end_s + c.delay_s + 0.65);
     const breathDelay = fall ? fall.t0_s - b.t_end_s : NaN;
     if (fall) {
