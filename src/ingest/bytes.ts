@@ -114,7 +114,7 @@ export async function readRecordingBytes(
     const sniffed = head.slice(0, SNIFF_CHARS);
     const layout = sniffTable(sniffed, settings, minRateHz, src.name);
     cb.onLayout?.(layout, sniffed);
-    reader = createTableReader(layout, settings, src.name);
+    reader = createTableReader(layout, settings, src.name, { countBytes: false }); // report.bytes = src.size below
     const h = head;
     head = '';
     feed(h);

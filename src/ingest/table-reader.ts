@@ -37,7 +37,17 @@ export function utf8Length(s: string): number {
   return n;
 }
 
-export function createTableReader(layout: TableLayout, settings: IngestSettings, fileName: string): TableReader {
+/**
+ * @param options.countBytes count the UTF-8 bytes of the pushed text for the report (default true); the file
+ *   readers know the file size and switch it off (a regular-expression pass over every chunk).
+ */
+export function createTableReader(
+  layout: TableLayout,
+  settings: IngestSettings,
+  fileName: string,
+  options: { countBytes?: boolean } = {},
+): TableReader {
+  const countBytes = options.countBytes !== false;
   const rows = new RowAssembler(layout, settings, fileName);
   const scanner = new LineScanner(layout, rows, fileName);
   let carry = '';
@@ -53,7 +63,7 @@ export function createTableReader(layout: TableLayout, settings: IngestSettings,
         started = true;
         if (text.charCodeAt(0) === 0xfeff) text = text.slice(1);
       }
-      bytes += utf8Length(text);
+      if (countBytes) bytes += utf8Length(text);
       const s = carry.length ? carry + text : text;
       const used = scanner.scan(s, false);
       carry = used < s.length ? s.slice(used) : '';
