@@ -66,6 +66,18 @@ export interface BreathDecomposition {
   flags: string[];
 }
 
+// Working arrays reused from breath to breath (views of the first n entries; never handed out: the geometry that
+// leaves this module is freshly allocated). Saves a dozen allocations per breath on 24-hour recordings.
+const workBufs: Float64Array[] = [];
+function work(slot: number, n: number): Float64Array {
+  let b = workBufs[slot];
+  if (!b || b.length < n) {
+    b = new Float64Array(Math.max(n, 2 * (b?.length ?? 256)));
+    workBufs[slot] = b;
+  }
+  return b.subarray(0, n);
+}
+
 /** mL STPD of CO2 per (mmHg x mL) of PCO2-volume area at body temperature (primer 5.1, ideal gas). */
 export function stpdFactor(bodyTempC: number): number {
   return 273.15 / (273.15 + bodyTempC) / 760;
@@ -100,10 +112,10 @@ export function decomposeBreath(s: BreathSignals, ctx: BreathContext): BreathDec
 
   // ---- expiration: V(t), CO2 area, monotone curve
   const m = s.i_end - s.i_exp + 2;
-  const T = new Float64Array(m);
-  const F = new Float64Array(m);
-  const PF = new Float64Array(m);
-  const PS = new Float64Array(m);
+  const T = work(0, m);
+  const F = work(1, m);
+  const PF = work(2, m);
+  const PS = work(3, m);
   T[0] = s.t_exp_s;
   F[0] = s.exp_abrupt ? f[s.i_exp]! : 0;
   PF[0] = at(t, pf, s.t_exp_s);
@@ -115,9 +127,11 @@ export function decomposeBreath(s: BreathSignals, ctx: BreathContext): BreathDec
     PS[k] = ps[i]!;
   }
   T[m - 1] = s.t_end_s;
+  F[m - 1] = 0; // the expiration ends at zero flow
   PF[m - 1] = at(t, pf, s.t_end_s);
   PS[m - 1] = at(t, ps, s.t_end_s);
-  const V = new Float64Array(m);
+  const V = work(4, m);
+  V[0] = 0;
   let areaExp = 0;
   let peakFlow = 0;
   for (let k = 1; k < m; k++) {
@@ -141,7 +155,7 @@ export function decomposeBreath(s: BreathSignals, ctx: BreathContext): BreathDec
   const cv = new Float64Array(M);
   const cp = new Float64Array(M);
   const cs = new Float64Array(M);
-  const cf = new Float64Array(M);
+  const cf = work(5, M);
   for (let j = 0; j < M; j++) {
     const k = keep[j]!;
     cv[j] = V[k]!;
@@ -252,7 +266,7 @@ export function decomposeBreath(s: BreathSignals, ctx: BreathContext): BreathDec
   // flow neighbouring samples are a fraction of a mL apart and noise / dV would dominate (primer 2.1 B).
   const G = 400;
   const h = vte / G;
-  const grid = new Float64Array(G + 1);
+  const grid = work(6, G + 1);
   {
     let j = 0;
     for (let g = 0; g <= G; g++) {
@@ -263,9 +277,11 @@ export function decomposeBreath(s: BreathSignals, ctx: BreathContext): BreathDec
       grid[g] = v1 > v0 ? cp[j]! + ((Math.min(Math.max(v, v0), v1) - v0) / (v1 - v0)) * (cp[j + 1]! - cp[j]!) : cp[j]!;
     }
   }
-  const raw = new Float64Array(G + 1);
+  const raw = work(7, G + 1);
   for (let g = 2; g <= G - 2; g++) raw[g] = (grid[g + 2]! - grid[g - 2]!) / (4 * h);
-  const sm = new Float64Array(G + 1);
+  const sm = work(8, G + 1);
+  sm[2] = 0;
+  sm[G - 2] = 0;
   for (let g = 3; g <= G - 3; g++) sm[g] = 0.25 * raw[g - 1]! + 0.5 * raw[g]! + 0.25 * raw[g + 1]!;
   // anchor the search on the rise itself: first crossings of 25 % and 75 % of the preliminary phase III line by the
   // grid curve smoothed over 5 steps; the steepest point is sought within one rise width of them (robust to noise)
