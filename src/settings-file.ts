@@ -5,8 +5,8 @@
 //     "files": [ { "pattern": "**/site-b/*.csv", "ingest": { "decimal": ",", "delimiter": ";" } } ] }
 
 import { z } from 'zod';
-import { DEFAULT_ANALYSIS, DEFAULT_INGEST, SETTING_GROUPS, type Settings } from './settings.js';
-import { DEFAULT_TRENDS, trendSettingsSchema } from './trends/settings.js';
+import { SETTING_GROUPS, type Settings } from './settings.js';
+import { trendSettingsSchema } from './trends/settings.js';
 
 const num = z.number().finite();
 const pos = num.positive();
@@ -119,14 +119,3 @@ export function applySettings(
     }
   }
 }
-
-/** The full settings as a settings file (what the viewer exports and the CLI reads back). */
-export function settingsToFile(s: Settings): SettingsFile {
-  return { ingest: { ...s.ingest }, analysis: { ...s.analysis }, events: { ...s.events } };
-}
-
-export const SETTING_KEYS = {
-  ingest: Object.keys(DEFAULT_INGEST),
-  analysis: Object.keys(DEFAULT_ANALYSIS),
-  events: Object.keys(DEFAULT_TRENDS),
-};

@@ -25,7 +25,6 @@ export interface AnalysisCore {
   median_dt_s: number;
   /** per-breath delay estimates (s), for the spread */
   breath_delays_s: number[];
-  breath_taus_s: number[];
 }
 
 export interface BreathEvent {
@@ -98,7 +97,6 @@ export function createAnalyser(settings: Settings, onBreath?: (e: BreathEvent) =
   const rows: BreathRow[] = [];
   const recentVt: number[] = [];
   const breathDelays: number[] = [];
-  const breathTaus: number[] = [];
   let partial = 0;
   let segments = 0;
   let inSegment = false;
@@ -179,10 +177,7 @@ export function createAnalyser(settings: Settings, onBreath?: (e: BreathEvent) =
     const raw = interpolateAt(t, co2, t, c.delay_s, rawBuf);
     const fall = fitInspiratoryFall(t, co2, b.t_end_s + c.delay_s - 0.35, b.t_end_s + c.delay_s + 0.65);
     const breathDelay = fall ? fall.t0_s - b.t_end_s : NaN;
-    if (fall) {
-      breathDelays.push(breathDelay);
-      breathTaus.push(fall.tau_s);
-    }
+    if (fall) breathDelays.push(breathDelay);
     const signals: BreathSignals = {
       t_s: t,
       flow_lps: f,
@@ -294,7 +289,6 @@ export function createAnalyser(settings: Settings, onBreath?: (e: BreathEvent) =
         duration_s: lastT - firstT,
         median_dt_s: medianDt,
         breath_delays_s: breathDelays,
-        breath_taus_s: breathTaus,
       };
     },
   };

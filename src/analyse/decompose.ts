@@ -9,23 +9,18 @@ import type { AnalysisSettings } from '../settings.js';
 import type { BreathRow } from '../types.js';
 import { fowlerDeadSpace } from './fowler.js';
 import { fitLineOls, fitPhase3 } from './phase3-fit.js';
+import type { BreathBounds } from './segment.js';
 
-export interface BreathSignals {
+/** The breath's samples on the flow time base with its boundaries (local indices of the first sample at/after each
+ *  boundary, interpolated times, and whether a phase started with a step in flow; see segment.ts). */
+export interface BreathSignals
+  extends Pick<BreathBounds, 'i_insp' | 'i_exp' | 'i_end' | 't_insp_s' | 't_exp_s' | 't_end_s'>,
+    Partial<Pick<BreathBounds, 'insp_abrupt' | 'exp_abrupt'>> {
   t_s: ArrayLike<number>;
   flow_lps: ArrayLike<number>;
   fast_mmhg: ArrayLike<number>;
   /** the sensor's reading moved by the transport delay only (still lagged by the sensor response) */
   raw_mmhg: ArrayLike<number>;
-  /** local index of the first sample at/after each boundary */
-  i_insp: number;
-  i_exp: number;
-  i_end: number;
-  t_insp_s: number;
-  t_exp_s: number;
-  t_end_s: number;
-  /** the phase started with a step in flow (see segment.ts zeroCrossing) */
-  insp_abrupt?: boolean;
-  exp_abrupt?: boolean;
 }
 
 export interface BreathContext {

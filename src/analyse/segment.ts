@@ -131,6 +131,22 @@ export function createSegmenter(opts: SegmenterOptions): Segmenter {
   const scratch: BreathBounds[] = [];
   let tentative = false;
 
+  /** the sample after a candidate's quiet sample (b) */
+  function takeNext(c: typeof up, ti: number, fi: number, idx: number): void {
+    c.tb = ti;
+    c.fb = fi;
+    c.ib = idx;
+    c.cb = cum;
+    c.waiting = false;
+  }
+
+  /** a new last quiet sample (a); its successor is taken at the next sample */
+  function takeQuiet(c: typeof up, ti: number, fi: number): void {
+    c.ta = ti;
+    c.fa = fi;
+    c.waiting = true;
+  }
+
   function onset(c: typeof up, kind: 'insp' | 'exp'): Boundary {
     const z = phaseOnset(c.ta, c.fa, c.tb, c.fb, opts.threshold_lps * 0.3, opts.threshold_lps);
     const cAt = c.cb - (z.abrupt ? 1000 : 500) * c.fb * (c.tb - z.t);
@@ -141,30 +157,10 @@ export function createSegmenter(opts: SegmenterOptions): Segmenter {
     const thr = opts.threshold_lps;
     const eps = 0.3 * thr;
     if (prevI >= 0) cum += 500 * (fi + prevF) * (ti - prevT); // mL
-    if (up.waiting) {
-      up.tb = ti;
-      up.fb = fi;
-      up.ib = idx;
-      up.cb = cum;
-      up.waiting = false;
-    }
-    if (down.waiting) {
-      down.tb = ti;
-      down.fb = fi;
-      down.ib = idx;
-      down.cb = cum;
-      down.waiting = false;
-    }
-    if (fi < eps) {
-      up.ta = ti;
-      up.fa = fi;
-      up.waiting = true;
-    }
-    if (fi > -eps) {
-      down.ta = ti;
-      down.fa = fi;
-      down.waiting = true;
-    }
+    if (up.waiting) takeNext(up, ti, fi, idx);
+    if (down.waiting) takeNext(down, ti, fi, idx);
+    if (fi < eps) takeQuiet(up, ti, fi);
+    if (fi > -eps) takeQuiet(down, ti, fi);
     // a new phase stays tentative until it has moved min_volume; if flow swings back across zero before that, its
     // onset was a ripple (e.g. a cardiogenic dip before the real inspiration): withdraw it and wait for the next onset
     const last = bounds[bounds.length - 1];

@@ -73,7 +73,7 @@ export async function processRecording(task: RecordingTask): Promise<RecordingRe
       result.resumed = true;
     } else {
       const given = new Set(task.given);
-      const { core, report } = await analyseFile(task.path, task.settings, given);
+      const { core, report } = await analyseFile(task.path, task.settings);
       // the recording id, not the absolute path: outputs must not depend on where the folder is mounted
       report.file = task.recording;
       const o = composeOutputs(core, report, task.settings, given, new Map(), null);

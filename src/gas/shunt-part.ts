@@ -4,7 +4,7 @@ import { severinghausPo2, severinghausSaturation } from '../physiology/severingh
 import { shuntCo2Effect } from '../physiology/shunt-co2-effect.js';
 import { shuntFractionFromContents } from '../physiology/shunt-fraction-from-contents.js';
 import { shuntFractionFromSaturations } from '../physiology/shunt-fraction-from-saturations.js';
-import type { GasRow, GasSample, Pvco2Source, ShuntMethod } from './gas-types.js';
+import type { GasRow, GasSample } from './gas-types.js';
 
 /** Resolved settings the shunt part needs (defaults already applied). */
 export interface ShuntSettings {

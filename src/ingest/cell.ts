@@ -45,8 +45,3 @@ export function looksNumeric(text: string): boolean {
   if (s === '') return false;
   return NUMBER_POINT.test(s) || NUMBER_POINT.test(s.replace(',', '.'));
 }
-
-/** True for a blank or missing-value cell. */
-export function isMissingCell(text: string): boolean {
-  return MISSING.has(unquoteCell(text).toLowerCase());
-}

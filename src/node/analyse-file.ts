@@ -8,16 +8,13 @@ import type { SampleBlock } from '../types.js';
 import { readRecordingFile } from './read-recording.js';
 import type { ReadWorkerData, ReadWorkerMessage } from './read-worker.js';
 import type { Settings } from '../settings.js';
-import { breathsCsv } from '../report/breaths-csv.js';
-import type { Summary } from '../report/summary.js';
-import { summaryFor } from '../report/summary-for.js';
 import type { AnalysisCore } from '../analyse/analyser.js';
 import type { IngestReport } from '../ingest/index.js';
 
+/** The analysis of one file; the outputs (summary, trends, tables) are composed by src/report/outputs.ts. */
 export interface FileAnalysis {
   core: AnalysisCore;
   report: IngestReport;
-  summary: Summary;
 }
 
 /**
@@ -29,7 +26,6 @@ export interface FileAnalysis {
 export async function analyseFile(
   path: string,
   settings: Settings,
-  given: ReadonlySet<string>,
   parallel = false,
 ): Promise<FileAnalysis> {
   const analyser = createAnalyser(settings);
@@ -37,12 +33,8 @@ export async function analyseFile(
   const report = workerFile
     ? await readInWorker(workerFile, path, settings, (b) => analyser.push(b))
     : await readRecordingFile(path, settings.ingest, settings.analysis.min_rate_hz, (b) => analyser.push(b));
-  const core = analyser.finish();
-  const summary = summaryFor(core, report, settings, given);
-  return { core, report, summary };
+  return { core: analyser.finish(), report };
 }
-
-export { breathsCsv, summaryFor };
 
 /** The bundled reader worker next to the running bundle (dist/cli.cjs -> dist/read-worker.cjs), or null. */
 export function readWorkerFile(): string | null {

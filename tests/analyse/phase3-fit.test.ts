@@ -2,7 +2,7 @@
 // and must equal ml-regression's SimpleLinearRegression (reference implementation: mljs regression-simple-linear);
 // with a lag, a line seen through an exact first-order sensor is recovered (common practice, no source).
 import { SimpleLinearRegression } from 'ml-regression';
-import { describe, expect, it } from 'vitest';
+import { describe, it } from 'vitest';
 import { fitPhase3 } from '../../src/analyse/phase3-fit.js';
 import { expectClose } from '../helpers/expect-close.js';
 

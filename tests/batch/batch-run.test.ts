@@ -11,6 +11,7 @@ import { RECORDING_COLUMNS } from '../../src/batch/recordings-table';
 import { BATCH_EXIT_SOME_FAILED, runBatch, type BatchOptions } from '../../src/batch/run-batch';
 import { analyseFile } from '../../src/node/analyse-file';
 import { breathsCsv } from '../../src/report/breaths-csv';
+import { summaryFor } from '../../src/report/summary-for';
 import { BREATH_COLUMNS } from '../../src/types';
 import { parseCsv, read, writeRecording } from './helpers';
 
@@ -53,7 +54,8 @@ describe('batch run (serial)', () => {
     const e = m.inputs[1]!;
     const plan = settingsPlan({});
     const rs = settingsForRecording(plan, e.recording);
-    const direct = await analyseFile(join(dir, 'data/p1.csv'), rs.settings, new Set(rs.given));
+    const analysed = await analyseFile(join(dir, 'data/p1.csv'), rs.settings);
+    const direct = { ...analysed, summary: summaryFor(analysed.core, analysed.report, rs.settings, new Set(rs.given)) };
     expect(read(join(dir, 'out1'), e.outputs.breaths)).toBe(breathsCsv(direct.core.breaths));
     const summary = JSON.parse(read(join(dir, 'out1'), e.outputs.summary));
     expect(summary.metrics).toEqual(JSON.parse(JSON.stringify(direct.summary.metrics)));
