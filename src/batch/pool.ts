@@ -1,14 +1,28 @@
-// Runs recording tasks, `jobs` at a time: the main thread analyses too, beside jobs - 1 worker threads
-// (node:worker_threads), so one job needs no worker and N jobs start only N - 1 copies of the bundle.
-// Each thread takes the next task as soon as it is free; results arrive in completion order and the caller places
-// them by index, so the tables do not depend on scheduling. A worker that dies (e.g. out of memory) fails only its
-// current task and is replaced.
+// Runs recording tasks on `jobs` threads. A recording's work splits in two nearly equal halves: reading and parsing
+// the text, and analysing the samples. So threads are spent in lanes of two: an analysis thread with its own reader
+// thread (src/node/reader-thread.ts) that parses the lane's files one after another, each one while the previous
+// is analysed. Lane 0's analysis runs in the main thread; further lanes are batch workers (node:worker_threads).
+//   --jobs 1: one thread reads and analyses (no worker at all);
+//   --jobs 2: the main thread analyses, one reader thread parses;
+//   --jobs 3: that, plus a worker that reads and analyses by itself; --jobs 4: two lanes of two; and so on.
+// Pairing threads this way (instead of N threads that each read and analyse) starts fewer copies of the code, each
+// of which warms up only its half, and keeps one file per lane in memory. Each lane takes the next task as soon as
+// it can use it (one task ahead when it has a reader, so the reader never waits); results arrive in completion
+// order and the caller places them by index, so the tables do not depend on scheduling. A worker that dies (e.g.
+// out of memory) fails only the tasks it held and is replaced.
 import { existsSync } from 'node:fs';
 import { join } from 'node:path';
 import { Worker } from 'node:worker_threads';
+import { ReaderThread, readWorkerFile } from '../node/reader-thread.js';
 import { processRecording, type RecordingResult, type RecordingTask } from './process-recording.js';
 
 export const WORKER_BUNDLE = 'batch-worker.cjs';
+
+/** What a batch worker is told when it starts. */
+export interface BatchWorkerData {
+  /** the reader bundle for this lane's reader thread, or null: the worker reads its files itself */
+  readerFile: string | null;
+}
 
 /**
  * The bundled worker file next to the running bundle (dist/cli.cjs -> dist/batch-worker.cjs). The CLI ships
@@ -21,18 +35,28 @@ export function defaultWorkerFile(): string | null {
   return existsSync(f) ? f : null;
 }
 
+/** The lanes for `jobs` threads: per lane, whether it has a reader thread (lane 0 is the main thread). */
+export function planLanes(jobs: number, tasks: number, haveReader: boolean): boolean[] {
+  const lanes: boolean[] = [];
+  let left = Math.max(1, Math.floor(jobs));
+  while (left > 0 && lanes.length < tasks) {
+    const pair = haveReader && left >= 2;
+    lanes.push(pair);
+    left -= pair ? 2 : 1;
+  }
+  return lanes.length ? lanes : [false];
+}
+
 export async function runTasks(
   tasks: readonly RecordingTask[],
   jobs: number,
   onResult: (r: RecordingResult) => void,
   workerFile: string | null = defaultWorkerFile(),
+  readerFile: string | null = readWorkerFile(),
 ): Promise<void> {
-  if (jobs <= 1 || tasks.length <= 1) {
-    for (const t of tasks) onResult(await processRecording(t));
-    return;
-  }
-  if (!workerFile) throw new Error(`the worker bundle ${WORKER_BUNDLE} was not found next to the CLI; run \`npm run build\``);
-  const file = workerFile;
+  if (!tasks.length) return;
+  const lanes = planLanes(jobs, tasks.length, readerFile !== null);
+  if (lanes.length > 1 && !workerFile) throw new Error(`the worker bundle ${WORKER_BUNDLE} was not found next to the CLI; run \`npm run build\``);
   let next = 0;
   let done = 0;
   await new Promise<void>((resolve) => {
@@ -40,48 +64,61 @@ export async function runTasks(
       onResult(r);
       if (++done === tasks.length) resolve();
     };
-    const start = () => {
-      const w = new Worker(file);
-      let current: RecordingTask | null = null;
+    // the main thread's lane: with a reader, one task is read ahead while the current one is analysed
+    void (async () => {
+      const reader = lanes[0] ? new ReaderThread(readerFile!) : null;
+      const depth = reader ? 2 : 1;
+      try {
+        await Promise.all(
+          Array.from({ length: depth }, async () => {
+            while (next < tasks.length) complete(await processRecording(tasks[next++]!, reader?.usable ? reader : null));
+          }),
+        );
+      } finally {
+        if (reader) void reader.close();
+      }
+    })();
+    for (let k = 1; k < lanes.length; k++) startWorker(workerFile!, lanes[k] ? readerFile : null);
+
+    function startWorker(file: string, laneReader: string | null): void {
+      const data: BatchWorkerData = { readerFile: laneReader };
+      const w = new Worker(file, { workerData: data });
+      const depth = laneReader ? 2 : 1;
+      const held = new Map<number, RecordingTask>();
       let finished = false;
       const give = () => {
-        if (next >= tasks.length) {
+        while (held.size < depth && next < tasks.length) {
+          const t = tasks[next++]!;
+          held.set(t.index, t);
+          w.postMessage(t);
+        }
+        if (held.size === 0) {
           finished = true;
           void w.terminate();
-          return;
         }
-        current = tasks[next++]!;
-        w.postMessage(current);
       };
       w.on('message', (r: RecordingResult) => {
-        current = null;
+        held.delete(r.index);
         complete(r);
         give();
       });
       const died = (why: string) => {
         if (finished) return;
         finished = true;
-        const t = current as RecordingTask | null;
-        current = null;
-        if (t) {
+        for (const t of held.values()) {
           complete({
             index: t.index, status: 'failed', resumed: false, size: null, sha256: null,
             error: { code: 'internal', message: `${t.recording}: the worker stopped (${why}) (please report it)` },
             rows: null, breaths_found: null, breaths_ok: null, elapsed_s: 0,
           });
         }
+        held.clear();
         void w.terminate();
-        if (next < tasks.length) start();
+        if (next < tasks.length) startWorker(file, laneReader);
       };
       w.on('error', (e) => died(e.message.replace(/[\r\n]+/g, ' ')));
       w.on('exit', (code) => died(`exit code ${code}`));
       give();
-    };
-    const n = Math.min(jobs, tasks.length) - 1;
-    for (let k = 0; k < n; k++) start();
-    // the main thread's share
-    void (async () => {
-      while (next < tasks.length) complete(await processRecording(tasks[next++]!));
-    })();
+    }
   });
 }

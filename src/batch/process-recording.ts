@@ -6,6 +6,7 @@ import { join } from 'node:path';
 import { AnalysisInputError } from '../analyse/analyser.js';
 import { isInputError } from '../ingest/errors.js';
 import { analyseFile } from '../node/analyse-file.js';
+import type { ReaderThread } from '../node/reader-thread.js';
 import { writeFileAtomic } from '../node/atomic-write.js';
 import { composeOutputs, outputFile, outputNames } from '../report/outputs.js';
 import type { Settings } from '../settings.js';
@@ -58,7 +59,11 @@ function describe(e: unknown, recording: string): { code: string; message: strin
   return { code: 'internal', message: `${recording}: internal error: ${text} (please report it)` };
 }
 
-export async function processRecording(task: RecordingTask): Promise<RecordingResult> {
+/**
+ * Analyses one recording and writes its outputs. `reader`: the lane's reader thread (parsing there), or null (here).
+ * The content hash comes from the same read of the file; only --resume candidates are hashed before (to decide).
+ */
+export async function processRecording(task: RecordingTask, reader: ReaderThread | null = null): Promise<RecordingResult> {
   const t0 = performance.now();
   const breathsPath = join(task.outFolder, BREATHS_FILE);
   const summaryPath = join(task.outFolder, SUMMARY_FILE);
@@ -67,13 +72,14 @@ export async function processRecording(task: RecordingTask): Promise<RecordingRe
     rows: null, breaths_found: null, breaths_ok: null, elapsed_s: 0,
   };
   try {
-    if (existsSync(task.path)) Object.assign(result, await sha256File(task.path));
+    if (task.resumeSha256 !== null && existsSync(task.path)) Object.assign(result, await sha256File(task.path));
     if (task.resumeSha256 !== null && result.sha256 === task.resumeSha256 && existsSync(breathsPath) && existsSync(summaryPath)) {
       result.status = 'ok';
       result.resumed = true;
     } else {
       const given = new Set(task.given);
-      const { core, report } = await analyseFile(task.path, task.settings);
+      const { core, report, sha256 } = await analyseFile(task.path, task.settings, { read: reader ?? 'here', hash: result.sha256 === null });
+      if (result.sha256 === null) Object.assign(result, { sha256, size: report.bytes });
       // the recording id, not the absolute path: outputs must not depend on where the folder is mounted
       report.file = task.recording;
       const o = composeOutputs(core, report, task.settings, given, new Map(), null);
@@ -91,6 +97,14 @@ export async function processRecording(task: RecordingTask): Promise<RecordingRe
     result.error = describeError(e, task.recording, task.path);
     // never leave an earlier run's outputs looking like this input's result
     for (const name of [BREATHS_FILE, SUMMARY_FILE, 'trends.csv', 'events.csv']) rmSync(join(task.outFolder, name), { force: true });
+    // the manifest still records what the failed input was (size and content hash), when it can be read
+    if (result.sha256 === null && existsSync(task.path)) {
+      try {
+        Object.assign(result, await sha256File(task.path));
+      } catch {
+        /* unreadable: size and hash stay null */
+      }
+    }
   }
   result.elapsed_s = (performance.now() - t0) / 1000;
   return result;

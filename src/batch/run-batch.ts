@@ -32,6 +32,8 @@ export interface BatchOptions {
   progress: 'bar' | 'lines' | 'none';
   /** worker bundle (default: batch-worker.cjs next to the running bundle) */
   workerFile?: string | null;
+  /** reader-thread bundle (default: read-worker.cjs next to the running bundle; null: every thread reads its own files) */
+  readerFile?: string | null;
   /** working folder: recording ids are relative to it (default process.cwd()) */
   cwd?: string;
   /** the command line, recorded in the manifest */
@@ -126,6 +128,7 @@ export async function runBatch(o: BatchOptions): Promise<BatchOutcome> {
       }
     },
     o.workerFile,
+    o.readerFile,
   );
   progress.stop();
   writeBatchTables(outDir, entries);

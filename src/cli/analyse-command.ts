@@ -29,7 +29,7 @@ export function registerAnalyse(program: Command): void {
     const settings = rec.settings;
     const given = new Set(rec.given);
     const gas = readGasFile(opts); // read first: a bad gas file fails before the long analysis
-    const result = await analyseFile(file, settings, true);
+    const result = await analyseFile(file, settings, { read: 'thread' });
     const out = String(opts.out);
     const gasInput = gas ? { file: String(opts.gas), ...gas } : null;
     const o = composeOutputs(result.core, result.report, settings, given, new Map(), gasInput, gasOptionsFrom(opts, settings));

@@ -15,9 +15,11 @@ export { CHUNK_BYTES, firstInvalidUtf8 } from '../ingest/bytes';
 /**
  * Read a recording file. Calls `onBlock` for each block of samples (about 64k samples, internal units) as soon as
  * it is complete, and resolves to the ingest report. Rejects with an InputError for unusable input.
+ * `onChunk` sees every byte chunk of the file in order (e.g. for a content hash) when the read succeeds.
  */
 export async function readRecordingFile(
   path: string, settings: IngestSettings, min_rate_hz: number, onBlock: (b: SampleBlock) => void,
+  onChunk?: (bytes: Uint8Array) => void,
 ): Promise<IngestReport> {
   const size = await checkFile(path);
   const stream = createReadStream(path, { highWaterMark: CHUNK_BYTES });
@@ -26,7 +28,7 @@ export async function readRecordingFile(
       {
         name: path,
         size,
-        chunks: stream as AsyncIterable<Buffer>,
+        chunks: onChunk ? tapped(stream as AsyncIterable<Buffer>, onChunk) : (stream as AsyncIterable<Buffer>),
         lineAtByte: (offset) => lineAtByte(path, offset),
         notTextHint: 'Save the file as UTF-8 text (e.g. iconv -f windows-1252 -t utf-8 IN.csv > OUT.csv).',
       },
@@ -36,6 +38,13 @@ export async function readRecordingFile(
     );
   } finally {
     stream.destroy();
+  }
+}
+
+async function* tapped(chunks: AsyncIterable<Buffer>, onChunk: (bytes: Uint8Array) => void): AsyncGenerator<Buffer> {
+  for await (const c of chunks) {
+    onChunk(c);
+    yield c;
   }
 }
 

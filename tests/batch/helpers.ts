@@ -18,14 +18,16 @@ export function writeRecording(path: string, scenario = 'adult-healthy', minutes
   }
 }
 
-/** Bundles the CLI and the batch worker side by side into `dir` (as scripts/build.mjs does for dist/). */
-export async function buildBundles(dir: string): Promise<{ cli: string; worker: string }> {
+/** Bundles the CLI, the batch worker and the reader side by side into `dir` (as scripts/build.mjs does for dist/). */
+export async function buildBundles(dir: string): Promise<{ cli: string; worker: string; reader: string }> {
   const cli = join(dir, 'cli.cjs');
   const worker = join(dir, 'batch-worker.cjs');
+  const reader = join(dir, 'read-worker.cjs');
   const common = { bundle: true, platform: 'node' as const, format: 'cjs' as const, target: 'node20', logLevel: 'error' as const };
   await build({ ...common, entryPoints: ['src/cli/main.ts'], outfile: cli });
   await build({ ...common, entryPoints: ['src/batch/worker.ts'], outfile: worker });
-  return { cli, worker };
+  await build({ ...common, entryPoints: ['src/node/read-worker.ts'], outfile: reader });
+  return { cli, worker, reader };
 }
 
 export function read(dir: string, file: string): string {

@@ -1,18 +1,20 @@
 // Worker threads give the same results as the main thread; shards merged give the tables of one run; the bundled
 // CLI finds its bundled worker, exits 4 when a file failed and 2 on usage errors with one line.
 import { spawnSync } from 'node:child_process';
-import { mkdirSync, mkdtempSync, readdirSync, rmSync, writeFileSync } from 'node:fs';
+import { createHash } from 'node:crypto';
+import { mkdirSync, mkdtempSync, readdirSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { settingsPlan } from '../../src/batch/file-settings';
 import { withoutTiming, type Manifest } from '../../src/batch/manifest';
 import { mergeShards, MergeError } from '../../src/batch/merge';
+import { planLanes } from '../../src/batch/pool';
 import { runBatch, type BatchOptions } from '../../src/batch/run-batch';
 import { buildBundles, read, writeRecording } from './helpers';
 
 let dir = '';
-let bundles: { cli: string; worker: string };
+let bundles: { cli: string; worker: string; reader: string };
 const run = (over: Partial<BatchOptions>) =>
   runBatch({ inputs: ['data'], outDir: 'out', plan: settingsPlan({}), jobs: 1, resume: false, shard: null, progress: 'none', cwd: dir, ...over });
 const tables = (out: string) => ({ breaths: read(join(dir, out), 'breaths.csv'), recordings: read(join(dir, out), 'recordings.csv') });
@@ -36,14 +38,42 @@ beforeAll(async () => {
 afterAll(() => rmSync(dir, { recursive: true, force: true }));
 
 describe('parallel == serial', () => {
-  it('--jobs 3 on worker threads writes byte-identical tables and per-recording files', async () => {
-    const serial = await run({ outDir: 'serial' });
-    const parallel = await run({ outDir: 'parallel', jobs: 3, workerFile: bundles.worker });
+  // --jobs 2: main thread + reader thread; 3: that + a worker reading its own files; 4: two lanes with readers;
+  // without a reader bundle: three workers that each read their own files
+  it.each([
+    [2, true],
+    [3, true],
+    [4, true],
+    [3, false],
+  ])('--jobs %i (reader bundle: %s) writes byte-identical tables, per-recording files and manifest entries', async (jobs, withReader) => {
+    const serial = await run({ outDir: 'serial', readerFile: null });
+    const out = `parallel-${jobs}-${withReader}`;
+    const parallel = await run({ outDir: out, jobs, workerFile: bundles.worker, readerFile: withReader ? bundles.reader : null });
     expect(serial.manifest.counts).toEqual({ ok: 5, failed: 1, pending: 0, resumed: 0 });
-    expect(tables('parallel')).toEqual(tables('serial'));
-    expect(perRecording('parallel')).toEqual(perRecording('serial'));
+    expect(tables(out)).toEqual(tables('serial'));
+    expect(perRecording(out)).toEqual(perRecording('serial'));
     expect(stable(parallel.manifest)).toEqual(stable(serial.manifest));
     expect(parallel.exitCode).toBe(4);
+  });
+  it('hashes each file from its one read: the manifest hash is the SHA-256 of the file', async () => {
+    const r = await run({ outDir: 'hashes', jobs: 2, workerFile: bundles.worker, readerFile: bundles.reader });
+    for (const e of r.manifest.inputs) {
+      const bytes = readFileSync(join(dir, e.recording));
+      expect(e.sha256).toBe(createHash('sha256').update(bytes).digest('hex'));
+      expect(e.size).toBe(bytes.length);
+    }
+  });
+});
+
+describe('lanes', () => {
+  it('spend the threads in pairs (analysis + reader) while there are two left, and never more lanes than tasks', () => {
+    expect(planLanes(1, 10, true)).toEqual([false]);
+    expect(planLanes(2, 10, true)).toEqual([true]);
+    expect(planLanes(3, 10, true)).toEqual([true, false]);
+    expect(planLanes(4, 10, true)).toEqual([true, true]);
+    expect(planLanes(4, 10, false)).toEqual([false, false, false, false]);
+    expect(planLanes(8, 2, true)).toEqual([true, true]);
+    expect(planLanes(0, 5, true)).toEqual([false]);
   });
 });
 
@@ -51,7 +81,7 @@ describe('a worker that dies', () => {
   it('fails only the task it held, is replaced, and the batch completes', async () => {
     const crash = join(dir, 'crash-worker.cjs');
     writeFileSync(crash, "require('node:worker_threads').parentPort.on('message', () => { throw new Error('boom'); });\n");
-    const r = await run({ outDir: 'crash', jobs: 2, workerFile: crash });
+    const r = await run({ outDir: 'crash', jobs: 2, workerFile: crash, readerFile: null });
     const byStatus = r.manifest.inputs.map((e) => e.status);
     expect(byStatus).not.toContain('pending');
     const died = r.manifest.inputs.filter((e) => e.error?.code === 'internal');
