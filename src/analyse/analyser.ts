@@ -12,7 +12,7 @@ import { decomposeBreath, type BreathDecomposition, type BreathSignals } from '.
 import { fitInspiratoryFall, lowerBound } from './fall-fit.js';
 import { checkBreath, markOutliers, statusOf } from './quality.js';
 import { createSegmenter, type BreathBounds, type Segmenter } from './segment.js';
-import { median } from './stats.js';
+import { countFinite, median, medianPositiveStep } from './stats.js';
 
 export interface AnalysisCore {
   breaths: BreathRow[];
@@ -75,109 +75,134 @@ export class AnalysisInputError extends Error {
  * viewers; the analyser itself keeps only the breath rows.
  */
 export function createAnalyser(settings: Settings, onBreath?: (e: BreathEvent) => void): Analyser {
-  const cfg = settings.analysis;
+  return new StreamAnalyser(settings, onBreath ?? null);
+}
+
+// A class rather than closures: a batch makes one analyser per recording, and methods on one prototype keep their
+// optimised code across recordings (closures made per recording were re-optimised for each file).
+class StreamAnalyser implements Analyser {
+  private readonly cfg: Settings['analysis'];
   // calibration window
-  const calT = new Growable();
-  const calF = new Growable();
-  const calC = new Growable();
-  let cal: Calibration | null = null;
-  let totalSamples = 0;
-  let firstT = NaN;
-  let lastT = NaN;
-  let medianDt = NaN;
+  private readonly calT = new Growable();
+  private readonly calF = new Growable();
+  private readonly calC = new Growable();
+  private cal: Calibration | null = null;
+  private totalSamples = 0;
+  private firstT = NaN;
+  private lastT = NaN;
+  private medianDt = NaN;
 
   // streaming state
-  const bt = new Growable();
-  const bf = new Growable();
-  const bc = new Growable();
-  let base = 0; // absolute index of bt[0]
-  let absNext = 0; // next absolute index
-  let segmenter: Segmenter | null = null;
-  const pending: BreathBounds[] = [];
-  const rows: BreathRow[] = [];
-  const recentVt: number[] = [];
-  const breathDelays: number[] = [];
-  let partial = 0;
-  let segments = 0;
-  let inSegment = false;
-  let scratch: DeconvolveScratch | null = null;
-  let fastBuf = new Float64Array(0);
-  let rawBuf = new Float64Array(0);
-  let minVolumeMl = 0; // ripple floor: min_volume_fraction x running median tidal volume (updated per breath)
+  private readonly bt = new Growable();
+  private readonly bf = new Growable();
+  private readonly bc = new Growable();
+  /** absolute index of bt[0] */
+  private base = 0;
+  /** next absolute index */
+  private absNext = 0;
+  private segmenter: Segmenter | null = null;
+  private readonly pending: BreathBounds[] = [];
+  private readonly rows: BreathRow[] = [];
+  private readonly recentVt: number[] = [];
+  private readonly breathDelays: number[] = [];
+  private partial = 0;
+  private segments = 0;
+  private inSegment = false;
+  private scratch: DeconvolveScratch | null = null;
+  private fastBuf = new Float64Array(0);
+  private rawBuf = new Float64Array(0);
+  /** ripple floor: min_volume_fraction x running median tidal volume (updated per breath) */
+  private minVolumeMl = 0;
 
-  function newSegment(): void {
-    segments++;
-    inSegment = true;
-    bt.length = bf.length = bc.length = 0;
-    base = absNext;
-    pending.length = 0;
-    const c = cal!;
-    segmenter = createSegmenter({
-      threshold_lps: cfg.flow_threshold_fraction * c.peak_flow_lps,
-      min_phase_s: cfg.min_phase_s,
-      min_volume_ml: () => minVolumeMl,
+  constructor(
+    private readonly settings: Settings,
+    private readonly onBreath: ((e: BreathEvent) => void) | null,
+  ) {
+    this.cfg = settings.analysis;
+  }
+
+  private setMinVolume(ml: number): void {
+    this.minVolumeMl = ml;
+    this.segmenter?.setMinVolume(ml);
+  }
+
+  private newSegment(): void {
+    this.segments++;
+    this.inSegment = true;
+    this.bt.length = this.bf.length = this.bc.length = 0;
+    this.base = this.absNext;
+    this.pending.length = 0;
+    const c = this.cal!;
+    this.segmenter = createSegmenter({
+      threshold_lps: this.cfg.flow_threshold_fraction * c.peak_flow_lps,
+      min_phase_s: this.cfg.min_phase_s,
+      min_volume_ml: this.minVolumeMl,
     });
   }
 
-  function endSegment(): void {
-    if (!inSegment) return;
-    flushPending(true);
-    if (segmenter!.pendingStart()) partial++;
-    partial += pending.length;
-    pending.length = 0;
-    inSegment = false;
+  private endSegment(): void {
+    if (!this.inSegment) return;
+    this.flushPending(true);
+    if (this.segmenter!.pendingStart()) this.partial++;
+    this.partial += this.pending.length;
+    this.pending.length = 0;
+    this.inSegment = false;
   }
 
-  function needUntil(b: BreathBounds): number {
-    const c = cal!;
+  private needUntil(b: BreathBounds): number {
+    const c = this.cal!;
     return b.t_end_s + c.delay_s + 0.7 + 5 * (c.response_ms / 1000);
   }
 
-  function flushPending(force: boolean): void {
+  private flushPending(force: boolean): void {
+    const bt = this.bt;
+    const pending = this.pending;
     const lastTime = bt.length ? bt.data[bt.length - 1]! : -Infinity;
-    while (pending.length && (force || lastTime >= needUntil(pending[0]!))) {
+    while (pending.length && (force || lastTime >= this.needUntil(pending[0]!))) {
       const b = pending.shift()!;
-      if (lastTime < b.t_end_s + cal!.delay_s + 0.05) {
-        partial++;
+      if (lastTime < b.t_end_s + this.cal!.delay_s + 0.05) {
+        this.partial++;
         continue;
       }
-      analyseBreath(b);
+      this.analyseBreath(b);
     }
     // drop samples no longer needed
     const keepFrom = Math.min(
       pending.length ? pending[0]!.i_insp : Infinity,
-      segmenter ? segmenter.oldestNeeded() : Infinity,
-      absNext,
+      this.segmenter ? this.segmenter.oldestNeeded() : Infinity,
+      this.absNext,
     );
-    const drop = Math.max(0, keepFrom - 4 - base);
+    const drop = Math.max(0, keepFrom - 4 - this.base);
     if (drop > 50_000 || (drop > 0 && drop > bt.length / 2)) {
       bt.dropFront(drop);
-      bf.dropFront(drop);
-      bc.dropFront(drop);
-      base += drop;
+      this.bf.dropFront(drop);
+      this.bc.dropFront(drop);
+      this.base += drop;
     }
   }
 
-  function analyseBreath(b: BreathBounds): void {
-    const c = cal!;
+  private analyseBreath(b: BreathBounds): void {
+    const c = this.cal!;
+    const cfg = this.cfg;
+    const base = this.base;
     const tau = c.response_ms / 1000;
     const i0 = Math.max(0, b.i_insp - base - 3);
-    const tNeed = needUntil(b);
-    const tv = bt.view();
-    const i1 = Math.min(bt.length, lowerBound(tv, tNeed) + 2);
+    const tNeed = this.needUntil(b);
+    const tv = this.bt.view();
+    const i1 = Math.min(this.bt.length, lowerBound(tv, tNeed) + 2);
     const t = tv.subarray(i0, i1);
-    const f = bf.view().subarray(i0, i1);
-    const co2 = bc.view().subarray(i0, i1);
+    const f = this.bf.view().subarray(i0, i1);
+    const co2 = this.bc.view().subarray(i0, i1);
     // per-breath buffers are reused (the signals handed to onBreath are valid during the call only)
-    scratch = scratchFor(scratch, t.length);
-    if (fastBuf.length < t.length) fastBuf = new Float64Array(2 * t.length);
-    if (rawBuf.length < t.length) rawBuf = new Float64Array(2 * t.length);
+    const scratch = (this.scratch = scratchFor(this.scratch, t.length));
+    if (this.fastBuf.length < t.length) this.fastBuf = new Float64Array(2 * t.length);
+    if (this.rawBuf.length < t.length) this.rawBuf = new Float64Array(2 * t.length);
     const dec = deconvolveFirstOrder(t, co2, tau, scratch);
-    const fast = interpolateAt(dec.t, dec.x, t, c.delay_s, fastBuf);
-    const raw = interpolateAt(t, co2, t, c.delay_s, rawBuf);
+    const fast = interpolateAt(dec.t, dec.x, t, c.delay_s, this.fastBuf);
+    const raw = interpolateAt(t, co2, t, c.delay_s, this.rawBuf);
     const fall = fitInspiratoryFall(t, co2, b.t_end_s + c.delay_s - 0.35, b.t_end_s + c.delay_s + 0.65);
     const breathDelay = fall ? fall.t0_s - b.t_end_s : NaN;
-    if (fall) breathDelays.push(breathDelay);
+    if (fall) this.breathDelays.push(breathDelay);
     const signals: BreathSignals = {
       t_s: t,
       flow_lps: f,
@@ -192,6 +217,7 @@ export function createAnalyser(settings: Settings, onBreath?: (e: BreathEvent) =
       insp_abrupt: b.insp_abrupt,
       exp_abrupt: b.exp_abrupt,
     };
+    const rows = this.rows;
     const d = decomposeBreath(signals, { breath: rows.length + 1, delay_s: c.delay_s, tau_s: tau, settings: cfg });
     // NaN in the aligned CO2 inside the breath means the CO2 channel was missing there
     for (let i = signals.i_insp; i < signals.i_end; i++) {
@@ -201,7 +227,7 @@ export function createAnalyser(settings: Settings, onBreath?: (e: BreathEvent) =
       }
     }
     const flags = checkBreath(
-      { row: d.row, geometry: d.geometry, flags: d.flags, breath_delay_s: breathDelay, delay_s: c.delay_s, median_dt_s: medianDt },
+      { row: d.row, geometry: d.geometry, flags: d.flags, breath_delay_s: breathDelay, delay_s: c.delay_s, median_dt_s: this.medianDt },
       cfg,
     );
     d.row.delay_measured_s = breathDelay;
@@ -209,87 +235,98 @@ export function createAnalyser(settings: Settings, onBreath?: (e: BreathEvent) =
     d.row.status = statusOf(flags);
     rows.push(d.row);
     if (d.row.vt_exp_ml > 0) {
+      const recentVt = this.recentVt;
       recentVt.push(d.row.vt_exp_ml);
       if (recentVt.length > 15) recentVt.shift();
-      if (recentVt.length >= 5) minVolumeMl = cfg.min_volume_fraction * median(recentVt);
+      if (recentVt.length >= 5) this.setMinVolume(cfg.min_volume_fraction * median(recentVt));
     }
-    onBreath?.({ decomposition: d, signals });
+    this.onBreath?.({ decomposition: d, signals });
   }
 
-  function feed(t: number, fFile: number, co2: number): void {
-    const c = cal!;
+  private feed(t: number, fFile: number, co2: number): void {
+    const c = this.cal!;
     const f = c.sign * (fFile - c.offset_lps);
     if (!(f === f) || !(co2 === co2)) {
-      endSegment();
-      absNext++;
+      this.endSegment();
+      this.absNext++;
       return;
     }
-    if (!inSegment) newSegment();
-    bt.push(t);
-    bf.push(f);
-    bc.push(co2);
-    const idx = absNext++;
-    const done = segmenter!.pushOne(t, f, idx);
+    if (!this.inSegment) this.newSegment();
+    this.bt.push(t);
+    this.bf.push(f);
+    this.bc.push(co2);
+    const idx = this.absNext++;
+    const done = this.segmenter!.pushOne(t, f, idx);
+    const pending = this.pending;
     for (let k = 0; k < done.length; k++) pending.push(done[k]!);
-    if (pending.length && t >= needUntil(pending[0]!)) flushPending(false);
+    if (pending.length && t >= this.needUntil(pending[0]!)) this.flushPending(false);
   }
 
-  function startStreaming(): void {
-    const t = calT.view();
-    const f = calF.view();
-    const co2 = calC.view();
-    const finite: number[] = [];
-    for (let i = 1; i < t.length && finite.length < 20_000; i++) {
-      const d = t[i]! - t[i - 1]!;
-      if (d > 0) finite.push(d);
+  // Hot loops live in small methods of their own (feedRange, collect) and helpers (medianPositiveStep,
+  // countFinite): V8 then optimises each loop once for all recordings, instead of compiling the once-per-recording
+  // callers mid-loop (on-stack replacement) and throwing that code away at their next, not yet seen, statement.
+  private startStreaming(): void {
+    const t = this.calT.view();
+    const f = this.calF.view();
+    const co2 = this.calC.view();
+    this.medianDt = medianPositiveStep(t, 20_000);
+    if (countFinite(co2) < 10) throw new AnalysisInputError('no_co2', 'the CO2 channel has no readable values in the first part of the recording');
+    const cal = (this.cal = calibrate(t, f, co2, this.settings));
+    this.setMinVolume(Number.isFinite(cal.typical_vt_ml) ? this.cfg.min_volume_fraction * cal.typical_vt_ml : 0);
+    this.feedRange(t, f, co2, 0, t.length);
+    this.calT.length = this.calF.length = this.calC.length = 0;
+  }
+
+  private feedRange(ts: ArrayLike<number>, fs: ArrayLike<number>, cs: ArrayLike<number>, from: number, to: number): void {
+    for (let i = from; i < to; i++) this.feed(ts[i]!, fs[i]!, cs[i]!);
+  }
+
+  /** Adds samples to the calibration window until it spans calibration_s; returns the index after the last taken. */
+  private collect(ts: ArrayLike<number>, fs: ArrayLike<number>, cs: ArrayLike<number>, from: number, to: number): number {
+    const span = this.cfg.calibration_s;
+    for (let i = from; i < to; i++) {
+      this.calT.push(ts[i]!);
+      this.calF.push(fs[i]!);
+      this.calC.push(cs[i]!);
+      if (ts[i]! - this.calT.data[0]! >= span) return i + 1;
     }
-    medianDt = median(finite);
-    let co2Seen = 0;
-    for (let i = 0; i < co2.length; i++) if (co2[i]! === co2[i]!) co2Seen++;
-    if (co2Seen < 10) throw new AnalysisInputError('no_co2', 'the CO2 channel has no readable values in the first part of the recording');
-    cal = calibrate(t, f, co2, settings);
-    minVolumeMl = Number.isFinite(cal.typical_vt_ml) ? cfg.min_volume_fraction * cal.typical_vt_ml : 0;
-    for (let i = 0; i < t.length; i++) feed(t[i]!, f[i]!, co2[i]!);
-    calT.length = calF.length = calC.length = 0;
+    return to;
   }
 
-  return {
-    push(block) {
-      const n = block.n;
-      totalSamples += n;
-      if (n > 0) {
-        if (!(firstT === firstT)) firstT = block.t_s[0]!;
-        lastT = block.t_s[n - 1]!;
-      }
-      for (let i = 0; i < n; i++) {
-        if (cal) {
-          feed(block.t_s[i]!, block.flow_lps[i]!, block.co2_mmhg[i]!);
-          continue;
-        }
-        calT.push(block.t_s[i]!);
-        calF.push(block.flow_lps[i]!);
-        calC.push(block.co2_mmhg[i]!);
-        if (block.t_s[i]! - calT.data[0]! >= cfg.calibration_s) startStreaming();
-      }
-    },
-    finish() {
-      if (!cal) {
-        if (calT.length < 10) throw new AnalysisInputError('too_short', 'the recording has too few samples to analyse');
-        startStreaming();
-      }
-      endSegment();
-      markOutliers(rows, cfg);
-      for (const r of rows) r.status = statusOf(r.flags);
-      return {
-        breaths: rows,
-        calibration: cal!,
-        partial_breaths: partial,
-        segments,
-        samples: totalSamples,
-        duration_s: lastT - firstT,
-        median_dt_s: medianDt,
-        breath_delays_s: breathDelays,
-      };
-    },
-  };
+  push(block: SampleBlock): void {
+    const n = block.n;
+    this.totalSamples += n;
+    if (n > 0) {
+      if (!(this.firstT === this.firstT)) this.firstT = block.t_s[0]!;
+      this.lastT = block.t_s[n - 1]!;
+    }
+    let i = 0;
+    if (!this.cal) {
+      i = this.collect(block.t_s, block.flow_lps, block.co2_mmhg, 0, n);
+      const full = this.calT.length > 0 && block.t_s[i - 1]! - this.calT.data[0]! >= this.cfg.calibration_s;
+      if (full) this.startStreaming();
+    }
+    if (this.cal) this.feedRange(block.t_s, block.flow_lps, block.co2_mmhg, i, n);
+  }
+
+  finish(): AnalysisCore {
+    if (!this.cal) {
+      if (this.calT.length < 10) throw new AnalysisInputError('too_short', 'the recording has too few samples to analyse');
+      this.startStreaming();
+    }
+    this.endSegment();
+    const rows = this.rows;
+    markOutliers(rows, this.cfg);
+    for (const r of rows) r.status = statusOf(r.flags);
+    return {
+      breaths: rows,
+      calibration: this.cal!,
+      partial_breaths: this.partial,
+      segments: this.segments,
+      samples: this.totalSamples,
+      duration_s: this.lastT - this.firstT,
+      median_dt_s: this.medianDt,
+      breath_delays_s: this.breathDelays,
+    };
+  }
 }

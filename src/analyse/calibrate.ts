@@ -231,7 +231,7 @@ export function breathBounds(t: ArrayLike<number>, flow: ArrayLike<number>, thr:
       seg = null;
       continue;
     }
-    seg ??= createSegmenter({ threshold_lps: thr, min_phase_s: minPhaseS, min_volume_ml: () => minVolumeMl });
+    seg ??= createSegmenter({ threshold_lps: thr, min_phase_s: minPhaseS, min_volume_ml: minVolumeMl });
     for (const b of seg.pushOne(t[i]!, f, i)) out.push(b);
   }
   return out;

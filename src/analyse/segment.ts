@@ -50,7 +50,8 @@ interface Boundary {
 export interface SegmenterOptions {
   threshold_lps: number;
   min_phase_s: number;
-  min_volume_ml: () => number;
+  /** minimum volume of a phase, mL (ripple floor); the analyser updates it with setMinVolume as breaths arrive */
+  min_volume_ml: number;
 }
 
 export interface Segmenter {
@@ -62,26 +63,63 @@ export interface Segmenter {
   oldestNeeded(): number;
   /** start time of the breath in progress (NaN if none) — for reporting a breath cut by a gap */
   pendingStart(): { t_s: number; i: number } | null;
+  /** new ripple floor, mL */
+  setMinVolume(ml: number): void;
 }
 
-export function createSegmenter(opts: SegmenterOptions): Segmenter {
-  const bounds: Boundary[] = [];
-  let phase: 'none' | 'insp' | 'exp' = 'none';
-  let prevT = NaN;
-  let prevF = NaN;
-  let prevI = -1;
-  let cum = 0; // cumulative expired volume, mL
-  // most recent zero crossings in each direction (to positive = towards expiration)
-  // candidate onsets: last quiet sample (a) and the sample after it (b), for each direction
-  const up = { ta: NaN, fa: 0, tb: NaN, fb: 0, ib: -1, cb: 0, waiting: false };
-  const down = { ta: NaN, fa: 0, tb: NaN, fb: 0, ib: -1, cb: 0, waiting: false };
+/** Candidate onset in one direction: last quiet sample (a) and the sample after it (b). */
+interface Candidate {
+  ta: number;
+  fa: number;
+  tb: number;
+  fb: number;
+  ib: number;
+  cb: number;
+  waiting: boolean;
+}
 
-  function addBoundary(b: Boundary, out: BreathBounds[]): void {
+const newCandidate = (): Candidate => ({ ta: NaN, fa: 0, tb: NaN, fb: 0, ib: -1, cb: 0, waiting: false });
+
+export function createSegmenter(opts: SegmenterOptions): Segmenter {
+  return new StreamSegmenter(opts);
+}
+
+// A class rather than closures: every recording makes a new segmenter, and methods on one prototype keep the
+// optimised code of the per-sample step across recordings (closures made per recording were re-optimised each time).
+class StreamSegmenter implements Segmenter {
+  private readonly bounds: Boundary[] = [];
+  private phase: 'none' | 'insp' | 'exp' = 'none';
+  private prevT = NaN;
+  private prevF = NaN;
+  private prevI = -1;
+  /** cumulative expired volume, mL */
+  private cum = 0;
+  /** candidate onsets towards expiration (up) and inspiration (down) */
+  private readonly up: Candidate = newCandidate();
+  private readonly down: Candidate = newCandidate();
+  private readonly scratch: BreathBounds[] = [];
+  private tentative = false;
+  private readonly thr: number;
+  private readonly minPhaseS: number;
+  private minVolumeMl: number;
+
+  constructor(opts: SegmenterOptions) {
+    this.thr = opts.threshold_lps;
+    this.minPhaseS = opts.min_phase_s;
+    this.minVolumeMl = opts.min_volume_ml;
+  }
+
+  setMinVolume(ml: number): void {
+    this.minVolumeMl = ml;
+  }
+
+  private addBoundary(b: Boundary, out: BreathBounds[]): void {
+    const bounds = this.bounds;
     const last = bounds[bounds.length - 1];
     if (last) {
       const dur = b.t - last.t;
       const vol = Math.abs(b.c - last.c);
-      const tooSmall = dur < opts.min_phase_s || vol < opts.min_volume_ml();
+      const tooSmall = dur < this.minPhaseS || vol < this.minVolumeMl;
       if (tooSmall && bounds.length >= 2) {
         // ripple: drop the short phase and keep the one before it going
         bounds.pop();
@@ -93,10 +131,11 @@ export function createSegmenter(opts: SegmenterOptions): Segmenter {
       }
     }
     bounds.push(b);
-    emit(out);
+    this.emit(out);
   }
 
-  function emit(out: BreathBounds[]): void {
+  private emit(out: BreathBounds[]): void {
+    const bounds = this.bounds;
     // need insp, exp, insp, exp with the last two accepted (the final 'exp' proves the preceding inspiration was real)
     while (bounds.length >= 4) {
       let k = 0;
@@ -128,86 +167,87 @@ export function createSegmenter(opts: SegmenterOptions): Segmenter {
     }
   }
 
-  const scratch: BreathBounds[] = [];
-  let tentative = false;
-
   /** the sample after a candidate's quiet sample (b) */
-  function takeNext(c: typeof up, ti: number, fi: number, idx: number): void {
+  private takeNext(c: Candidate, ti: number, fi: number, idx: number): void {
     c.tb = ti;
     c.fb = fi;
     c.ib = idx;
-    c.cb = cum;
+    c.cb = this.cum;
     c.waiting = false;
   }
 
   /** a new last quiet sample (a); its successor is taken at the next sample */
-  function takeQuiet(c: typeof up, ti: number, fi: number): void {
+  private takeQuiet(c: Candidate, ti: number, fi: number): void {
     c.ta = ti;
     c.fa = fi;
     c.waiting = true;
   }
 
-  function onset(c: typeof up, kind: 'insp' | 'exp'): Boundary {
-    const z = phaseOnset(c.ta, c.fa, c.tb, c.fb, opts.threshold_lps * 0.3, opts.threshold_lps);
+  private onset(c: Candidate, kind: 'insp' | 'exp'): Boundary {
+    const z = phaseOnset(c.ta, c.fa, c.tb, c.fb, this.thr * 0.3, this.thr);
     const cAt = c.cb - (z.abrupt ? 1000 : 500) * c.fb * (c.tb - z.t);
     return { kind, i: c.ib, t: z.t, c: cAt, abrupt: z.abrupt };
   }
 
-  function step(ti: number, fi: number, idx: number, out: BreathBounds[]): void {
-    const thr = opts.threshold_lps;
+  private step(ti: number, fi: number, idx: number, out: BreathBounds[]): void {
+    const thr = this.thr;
     const eps = 0.3 * thr;
-    if (prevI >= 0) cum += 500 * (fi + prevF) * (ti - prevT); // mL
-    if (up.waiting) takeNext(up, ti, fi, idx);
-    if (down.waiting) takeNext(down, ti, fi, idx);
-    if (fi < eps) takeQuiet(up, ti, fi);
-    if (fi > -eps) takeQuiet(down, ti, fi);
+    const up = this.up;
+    const down = this.down;
+    const bounds = this.bounds;
+    if (this.prevI >= 0) this.cum += 500 * (fi + this.prevF) * (ti - this.prevT); // mL
+    if (up.waiting) this.takeNext(up, ti, fi, idx);
+    if (down.waiting) this.takeNext(down, ti, fi, idx);
+    if (fi < eps) this.takeQuiet(up, ti, fi);
+    if (fi > -eps) this.takeQuiet(down, ti, fi);
     // a new phase stays tentative until it has moved min_volume; if flow swings back across zero before that, its
     // onset was a ripple (e.g. a cardiogenic dip before the real inspiration): withdraw it and wait for the next onset
     const last = bounds[bounds.length - 1];
-    if (tentative && last) {
-      const vol = Math.abs(cum - last.c);
-      if (vol >= opts.min_volume_ml()) tentative = false;
+    if (this.tentative && last) {
+      const vol = Math.abs(this.cum - last.c);
+      if (vol >= this.minVolumeMl) this.tentative = false;
       else if ((last.kind === 'insp' && fi > eps) || (last.kind === 'exp' && fi < -eps)) {
         bounds.pop();
-        tentative = false;
-        phase = last.kind === 'insp' ? 'exp' : 'insp';
-        if (!bounds.length) phase = 'none';
+        this.tentative = false;
+        this.phase = last.kind === 'insp' ? 'exp' : 'insp';
+        if (!bounds.length) this.phase = 'none';
       }
     }
-    if (fi > thr && phase !== 'exp' && up.ib >= 0 && !up.waiting) {
-      phase = 'exp';
-      addBoundary(onset(up, 'exp'), out);
-      tentative = true;
-      if (bounds.length && bounds[bounds.length - 1]!.kind === 'insp') phase = 'insp';
-    } else if (fi < -thr && phase !== 'insp' && down.ib >= 0 && !down.waiting) {
-      phase = 'insp';
-      addBoundary(onset(down, 'insp'), out);
-      tentative = true;
-      if (bounds.length && bounds[bounds.length - 1]!.kind === 'exp') phase = 'exp';
+    if (fi > thr && this.phase !== 'exp' && up.ib >= 0 && !up.waiting) {
+      this.phase = 'exp';
+      this.addBoundary(this.onset(up, 'exp'), out);
+      this.tentative = true;
+      if (bounds.length && bounds[bounds.length - 1]!.kind === 'insp') this.phase = 'insp';
+    } else if (fi < -thr && this.phase !== 'insp' && down.ib >= 0 && !down.waiting) {
+      this.phase = 'insp';
+      this.addBoundary(this.onset(down, 'insp'), out);
+      this.tentative = true;
+      if (bounds.length && bounds[bounds.length - 1]!.kind === 'exp') this.phase = 'exp';
     }
-    prevT = ti;
-    prevF = fi;
-    prevI = idx;
+    this.prevT = ti;
+    this.prevF = fi;
+    this.prevI = idx;
   }
 
-  return {
-    push(t, flow, start, n) {
-      const out: BreathBounds[] = [];
-      for (let k = 0; k < n; k++) step(t[k]!, flow[k]!, start + k, out);
-      return out;
-    },
-    pushOne(ti, fi, idx) {
-      step(ti, fi, idx, scratch);
-      if (scratch.length === 0) return scratch;
-      const out = scratch.splice(0, scratch.length);
-      return out;
-    },
-    oldestNeeded() {
-      return bounds.length ? bounds[0]!.i : prevI;
-    },
-    pendingStart() {
-      const first = bounds.find((b) => b.kind === 'insp');
-      return first ? { t_s: first.t, i: first.i } : null;
-    },
-  };
+  push(t: ArrayLike<number>, flow: ArrayLike<number>, start: number, n: number): BreathBounds[] {
+    const out: BreathBounds[] = [];
+    for (let k = 0; k < n; k++) this.step(t[k]!, flow[k]!, start + k, out);
+    return out;
+  }
+
+  pushOne(ti: number, fi: number, idx: number): BreathBounds[] {
+    const scratch = this.scratch;
+    this.step(ti, fi, idx, scratch);
+    if (scratch.length === 0) return scratch;
+    return scratch.splice(0, scratch.length);
+  }
+
+  oldestNeeded(): number {
+    return this.bounds.length ? this.bounds[0]!.i : this.prevI;
+  }
+
+  pendingStart(): { t_s: number; i: number } | null {
+    const first = this.bounds.find((b) => b.kind === 'insp');
+    return first ? { t_s: first.t, i: first.i } : null;
+  }
 }

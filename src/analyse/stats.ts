@@ -1,15 +1,75 @@
 // Small robust statistics used throughout the analysis. NaN values are skipped (d3 convention).
 
-/** Quantile by linear interpolation between order statistics (R type 7, numpy's default). NaN when empty. */
+const NEG_ZERO = -1 * 0;
+
+/** working copy for quantile (grown as needed, reused: the analysis takes ~10^5 quantiles per day of recording) */
+let work = new Float64Array(64);
+
+/**
+ * Quantile by linear interpolation between order statistics (R type 7, numpy's default). NaN when empty.
+ * The two order statistics are found by selection (Hoare 1961, "Algorithm 65: FIND") on a copy, O(n) instead of a
+ * full sort; the result is the same number a sort gives, sign of zero included (tests/analyse/stats.test.ts).
+ */
 export function quantile(values: ArrayLike<number>, q: number): number {
-  // typed-array sort is numeric and much faster than Array#sort with a comparator (calibration sorts ~10^4 values)
-  const finite = new Float64Array(values.length);
+  // Straight-line on purpose: every statement runs on every call. V8 compiles code that has not run yet into a
+  // bail-out, and such bail-outs in an already optimised function repeat on every call (seen here: hundreds per
+  // recording when small and large inputs took different branches).
+  if (work.length < values.length) work = new Float64Array(Math.max(values.length, 2 * work.length));
+  const a = work;
   let n = 0;
   for (let i = 0; i < values.length; i++) {
     const v = values[i]!;
-    if (Number.isFinite(v)) finite[n++] = v;
+    if (Number.isFinite(v)) a[n++] = v;
   }
-  return quantileSorted(finite.subarray(0, n).sort(), q);
+  if (n === 0) return NaN;
+  const h = (n - 1) * q;
+  const lo = Math.floor(h);
+  const hi = Math.min(n - 1, lo + 1);
+  select(a, n, lo);
+  let x = a[lo]!;
+  // after selection everything right of lo is >= a[lo]: the next order statistic is their minimum
+  let y = Infinity;
+  for (let i = lo + 1; i < n; i++) if (a[i]! < y) y = a[i]!;
+  if (hi === lo) y = x;
+  // a sort puts -0 before +0; comparisons do not see the difference, so settle the sign of a zero by counting
+  let below = 0;
+  for (let i = 0; i < n; i++) if (a[i]! < 0 || (a[i]! === 0 && 1 / a[i]! < 0)) below++;
+  const xNeg = lo < below;
+  const yNeg = hi < below;
+  if (x === 0) x = xNeg ? NEG_ZERO : 0;
+  if (y === 0) y = yNeg ? NEG_ZERO : 0;
+  return x + (h - lo) * (y - x);
+}
+
+/** Rearranges a[0..n) so that a[k] is the k-th smallest, nothing smaller right of it and nothing larger left of it. */
+function select(a: Float64Array, n: number, k: number): void {
+  let left = 0;
+  let right = n - 1;
+  while (right > left) {
+    const mid = (left + right) >> 1;
+    // median of three as the pivot
+    let p = a[mid]!;
+    const l = a[left]!;
+    const r = a[right]!;
+    if (l > p !== l > r) p = l;
+    else if (r > p !== r > l) p = r;
+    let i = left;
+    let j = right;
+    while (i <= j) {
+      while (a[i]! < p) i++;
+      while (a[j]! > p) j--;
+      if (i <= j) {
+        const t = a[i]!;
+        a[i] = a[j]!;
+        a[j] = t;
+        i++;
+        j--;
+      }
+    }
+    if (k <= j) right = j;
+    else if (k >= i) left = i;
+    else return;
+  }
 }
 
 export function quantileSorted(sorted: ArrayLike<number>, q: number): number {
@@ -67,4 +127,22 @@ export function fitLine(x: ArrayLike<number>, y: ArrayLike<number>): LineFit {
   const intercept = my - slope * mx;
   const sse = Math.max(0, syy - slope * sxy);
   return { intercept, slope, r2: syy > 0 ? 1 - sse / syy : 1, rms: Math.sqrt(sse / n), n };
+}
+
+/** Median of the positive steps t[i] - t[i-1], from the start, over at most `max` steps (NaN when none). */
+export function medianPositiveStep(t: ArrayLike<number>, max: number): number {
+  const d = new Float64Array(Math.min(max, Math.max(0, t.length - 1)));
+  let n = 0;
+  for (let i = 1; i < t.length && n < max; i++) {
+    const x = t[i]! - t[i - 1]!;
+    if (x > 0) d[n++] = x;
+  }
+  return quantile(d.subarray(0, n), 0.5);
+}
+
+/** Number of values that are not NaN. */
+export function countFinite(x: ArrayLike<number>): number {
+  let n = 0;
+  for (let i = 0; i < x.length; i++) if (x[i]! === x[i]!) n++;
+  return n;
 }
