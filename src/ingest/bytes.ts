@@ -69,6 +69,62 @@ export function firstInvalidUtf8(buf: Uint8Array): number {
   return 0;
 }
 
+/**
+ * Streaming UTF-8 check with the rules of the WHATWG decoder (the one TextDecoder uses: shortest forms only, no
+ * surrogates, nothing above U+10FFFF, each error found at the same byte), so a chunk is refused here exactly when a
+ * fatal TextDecoder would throw on it. Lets the readers hand valid UTF-8 bytes to the line scanner without decoding
+ * them into text. `isAscii` (optional, e.g. node:buffer's) answers the common all-ASCII chunk at once.
+ */
+export class Utf8Stream {
+  /** continuation bytes still expected, and the allowed range of the next one */
+  private need = 0;
+  private lower = 0x80;
+  private upper = 0xbf;
+
+  constructor(private readonly isAscii: ((b: Uint8Array) => boolean) | null = null) {}
+
+  /** -1 when `b` makes the text invalid; else the index where an unfinished last character starts (b.length if none). */
+  check(b: Uint8Array): number {
+    if (this.need === 0 && this.isAscii && this.isAscii(b)) return b.length;
+    const n = b.length;
+    let need = this.need;
+    let lower = this.lower;
+    let upper = this.upper;
+    let start = need > 0 ? -1 : n; // start of the character in progress (-1: it began in an earlier chunk)
+    for (let i = 0; i < n; i++) {
+      const c = b[i]!;
+      if (need === 0) {
+        if (c < 0x80) continue;
+        start = i;
+        if (c >= 0xc2 && c <= 0xdf) need = 1;
+        else if (c >= 0xe0 && c <= 0xef) {
+          need = 2;
+          if (c === 0xe0) lower = 0xa0;
+          else if (c === 0xed) upper = 0x9f;
+        } else if (c >= 0xf0 && c <= 0xf4) {
+          need = 3;
+          if (c === 0xf0) lower = 0x90;
+          else if (c === 0xf4) upper = 0x8f;
+        } else return -1;
+        continue;
+      }
+      if (c < lower || c > upper) return -1;
+      lower = 0x80;
+      upper = 0xbf;
+      need--;
+    }
+    this.need = need;
+    this.lower = lower;
+    this.upper = upper;
+    return need > 0 ? Math.max(0, start) : n;
+  }
+
+  /** True when the bytes so far end inside a character. */
+  get unfinished(): boolean {
+    return this.need > 0;
+  }
+}
+
 /** Bytes per chunk of both file readers (the damage note names it: "after the first 1 MiB"). */
 export const CHUNK_BYTES = 1 << 20;
 
@@ -82,6 +138,10 @@ export interface ByteSource {
   lineAtByte(offset: number): Promise<number>;
   /** what to tell the user when the head is not text */
   notTextHint: string;
+  /** fast all-ASCII test of a chunk (node:buffer isAscii), optional */
+  isAscii?: (b: Uint8Array) => boolean;
+  /** decode UTF-8 into text too, as UTF-16 is (the reference for the byte path in tests) */
+  decodeAll?: boolean;
 }
 
 export interface ByteReadCallbacks {
@@ -96,6 +156,8 @@ export interface ByteReadCallbacks {
  * viewer). Bytes that are not text inside the head refuse the file; later ones are damage: they are replaced
  * (U+FFFD), the lines they hit are skipped, and a note says where they start. Memory: one chunk, the carried partial
  * line and the current block.
+ * UTF-8 files go to the scanner as bytes (checked by Utf8Stream, never decoded as a whole); UTF-16 files, and a
+ * UTF-8 file from its first damaged chunk on, go as decoded text. Either way the scanner sees the same characters.
  */
 export async function readRecordingBytes(
   src: ByteSource, settings: IngestSettings, minRateHz: number, cb: ByteReadCallbacks,
@@ -107,17 +169,24 @@ export async function readRecordingBytes(
   let offset = 0;
   let replaced = 0;
   let firstReplacedByte = -1;
+  // byte mode: valid UTF-8 so far; `pending` = the start of a character that continues in the next chunk
+  let utf8: Utf8Stream | null = null;
+  let pending: Uint8Array | null = null;
+  const headBytes: Uint8Array[] = [];
   const feed = (text: string) => {
     for (const b of reader!.push(text)) cb.onBlock(b);
+  };
+  const feedBytes = (bytes: Uint8Array) => {
+    for (const b of reader!.pushBytes(bytes)) cb.onBlock(b);
   };
   const start = () => {
     const sniffed = head.slice(0, SNIFF_CHARS);
     const layout = sniffTable(sniffed, settings, minRateHz, src.name);
     cb.onLayout?.(layout, sniffed);
     reader = createTableReader(layout, settings, src.name, { countBytes: false }); // report.bytes = src.size below
-    const h = head;
+    if (utf8) for (const b of headBytes.splice(0)) feedBytes(b);
+    else feed(head);
     head = '';
-    feed(h);
   };
   const decode = async (buf: Uint8Array | null): Promise<string> => {
     const d = decoder!;
@@ -132,26 +201,77 @@ export async function readRecordingBytes(
       return buf ? decoder.decode(buf, { stream: true }) : '';
     }
   };
+  /** the complete characters of `buf` as bytes (with the carried start of a character), or null when `buf` is not valid */
+  const completeBytes = (buf: Uint8Array): Uint8Array | null => {
+    const cut = utf8!.check(buf);
+    if (cut < 0) return null;
+    let out = buf.subarray(0, cut);
+    if (pending) {
+      const joined = new Uint8Array(pending.length + out.length);
+      joined.set(pending);
+      joined.set(out, pending.length);
+      out = joined;
+    }
+    pending = cut < buf.length ? buf.slice(cut) : null;
+    return out;
+  };
   for await (const buf of src.chunks) {
     if (decoder === null) {
       const d = openDecoder(buf, src.name);
       decoder = d.decoder;
       encodingNote = d.note;
+      if (d.decoder.encoding === 'utf-8' && !src.decodeAll) utf8 = new Utf8Stream(src.isAscii ?? null);
     }
-    const text = await decode(buf);
-    if (firstReplacedByte >= 0) replaced += countReplacements(text);
-    offset += buf.length;
     if (reader === null) {
+      // the head: decoded for the sniffer (a fatal decoder refuses text that is not UTF-8/UTF-16 here)
+      const text = await decode(buf);
+      if (utf8) {
+        const bytes = completeBytes(buf);
+        if (bytes) headBytes.push(bytes);
+        else {
+          // cannot happen (the decoder accepted these bytes); stay on the text path if it does
+          utf8 = null;
+          pending = null;
+          headBytes.length = 0;
+        }
+      }
       head += text;
       if (head.length >= SNIFF_CHARS) start();
-    } else feed(text);
+    } else if (utf8) {
+      const bytes = completeBytes(buf);
+      if (bytes) feedBytes(bytes);
+      else {
+        // damage: from here on as decoded text with replacements, as a fatal decoder's failure is handled above
+        // (the unfinished character carried from the previous chunk is dropped, as that decoder drops it)
+        utf8 = null;
+        pending = null;
+        firstReplacedByte = offset + firstInvalidUtf8(buf);
+        decoder = new TextDecoder('utf-8', { fatal: false, ignoreBOM: true });
+        const text = decoder.decode(buf, { stream: true });
+        replaced += countReplacements(text);
+        feed(text);
+      }
+    } else {
+      const text = await decode(buf);
+      if (firstReplacedByte >= 0) replaced += countReplacements(text);
+      feed(text);
+    }
+    offset += buf.length;
     cb.onProgress?.(Math.min(src.size, offset));
   }
-  const tail = decoder ? await decode(null) : '';
   if (reader === null) {
-    head += tail;
+    head += decoder ? await decode(null) : '';
     start();
-  } else if (tail) feed(tail);
+  } else if (utf8) {
+    // a character cut by the end of the file is not text: the text path notes it the same way
+    if (utf8.unfinished) {
+      firstReplacedByte = Math.max(0, src.size - 1);
+      decoder = new TextDecoder('utf-8', { fatal: false, ignoreBOM: true });
+    }
+  } else {
+    const tail = decoder ? await decode(null) : '';
+    if (tail) feed(tail);
+  }
   for (const b of reader!.end()) cb.onBlock(b);
   const report = reader!.report();
   report.bytes = src.size;

@@ -1,5 +1,7 @@
-// The fast path: a hand-written scanner over string chunks (charCodeAt), reading only the time, flow and CO2
-// fields of each data line and handing the values to the RowAssembler.
+// The fast path: a hand-written scanner over the file's UTF-8 bytes, reading only the time, flow and CO2 fields of
+// each data line and handing the values to the RowAssembler. It reads bytes, not decoded text: delimiters, line ends,
+// digits, signs and decimal marks are ASCII, and in UTF-8 no byte of a multi-byte character is ASCII, so fields split
+// exactly where they split in the text; cells that need more than the fast path are decoded and read as text.
 //
 // Plain decimals (optional sign, at most 15 digits, the file's decimal mark, no exponent) are converted as
 // integer mantissa / 10^k. Both operands are exact doubles (mantissa < 2^53, 10^k for k <= 22), so the one
@@ -34,7 +36,6 @@ export class LineScanner {
   private readonly eol: number;
   private readonly ws2: number;
   private readonly ws3: number;
-  private readonly eolChar: string;
   private readonly dataStart: number;
   private readonly fieldCount: number;
   private readonly headerTrailingEmpty: boolean;
@@ -60,7 +61,6 @@ export class LineScanner {
     this.delim = layout.delimiter.charCodeAt(0);
     this.decimal = layout.decimal;
     this.dec = layout.decimal.charCodeAt(0);
-    this.eolChar = layout.line_end;
     this.eol = layout.line_end.charCodeAt(0);
     this.ws2 = this.eol === 10 ? 13 : 10;
     this.ws3 = this.delim === 9 ? 32 : 9;
@@ -72,16 +72,16 @@ export class LineScanner {
   }
 
   /**
-   * Read the complete lines of `s`. Returns the index of the first character not consumed (the start of an
-   * incomplete last line, to be carried over), or s.length. With `final`, the end of `s` ends the last line.
+   * Read the complete lines of the UTF-8 bytes `s`. Returns the index of the first byte not consumed (the start of
+   * an incomplete last line, to be carried over), or s.length. With `final`, the end of `s` ends the last line.
    */
-  scan(s: string, final: boolean): number {
+  scan(s: Uint8Array, final: boolean): number {
     const len = s.length;
     const eol = this.eol;
     let pos = 0;
     while (pos < len) {
       if (this.lineIndex < this.dataStart) {
-        const e = s.indexOf(this.eolChar, pos);
+        const e = s.indexOf(eol, pos);
         if (e < 0) {
           if (!final) return pos;
           this.lineIndex++;
@@ -93,8 +93,8 @@ export class LineScanner {
       }
       // blank line?
       let j = pos;
-      let c = s.charCodeAt(j);
-      while (c === 32 || c === this.ws2 || c === this.ws3) c = s.charCodeAt(++j);
+      let c = s[j]!;
+      while (c === 32 || c === this.ws2 || c === this.ws3) c = s[++j]!;
       if (c === eol || j >= len) {
         if (j >= len && !final) return pos;
         this.rows.blank();
@@ -102,8 +102,8 @@ export class LineScanner {
         pos = Math.min(j + 1, len);
         continue;
       }
-      if (c === 35 || (c === 47 && s.charCodeAt(j + 1) === 47)) {
-        const e = s.indexOf(this.eolChar, j);
+      if (c === 35 || (c === 47 && s[j + 1] === 47)) {
+        const e = s.indexOf(eol, j);
         if (e < 0 && !final) return pos;
         this.rows.skip(this.lineIndex + 1, 'comment_line');
         this.lineIndex++;
@@ -125,7 +125,7 @@ export class LineScanner {
   }
 
   /** Parse one data line starting at `start`; returns the index after its terminator, or -1 if incomplete. */
-  private line(s: string, start: number, len: number, final: boolean): number {
+  private line(s: Uint8Array, start: number, len: number, final: boolean): number {
     const delim = this.delim;
     const eol = this.eol;
     const dec = this.dec;
@@ -146,30 +146,34 @@ export class LineScanner {
       lastFieldStart = i;
       const role = field < nRoles ? roleOf[field]! : ROLE_NONE;
       if (role === ROLE_NONE) {
-        c = s.charCodeAt(i);
+        c = s[i]!;
         while (c !== delim && c !== eol && i < len) {
           if (c === 34) return this.slowLine(s, start, len, final);
-          c = s.charCodeAt(++i);
+          c = s[++i]!;
         }
       } else {
         let j = i;
-        c = s.charCodeAt(j);
-        while (c === 32 || c === ws2 || c === ws3) c = s.charCodeAt(++j);
+        c = s[j]!;
+        while (c === 32 || c === ws2 || c === ws3) c = s[++j]!;
         let v = NaN;
         let done = false;
         if (role === ROLE_CLOCK) {
-          const e = scanClock(s, j, this.clockKind!, this.parts, delim);
+          // clock stamps are read by the text scanner, on this cell's text
+          let ce = j;
+          while (ce < len && s[ce] !== delim && s[ce] !== eol) ce++;
+          const cell = cellText(s, j, ce);
+          const e = scanClock(cell, 0, this.clockKind!, this.parts, delim);
           if (e >= 0) {
-            let q = e;
-            c = s.charCodeAt(q);
-            while (c === 32 || c === ws2 || c === ws3) c = s.charCodeAt(++q);
+            let q = j + utf8Bytes(cell, e);
+            c = s[q]!;
+            while (c === 32 || c === ws2 || c === ws3) c = s[++q]!;
             if (c === delim || c === eol || q >= len) {
               v = this.clock!.fromParts(this.parts.day, this.parts.sec);
               i = q;
               done = true;
             }
           }
-          if (!done) c = s.charCodeAt(j);
+          if (!done) c = s[j]!;
         }
         if (!done) {
           let neg = false;
@@ -177,10 +181,10 @@ export class LineScanner {
           if (c === 45) {
             neg = true;
             signed = true;
-            c = s.charCodeAt(++j);
+            c = s[++j]!;
           } else if (c === 43) {
             signed = true;
-            c = s.charCodeAt(++j);
+            c = s[++j]!;
           }
           let m = 0;
           let nd = 0;
@@ -189,19 +193,19 @@ export class LineScanner {
           while (c >= 48 && c <= 57) {
             m = m * 10 + (c - 48);
             nd++;
-            c = s.charCodeAt(++j);
+            c = s[++j]!;
           }
           if (c === dec) {
             dot = true;
-            c = s.charCodeAt(++j);
+            c = s[++j]!;
             while (c >= 48 && c <= 57) {
               m = m * 10 + (c - 48);
               nd++;
               k++;
-              c = s.charCodeAt(++j);
+              c = s[++j]!;
             }
           }
-          while (c === 32 || c === ws2 || c === ws3) c = s.charCodeAt(++j);
+          while (c === 32 || c === ws2 || c === ws3) c = s[++j]!;
           const atEnd = c === delim || c === eol || j >= len;
           if (atEnd && nd > 0 && nd <= 15 && role !== ROLE_CLOCK) {
             v = k === 0 ? m : m / POW10[k]!;
@@ -213,13 +217,13 @@ export class LineScanner {
           } else {
             // careful path for this cell
             let e = i;
-            c = s.charCodeAt(e);
+            c = s[e]!;
             while (c !== delim && c !== eol && e < len) {
               if (c === 34) return this.slowLine(s, start, len, final);
-              c = s.charCodeAt(++e);
+              c = s[++e]!;
             }
             if (e >= len && !final) return -1;
-            v = this.cell(s.substring(i, e), role, field);
+            v = this.cell(cellText(s, i, e), role, field);
             i = e;
           }
         }
@@ -262,12 +266,12 @@ export class LineScanner {
     return BAD;
   }
 
-  private finishLine(fields: number, unterminated: boolean, s: string, lastFieldStart: number, end: number): void {
+  private finishLine(fields: number, unterminated: boolean, s: Uint8Array, lastFieldStart: number, end: number): void {
     const line = this.lineIndex + 1;
     const rows = this.rows;
     if (fields !== this.fieldCount) {
       let lastEmpty = false;
-      if (fields === this.fieldCount + 1) lastEmpty = s.substring(lastFieldStart, end).trim() === '';
+      if (fields === this.fieldCount + 1) lastEmpty = cellText(s, lastFieldStart, end).trim() === '';
       if (!acceptsFieldCount(fields, this.fieldCount, lastEmpty, this.headerTrailingEmpty)) {
         rows.skip(line, unterminated ? 'truncated_line' : 'field_count');
         return;
@@ -286,14 +290,14 @@ export class LineScanner {
   }
 
   /** A line with quotes: split it with the quote-aware splitter, then read the cells carefully. */
-  private slowLine(s: string, start: number, len: number, final: boolean): number {
-    let e = s.indexOf(this.eolChar, start);
+  private slowLine(s: Uint8Array, start: number, len: number, final: boolean): number {
+    let e = s.indexOf(this.eol, start);
     if (e < 0) {
       if (!final) return -1;
       e = len;
     }
     const unterminated = e >= len;
-    const fields = splitFields(s.substring(start, e), this.delimiter);
+    const fields = splitFields(cellText(s, start, e), this.delimiter);
     const line = this.lineIndex + 1;
     if (fields === null) {
       this.rows.skip(line, unterminated ? 'truncated_line' : 'field_count');
@@ -328,4 +332,36 @@ export class LineScanner {
     }
     return unterminated ? len : e + 1;
   }
+}
+
+const utf8 = new TextDecoder('utf-8', { ignoreBOM: true });
+
+/** The text of bytes [from, to): ASCII directly, anything else through the UTF-8 decoder (same text as decoding the file). */
+export function cellText(s: Uint8Array, from: number, to: number): string {
+  let ascii = true;
+  for (let i = from; i < to; i++) {
+    if (s[i]! >= 0x80) {
+      ascii = false;
+      break;
+    }
+  }
+  if (!ascii || to - from > 64) return utf8.decode(s.subarray(from, to));
+  let t = '';
+  for (let i = from; i < to; i++) t += String.fromCharCode(s[i]!);
+  return t;
+}
+
+/** UTF-8 byte length of the first `n` characters of `t`. */
+function utf8Bytes(t: string, n: number): number {
+  let b = 0;
+  for (let i = 0; i < n; i++) {
+    const c = t.charCodeAt(i);
+    if (c < 0x80) b += 1;
+    else if (c < 0x800) b += 2;
+    else if (c >= 0xd800 && c < 0xdc00) {
+      b += 4;
+      i++;
+    } else b += 3;
+  }
+  return b;
 }

@@ -1,6 +1,6 @@
-// createTableReader: streams a text table through the fast line scanner into SampleBlocks.
-// Text may arrive in chunks split anywhere (mid-line, mid-number, between CR and LF); an incomplete last line
-// is carried over to the next chunk. Binary content is refused by the sniffer (NUL in the first 64 kB); later, a NUL
+// createTableReader: streams a text table (as text, or as the file's UTF-8 bytes) through the fast line scanner
+// into SampleBlocks. Input may arrive in chunks split anywhere (mid-line, mid-number, between CR and LF, inside a
+// character); an incomplete last line is carried over to the next chunk. Binary content is refused by the sniffer (NUL in the first 64 kB); later, a NUL
 // or other stray character is ordinary damage: the line holding it is skipped and counted. Memory does not grow with the input: only the carried line and the
 // current block (about 64k samples) are kept.
 import type { IngestSettings } from '../settings';
@@ -14,6 +14,11 @@ import { MAX_LINE_CHARS } from './sniff-structure';
 export interface TableReader {
   /** Feed the next piece of text (from the very start of the file, preamble and header included). */
   push(text: string): SampleBlock[];
+  /**
+   * Feed the next piece of the file as UTF-8 bytes (valid UTF-8 as a whole; a chunk may end inside a character).
+   * A byte-order mark at the very start is skipped. Either push or pushBytes, not both, for one reader.
+   */
+  pushBytes(bytes: Uint8Array): SampleBlock[];
   /** End of input: reads a last line without terminator, runs the final checks, returns the last blocks. */
   end(): SampleBlock[];
   /** The account so far (complete after end()). */
@@ -50,31 +55,51 @@ export function createTableReader(
   const countBytes = options.countBytes !== false;
   const rows = new RowAssembler(layout, settings, fileName);
   const scanner = new LineScanner(layout, rows, fileName);
-  let carry = '';
+  const encoder = new TextEncoder();
+  let carry: Uint8Array = new Uint8Array(0);
   let started = false;
   let ended = false;
   let bytes = 0;
 
+  const scanBytes = (chunk: Uint8Array): SampleBlock[] => {
+    if (ended) throw new Error('TableReader.push after end');
+    if (chunk.length === 0) return [];
+    if (!started) {
+      started = true;
+      if (chunk[0] === 0xef && chunk[1] === 0xbb && chunk[2] === 0xbf) chunk = chunk.subarray(3);
+    }
+    let s = chunk;
+    if (carry.length) {
+      s = new Uint8Array(carry.length + chunk.length);
+      s.set(carry);
+      s.set(chunk, carry.length);
+    }
+    const used = scanner.scan(s, false);
+    // copy the carried partial line: the caller may reuse the chunk's memory
+    carry = used < s.length ? s.slice(used) : new Uint8Array(0);
+    if (carry.length > MAX_LINE_CHARS) throw scanner.tooLong();
+    return rows.take();
+  };
+
   return {
     push(text: string): SampleBlock[] {
-      if (ended) throw new Error('TableReader.push after end');
-      if (text.length === 0) return [];
-      if (!started) {
+      if (text.length === 0) return scanBytes(new Uint8Array(0));
+      if (!started && text.charCodeAt(0) === 0xfeff) {
         started = true;
-        if (text.charCodeAt(0) === 0xfeff) text = text.slice(1);
+        text = text.slice(1);
       }
       if (countBytes) bytes += utf8Length(text);
-      const s = carry.length ? carry + text : text;
-      const used = scanner.scan(s, false);
-      carry = used < s.length ? s.slice(used) : '';
-      if (carry.length > MAX_LINE_CHARS) throw scanner.tooLong();
-      return rows.take();
+      return scanBytes(encoder.encode(text));
+    },
+    pushBytes(chunk: Uint8Array): SampleBlock[] {
+      if (countBytes) bytes += chunk.length;
+      return scanBytes(chunk);
     },
     end(): SampleBlock[] {
       if (ended) return [];
       ended = true;
       if (carry.length) scanner.scan(carry, true);
-      carry = '';
+      carry = new Uint8Array(0);
       return rows.finish();
     },
     report(): IngestReport {

@@ -2,6 +2,7 @@
 // Memory stays flat: 1 MiB byte chunks, the carried partial line and the current block of samples.
 // Checks here: the file exists, is a file and is not empty; the text checks (encoding, binary content, damage) are
 // the shared byte reader's (src/ingest/bytes.ts), the same as the viewer's.
+import { isAscii } from 'node:buffer';
 import { createReadStream } from 'node:fs';
 import { stat } from 'node:fs/promises';
 import { CHUNK_BYTES, readRecordingBytes } from '../ingest/bytes';
@@ -30,6 +31,7 @@ export async function readRecordingFile(
         size,
         chunks: onChunk ? tapped(stream as AsyncIterable<Buffer>, onChunk) : (stream as AsyncIterable<Buffer>),
         lineAtByte: (offset) => lineAtByte(path, offset),
+        isAscii,
         notTextHint: 'Save the file as UTF-8 text (e.g. iconv -f windows-1252 -t utf-8 IN.csv > OUT.csv).',
       },
       settings,

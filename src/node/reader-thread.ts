@@ -20,6 +20,42 @@ export function readWorkerFile(): string | null {
   return existsSync(f) ? f : null;
 }
 
+/** A reader worker already started, with its shared in-flight counter. */
+export interface StartedReader {
+  worker: Worker;
+  inFlight: SharedArrayBuffer;
+}
+
+/** Starts the reader worker (it loads its bundle in parallel with whatever this thread does next). */
+export function startReaderWorker(workerFile: string): StartedReader {
+  const inFlight = new SharedArrayBuffer(4);
+  const data: ReadWorkerData = { inFlight };
+  // the reader holds one chunk and one block at a time: a small heap keeps the process under the memory target
+  const worker = new Worker(workerFile, { workerData: data, resourceLimits: { maxYoungGenerationSizeMb: 8, maxOldGenerationSizeMb: 96 } });
+  return { worker, inFlight };
+}
+
+let early: StartedReader | null = null;
+
+/**
+ * Starts a reader worker before the rest of the CLI has loaded (src/cli/prestart.ts, for `analyse`), so that
+ * the two bundles load at the same time; the worker does not keep the process alive until it is used.
+ */
+export function prestartReader(): void {
+  const file = readWorkerFile();
+  if (!file || early) return;
+  early = startReaderWorker(file);
+  early.worker.unref();
+}
+
+/** The prestarted reader, if any (once). */
+export function takePrestartedReader(): StartedReader | null {
+  const r = early;
+  early = null;
+  if (r) r.worker.ref();
+  return r;
+}
+
 export interface ReadResult {
   report: IngestReport;
   /** SHA-256 of the file's bytes when asked for (hash: true), else null */
@@ -40,12 +76,10 @@ export class ReaderThread {
   private broken: Error | null = null;
   private closing = false;
 
-  constructor(workerFile: string) {
-    const inFlight = new SharedArrayBuffer(4);
+  constructor(from: string | StartedReader) {
+    const { worker, inFlight } = typeof from === 'string' ? startReaderWorker(from) : from;
     this.counter = new Int32Array(inFlight);
-    const data: ReadWorkerData = { inFlight };
-    // the reader holds one chunk and one block at a time: a small heap keeps the process under the memory target
-    this.worker = new Worker(workerFile, { workerData: data, resourceLimits: { maxYoungGenerationSizeMb: 8, maxOldGenerationSizeMb: 96 } });
+    this.worker = worker;
     this.worker.on('message', (m: ReadWorkerMessage) => this.receive(m));
     this.worker.on('error', (e) => this.fail(e));
     this.worker.on('exit', (code) => this.fail(new Error(`the reader thread stopped (exit ${code})`)));
