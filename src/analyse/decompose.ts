@@ -78,6 +78,47 @@ export function stpdFactor(bodyTempC: number): number {
   return 273.15 / (273.15 + bodyTempC) / 760;
 }
 
+/**
+ * One breath's row. A class, so that every row has one fixed hidden class with all fields present from the start
+ * (fields filled in later never change the object's shape; the per-breath code then stays optimised).
+ */
+class BreathRowRecord implements BreathRow {
+  breath = 0;
+  t_start_s = NaN;
+  t_exp_start_s = NaN;
+  t_end_s = NaN;
+  status = 'ok';
+  rr_bpm = NaN;
+  ti_s = NaN;
+  te_s = NaN;
+  vt_insp_ml = NaN;
+  vt_exp_ml = NaN;
+  vd_aw_ml = NaN;
+  vd_inflection_ml = NaN;
+  v_phase2_start_ml = NaN;
+  v_phase3_start_ml = NaN;
+  slope2_mmhg_per_l = NaN;
+  slope3_mmhg_per_l = NaN;
+  slope3_norm_per_l = NaN;
+  slope3_r2 = NaN;
+  petco2_mmhg = NaN;
+  peco2_mmhg = NaN;
+  paeco2_mmhg = NaN;
+  alv_co2_mmhg = NaN;
+  vtco2_ml = NaN;
+  veco2_ml = NaN;
+  vico2_ml = NaN;
+  fico2_mmhg = NaN;
+  vd_bohr_ml = NaN;
+  vdvt_bohr = NaN;
+  vd_alv_ml = NaN;
+  vd_enghoff_ml = NaN;
+  vdvt_enghoff = NaN;
+  delay_s = NaN;
+  delay_measured_s = NaN;
+  flags: string[] = [];
+}
+
 export function decomposeBreath(s: BreathSignals, ctx: BreathContext): BreathDecomposition {
   const cfg = ctx.settings;
   const flags: string[] = [];
@@ -186,42 +227,24 @@ export function decomposeBreath(s: BreathSignals, ctx: BreathContext): BreathDec
     }
   }
 
-  const row: BreathRow = {
-    breath: ctx.breath,
-    t_start_s: s.t_insp_s,
-    t_exp_start_s: s.t_exp_s,
-    t_end_s: s.t_end_s,
-    status: 'ok',
-    rr_bpm: 60 / (s.t_end_s - s.t_insp_s),
-    ti_s: s.t_exp_s - s.t_insp_s,
-    te_s: s.t_end_s - s.t_exp_s,
-    vt_insp_ml: vti,
-    vt_exp_ml: vte,
-    vd_aw_ml: NaN,
-    vd_inflection_ml: NaN,
-    v_phase2_start_ml: NaN,
-    v_phase3_start_ml: NaN,
-    slope2_mmhg_per_l: NaN,
-    slope3_mmhg_per_l: NaN,
-    slope3_norm_per_l: NaN,
-    slope3_r2: NaN,
-    petco2_mmhg: NaN,
-    peco2_mmhg: peco2,
-    paeco2_mmhg: NaN,
-    alv_co2_mmhg: NaN,
-    vtco2_ml: veco2 - vico2,
-    veco2_ml: veco2,
-    vico2_ml: vico2,
-    fico2_mmhg: fico2,
-    vd_bohr_ml: NaN,
-    vdvt_bohr: NaN,
-    vd_alv_ml: NaN,
-    vd_enghoff_ml: NaN,
-    vdvt_enghoff: NaN,
-    delay_s: ctx.delay_s,
-    delay_measured_s: NaN,
-    flags,
-  };
+  const row = new BreathRowRecord();
+  row.breath = ctx.breath;
+  row.t_start_s = s.t_insp_s;
+  row.t_exp_start_s = s.t_exp_s;
+  row.t_end_s = s.t_end_s;
+  row.rr_bpm = 60 / (s.t_end_s - s.t_insp_s);
+  row.ti_s = s.t_exp_s - s.t_insp_s;
+  row.te_s = s.t_end_s - s.t_exp_s;
+  row.vt_insp_ml = vti;
+  row.vt_exp_ml = vte;
+  row.peco2_mmhg = peco2;
+  row.vtco2_ml = veco2 - vico2;
+  row.veco2_ml = veco2;
+  row.vico2_ml = vico2;
+  row.fico2_mmhg = fico2;
+  row.delay_s = ctx.delay_s;
+  row.flags = flags;
+
   const geometry: BreathGeometry = {
     v_ml: cv,
     co2_mmhg: cp,

@@ -1,6 +1,7 @@
 // Small robust statistics used throughout the analysis. NaN values are skipped (d3 convention).
 
 const NEG_ZERO = -1 * 0;
+const NEG_INF = -1 * Infinity;
 
 /** working copy for quantile (grown as needed, reused: the analysis takes ~10^5 quantiles per day of recording) */
 let work = new Float64Array(64);
@@ -33,7 +34,12 @@ export function quantile(values: ArrayLike<number>, q: number): number {
   if (hi === lo) y = x;
   // a sort puts -0 before +0; comparisons do not see the difference, so settle the sign of a zero by counting
   let below = 0;
-  for (let i = 0; i < n; i++) if (a[i]! < 0 || (a[i]! === 0 && 1 / a[i]! < 0)) below++;
+  // (1 / v === -Infinity only for v = -0 among values >= 0; both comparisons run on every value)
+  for (let i = 0; i < n; i++) {
+    const isNeg = a[i]! < 0;
+    const isNegZero = 1 / a[i]! === NEG_INF;
+    if (isNeg || isNegZero) below++;
+  }
   const xNeg = lo < below;
   const yNeg = hi < below;
   if (x === 0) x = xNeg ? NEG_ZERO : 0;
