@@ -34,6 +34,8 @@ export interface BatchOptions {
   workerFile?: string | null;
   /** reader-thread bundle (default: read-worker.cjs next to the running bundle; null: every thread reads its own files) */
   readerFile?: string | null;
+  /** files from this size on are parsed in a reader thread (default READER_MIN_BYTES; tests set 0) */
+  readerMinBytes?: number;
   /** working folder: recording ids are relative to it (default process.cwd()) */
   cwd?: string;
   /** the command line, recorded in the manifest */
@@ -129,6 +131,7 @@ export async function runBatch(o: BatchOptions): Promise<BatchOutcome> {
     },
     o.workerFile,
     o.readerFile,
+    o.readerMinBytes,
   );
   progress.stop();
   writeBatchTables(outDir, entries);

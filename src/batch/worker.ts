@@ -1,16 +1,26 @@
 // Worker-thread entry of the batch pool, bundled to dist/batch-worker.cjs (scripts/build.mjs).
-// Receives tasks (at most two at a time when it has a reader thread: one analysed, one being read) and answers each
-// with its RecordingResult.
+// Runs one lane (src/batch/pool.ts runLane) over the tasks the pool sends (at most two waiting at a time) and answers
+// each with its RecordingResult.
 import { parentPort, workerData } from 'node:worker_threads';
-import { ReaderThread } from '../node/reader-thread.js';
 import type { BatchWorkerData } from './pool.js';
-import { processRecording, type RecordingTask } from './process-recording.js';
+import { runLane } from './pool.js';
+import type { RecordingTask } from './process-recording.js';
 
 const port = parentPort;
 if (port) {
-  const readerFile = (workerData as BatchWorkerData | null)?.readerFile ?? null;
-  const reader = readerFile ? new ReaderThread(readerFile) : null;
+  const data = workerData as BatchWorkerData | null;
+  const readerFile = data?.readerFile ?? null;
+  const queue: RecordingTask[] = [];
+  let wake: (() => void) | null = null;
   port.on('message', (task: RecordingTask) => {
-    void processRecording(task, reader?.usable ? reader : null).then((r) => port.postMessage(r));
+    queue.push(task);
+    wake?.();
   });
+  // the pool ends the worker (terminate) when it has no more tasks for it, so the lane waits for ever otherwise
+  const take = async (): Promise<RecordingTask> => {
+    while (!queue.length) await new Promise<void>((r) => (wake = r));
+    wake = null;
+    return queue.shift()!;
+  };
+  void runLane(take, (r) => port.postMessage(r), readerFile, data?.readerMinBytes);
 }

@@ -213,26 +213,25 @@ function estimateRate(st: TableStructure, timeCol: number, flowCol: number, form
   const lines: number[] = [];
   let dayOffset = 0;
   let prevRaw = NaN;
-  forEachSampleRow(st, (fields, line) => {
-    const cell = fields[timeCol];
-    if (cell === undefined) return;
+  for (const r of sampleRows(st)) {
+    const cell = r.fields[timeCol];
+    if (cell === undefined) continue;
     let t: number;
     if (format === 'clock') {
       const raw = parseClockSeconds(cell, clock!);
-      if (Number.isNaN(raw)) return;
+      if (Number.isNaN(raw)) continue;
       if (clock === 'time_of_day' && prevRaw - raw > 43_200) dayOffset += 86_400;
       prevRaw = raw;
       t = raw + dayOffset;
     } else {
-      const v = parseNumberCell(cell, st.decimal);
-      if (typeof v !== 'number') return;
+      const v = r.nums[timeCol];
+      if (typeof v !== 'number') continue;
       t = format === 'ms' ? v / 1000 : v;
     }
     times.push(t);
-    lines.push(line);
-    const f = fields[flowCol];
-    if (f !== undefined && typeof parseNumberCell(f, st.decimal) === 'number') flowTimes.push(t);
-  });
+    lines.push(r.line);
+    if (r.fields[flowCol] !== undefined && isNum(r, flowCol)) flowTimes.push(t);
+  }
   let backward = 0;
   let first = -1;
   for (let i = 1; i < times.length; i++) {
@@ -251,25 +250,48 @@ function estimateRate(st: TableStructure, timeCol: number, flowCol: number, form
 function mixedRateNote(st: TableStructure, flowCol: number, co2Col: number, sample: ColumnSample): string | null {
   let flowOnly = 0;
   let co2Only = 0;
-  forEachSampleRow(st, (fields) => {
-    const f = typeof parseNumberCell(fields[flowCol] ?? '', st.decimal) === 'number';
-    const c = typeof parseNumberCell(fields[co2Col] ?? '', st.decimal) === 'number';
+  for (const r of sampleRows(st)) {
+    const f = isNum(r, flowCol);
+    const c = isNum(r, co2Col);
     if (f && !c) flowOnly++;
     if (c && !f) co2Only++;
-  });
+  }
   if (flowOnly === 0 && co2Only === 0) return null;
   return `blank cells: ${flowOnly} of the first ${sample.lines.length} rows have flow but no CO2, ${co2Only} CO2 but no flow (channels at different rates); CO2 is interpolated onto the flow's time base`;
 }
 
-function forEachSampleRow(st: TableStructure, fn: (fields: string[], line: number) => void): void {
+/** A sampled data row: its cells, 1-based line number and each cell read as a number (parseNumberCell). */
+interface SampleRow {
+  fields: string[];
+  line: number;
+  nums: (number | null | undefined)[];
+}
+
+const sampleRowCache = new WeakMap<TableStructure, SampleRow[]>();
+
+/** The head's data rows, split and read once (the column, unit, time and rate decisions all look at them). */
+function sampleRows(st: TableStructure): SampleRow[] {
+  const cached = sampleRowCache.get(st);
+  if (cached) return cached;
+  const rows: SampleRow[] = [];
   for (let k = st.data_start_index; k < st.lines.length; k++) {
     const l = st.lines[k]!;
     const t = l.trim();
     if (t === '' || t.startsWith('#')) continue;
     const fields = splitFields(l, st.delimiter);
     if (!fields || Math.abs(fields.length - st.field_count) > 1) continue;
-    fn(fields, k + 1);
+    const n = Math.max(fields.length, st.header.length);
+    const nums: (number | null | undefined)[] = new Array(n);
+    for (let c = 0; c < n; c++) nums[c] = parseNumberCell(fields[c] ?? '', st.decimal);
+    rows.push({ fields, line: k + 1, nums });
   }
+  sampleRowCache.set(st, rows);
+  return rows;
+}
+
+/** Whether cell `col` of a sampled row is a number (a missing cell is not). */
+function isNum(r: SampleRow, col: number): boolean {
+  return typeof r.nums[col] === 'number';
 }
 
 /** Column-wise numbers and raw text of the sampled rows. */
@@ -277,15 +299,14 @@ function sampleColumns(st: TableStructure): ColumnSample {
   const values: number[][] = st.header.map(() => []);
   const raw: string[][] = st.header.map(() => []);
   const lines: number[] = [];
-  forEachSampleRow(st, (fields, line) => {
-    lines.push(line);
+  for (const r of sampleRows(st)) {
+    lines.push(r.line);
     for (let c = 0; c < st.header.length; c++) {
-      const cell = fields[c] ?? '';
-      raw[c]!.push(unquoteCell(cell));
-      const v = parseNumberCell(cell, st.decimal);
+      raw[c]!.push(unquoteCell(r.fields[c] ?? ''));
+      const v = r.nums[c];
       if (typeof v === 'number') values[c]!.push(v);
     }
-  });
+  }
   return { values, raw, lines };
 }
 

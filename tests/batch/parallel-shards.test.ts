@@ -40,15 +40,17 @@ afterAll(() => rmSync(dir, { recursive: true, force: true }));
 describe('parallel == serial', () => {
   // --jobs 2: main thread + reader thread; 3: that + a worker reading its own files; 4: two lanes with readers;
   // without a reader bundle: three workers that each read their own files
+  // (readerMinBytes 0: every file goes through the reader thread; the default keeps these small files in place)
   it.each([
-    [2, true],
-    [3, true],
-    [4, true],
-    [3, false],
-  ])('--jobs %i (reader bundle: %s) writes byte-identical tables, per-recording files and manifest entries', async (jobs, withReader) => {
+    [2, true, 0],
+    [3, true, 0],
+    [4, true, 0],
+    [3, false, 0],
+    [2, true, undefined],
+  ])('--jobs %i (reader bundle: %s, reader from %s bytes) writes byte-identical tables, per-recording files and manifest entries', async (jobs, withReader, minBytes) => {
     const serial = await run({ outDir: 'serial', readerFile: null });
-    const out = `parallel-${jobs}-${withReader}`;
-    const parallel = await run({ outDir: out, jobs, workerFile: bundles.worker, readerFile: withReader ? bundles.reader : null });
+    const out = `parallel-${jobs}-${withReader}-${minBytes}`;
+    const parallel = await run({ outDir: out, jobs, workerFile: bundles.worker, readerFile: withReader ? bundles.reader : null, readerMinBytes: minBytes });
     expect(serial.manifest.counts).toEqual({ ok: 5, failed: 1, pending: 0, resumed: 0 });
     expect(tables(out)).toEqual(tables('serial'));
     expect(perRecording(out)).toEqual(perRecording('serial'));
@@ -56,7 +58,7 @@ describe('parallel == serial', () => {
     expect(parallel.exitCode).toBe(4);
   });
   it('hashes each file from its one read: the manifest hash is the SHA-256 of the file', async () => {
-    const r = await run({ outDir: 'hashes', jobs: 2, workerFile: bundles.worker, readerFile: bundles.reader });
+    const r = await run({ outDir: 'hashes', jobs: 2, workerFile: bundles.worker, readerFile: bundles.reader, readerMinBytes: 0 });
     for (const e of r.manifest.inputs) {
       const bytes = readFileSync(join(dir, e.recording));
       expect(e.sha256).toBe(createHash('sha256').update(bytes).digest('hex'));
