@@ -70,9 +70,24 @@ export function createTableReader(
     }
     let s = chunk;
     if (carry.length) {
-      s = new Uint8Array(carry.length + chunk.length);
-      s.set(carry);
-      s.set(chunk, carry.length);
+      // finish the carried line with the head of this chunk (up to its first line end), then scan the rest in place:
+      // no copy of the whole chunk
+      const eol = chunk.indexOf(layout.line_end.charCodeAt(0));
+      const headLen = eol < 0 ? chunk.length : eol + 1;
+      const joined = new Uint8Array(carry.length + headLen);
+      joined.set(carry);
+      joined.set(chunk.subarray(0, headLen), carry.length);
+      if (eol < 0) s = joined;
+      else {
+        const usedJoined = scanner.scan(joined, false);
+        if (usedJoined < joined.length) {
+          // cannot happen (the joined piece ends with a line end); fall back to scanning everything together
+          const all = new Uint8Array(joined.length - usedJoined + chunk.length - headLen);
+          all.set(joined.subarray(usedJoined));
+          all.set(chunk.subarray(headLen), joined.length - usedJoined);
+          s = all;
+        } else s = chunk.subarray(headLen);
+      }
     }
     const used = scanner.scan(s, false);
     // copy the carried partial line: the caller may reuse the chunk's memory
