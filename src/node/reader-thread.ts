@@ -30,8 +30,10 @@ export interface StartedReader {
 export function startReaderWorker(workerFile: string): StartedReader {
   const inFlight = new SharedArrayBuffer(4);
   const data: ReadWorkerData = { inFlight };
-  // the reader holds one chunk and one block at a time: a small heap keeps the process under the memory target
-  const worker = new Worker(workerFile, { workerData: data, resourceLimits: { maxYoungGenerationSizeMb: 8, maxOldGenerationSizeMb: 96 } });
+  // the reader holds one chunk and one block at a time: a bounded heap keeps the process under the memory target.
+  // Young generation 32 MB (not 8): measured on the 24 h file, peak RSS 188 instead of 233 MB (fewer objects promoted
+  // to the old generation) at the same speed; a batch of 60-min files peaks near 250 MB.
+  const worker = new Worker(workerFile, { workerData: data, resourceLimits: { maxYoungGenerationSizeMb: 32, maxOldGenerationSizeMb: 96 } });
   return { worker, inFlight };
 }
 
