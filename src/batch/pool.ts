@@ -114,23 +114,38 @@ export async function runTasks(
   if (lanes.length > 1 && !workerFile) throw new Error(`the worker bundle ${WORKER_BUNDLE} was not found next to the CLI; run \`npm run build\``);
   let next = 0;
   let done = 0;
-  await new Promise<void>((resolve) => {
+  const workers: Worker[] = [];
+  let failed = false;
+  await new Promise<void>((resolve, reject) => {
+    // a failure of the caller's own handler (e.g. the manifest cannot be written) ends the batch with that error
     const complete = (r: RecordingResult) => {
-      onResult(r);
+      if (failed) return;
+      try {
+        onResult(r);
+      } catch (e) {
+        failed = true;
+        for (const w of workers) void w.terminate();
+        reject(e);
+        return;
+      }
       if (++done === tasks.length) resolve();
     };
     // the main thread's lane
-    void runLane(() => (next < tasks.length ? tasks[next++]! : null), complete, lanes[0] ? readerFile : null, readerMinBytes);
+    runLane(() => (failed || next >= tasks.length ? null : tasks[next++]!), complete, lanes[0] ? readerFile : null, readerMinBytes).catch((e: unknown) => {
+      failed = true;
+      reject(e);
+    });
     for (let k = 1; k < lanes.length; k++) startWorker(workerFile!, lanes[k] ? readerFile : null);
 
     function startWorker(file: string, laneReader: string | null): void {
       const data: BatchWorkerData = { readerFile: laneReader, readerMinBytes };
       const w = new Worker(file, { workerData: data });
+      workers.push(w);
       const depth = laneReader ? 2 : 1;
       const held = new Map<number, RecordingTask>();
       let finished = false;
       const give = () => {
-        while (held.size < depth && next < tasks.length) {
+        while (!failed && held.size < depth && next < tasks.length) {
           const t = tasks[next++]!;
           held.set(t.index, t);
           w.postMessage(t);
@@ -157,7 +172,7 @@ export async function runTasks(
         }
         held.clear();
         void w.terminate();
-        if (next < tasks.length) startWorker(file, laneReader);
+        if (!failed && next < tasks.length) startWorker(file, laneReader);
       };
       w.on('error', (e) => died(e.message.replace(/[\r\n]+/g, ' ')));
       w.on('exit', (code) => died(`exit code ${code}`));

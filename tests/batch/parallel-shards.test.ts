@@ -9,7 +9,9 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { settingsPlan } from '../../src/batch/file-settings';
 import { withoutTiming, type Manifest } from '../../src/batch/manifest';
 import { mergeShards, MergeError } from '../../src/batch/merge';
-import { planLanes } from '../../src/batch/pool';
+import { planLanes, runTasks } from '../../src/batch/pool';
+import type { RecordingTask } from '../../src/batch/process-recording';
+import { defaultSettings } from '../../src/settings';
 import { runBatch, type BatchOptions } from '../../src/batch/run-batch';
 import { buildBundles, read, writeRecording } from './helpers';
 
@@ -64,6 +66,23 @@ describe('parallel == serial', () => {
       expect(e.sha256).toBe(createHash('sha256').update(bytes).digest('hex'));
       expect(e.size).toBe(bytes.length);
     }
+  });
+});
+
+describe('a failing result handler', () => {
+  it.each([1, 2, 3])('ends the run with its error (--jobs %i), instead of hanging or crashing', async (jobs) => {
+    const data = join(dir, 'data');
+    const tasks: RecordingTask[] = readdirSync(data).sort().map((f, index) => ({
+      index, recording: f, path: join(data, f), outFolder: join(dir, 'handler-out', String(jobs), f), settings: defaultSettings(), given: [], resumeSha256: null,
+    }));
+    const boom = new Error('manifest not writable');
+    let calls = 0;
+    const run = runTasks(tasks, jobs, () => {
+      calls++;
+      throw boom;
+    }, bundles.worker, bundles.reader, 0);
+    await expect(run).rejects.toBe(boom);
+    expect(calls).toBe(1);
   });
 });
 
