@@ -245,16 +245,12 @@ export function calibrate(
 ): Calibration {
   const a = settings.analysis;
   const notes: string[] = [];
-  const n = t.length;
-  const diffs: number[] = [];
-  for (let i = 1; i < Math.min(n, 5000); i++) diffs.push(t[i]! - t[i - 1]!);
-  const dt = median(diffs);
+  const dt = medianStep(t, 5000);
 
   const offsetGiven = a.flow_offset_lps !== null;
   let offset = offsetGiven ? a.flow_offset_lps! : 0;
   let offsetFound = offsetGiven;
-  const flow = new Float64Array(n);
-  for (let i = 0; i < n; i++) flow[i] = flowFile[i]! - offset;
+  const flow = shifted(flowFile, offset);
   const peak = quantile(absValues(flow), 0.95);
   const thr = a.flow_threshold_fraction * peak;
 
@@ -271,11 +267,7 @@ export function calibrate(
     sign = edges.sign;
     coarseLag = edges.lag;
   }
-  if (!edges && !delayGiven) {
-    const lags: number[] = [];
-    for (let k = 0; k * dt <= a.max_delay_s + 1e-9; k++) lags.push(k * dt);
-    coarseLag = lagByInspiredCo2(flow, co2, dt, thr, sign, lags);
-  }
+  if (!edges && !delayGiven) coarseLag = lagByInspiredCo2(flow, co2, dt, thr, sign, lagGrid(dt, a.max_delay_s));
   if (!signGiven) {
     if (edges) {
       notes.push(
@@ -285,30 +277,19 @@ export function calibrate(
       );
     } else notes.push('expiration sign could not be inferred from the CO2 edges; assumed positive: give --expiration');
   }
-  for (let i = 0; i < n; i++) flow[i] = sign * flow[i]!;
+  scale(flow, sign);
   if (!offsetGiven) {
-    // end-inspiratory part of each breath: from peak inspiratory flow to the expiration onset
-    const spans = breathBounds(t, flow, thr, minVol, a.min_phase_s).map((b) => {
-      let k = b.i_insp;
-      for (let i = b.i_insp; i < b.i_exp; i++) if (flow[i]! < flow[k]!) k = i;
-      return { from_s: t[k]!, to_s: b.t_exp_s - 0.02 };
-    });
+    const spans = endInspiratorySpans(t, flow, breathBounds(t, flow, thr, minVol, a.min_phase_s));
     const est = estimateFlowOffset(t, flow, spans);
     if (est) {
       offset = sign * est.offset; // in the file's sign convention
       offsetFound = true;
-      for (let i = 0; i < n; i++) flow[i] = flow[i]! - est.offset;
+      subtract(flow, est.offset);
     } else notes.push('no end-inspiratory pause found: flow offset not corrected; set analysis.flow_offset_lps in a settings file if it is known');
   }
 
   // per-breath fall fits around the coarse lag
-  const crossings = breathBounds(t, flow, thr, minVol, a.min_phase_s).map((b) => b.t_end_s);
-  const fits: { delay: number; fit: FallFit }[] = [];
-  for (const tr of crossings) {
-    const lo = tr + (delayGiven ? a.delay_s! : coarseLag) - 0.35;
-    const fit = fitInspiratoryFall(t, co2, Math.max(tr - 0.05, lo), lo + 1.0);
-    if (fit) fits.push({ delay: fit.t0_s - tr, fit });
-  }
+  const fits = fallFits(t, co2, breathBounds(t, flow, thr, minVol, a.min_phase_s), delayGiven ? a.delay_s! : coarseLag);
   const delays = fits.map((f) => f.delay);
   const taus = fits.map((f) => f.fit.tau_s);
   let delay = delayGiven ? a.delay_s! : fits.length ? median(delays) : coarseLag;
@@ -338,6 +319,61 @@ export function calibrate(
     fall_fits: fits.length,
     notes,
   };
+}
+
+// Helpers holding calibrate's loops: calibrate runs once per recording, and V8 recompiles a function as a whole when
+// one of its loops bails out; small loop functions are compiled once for all recordings.
+
+/** Median of the first `max` time steps (as the samples come, zero and negative steps included). */
+function medianStep(t: Float64Array, max: number): number {
+  const n = Math.min(t.length, max);
+  const d = new Float64Array(Math.max(0, n - 1));
+  for (let i = 1; i < n; i++) d[i - 1] = t[i]! - t[i - 1]!;
+  return median(d);
+}
+
+function shifted(x: Float64Array, offset: number): Float64Array {
+  const out = new Float64Array(x.length);
+  for (let i = 0; i < x.length; i++) out[i] = x[i]! - offset;
+  return out;
+}
+
+function scale(x: Float64Array, k: number): void {
+  for (let i = 0; i < x.length; i++) x[i] = k * x[i]!;
+}
+
+function subtract(x: Float64Array, c: number): void {
+  for (let i = 0; i < x.length; i++) x[i] = x[i]! - c;
+}
+
+/** Candidate delays 0, dt, 2 dt, ... up to maxDelayS. */
+function lagGrid(dt: number, maxDelayS: number): number[] {
+  const lags: number[] = [];
+  for (let k = 0; k * dt <= maxDelayS + 1e-9; k++) lags.push(k * dt);
+  return lags;
+}
+
+/** End-inspiratory part of each breath: from peak inspiratory flow to just before the expiration onset. */
+function endInspiratorySpans(t: Float64Array, flow: Float64Array, bounds: BreathBounds[]): { from_s: number; to_s: number }[] {
+  const spans: { from_s: number; to_s: number }[] = [];
+  for (const b of bounds) {
+    let k = b.i_insp;
+    for (let i = b.i_insp; i < b.i_exp; i++) if (flow[i]! < flow[k]!) k = i;
+    spans.push({ from_s: t[k]!, to_s: b.t_exp_s - 0.02 });
+  }
+  return spans;
+}
+
+/** The inspiratory CO2 fall of each breath, searched from `lag` - 0.35 s after its inspiration onset. */
+function fallFits(t: Float64Array, co2: Float64Array, bounds: BreathBounds[], lag: number): { delay: number; fit: FallFit }[] {
+  const fits: { delay: number; fit: FallFit }[] = [];
+  for (const b of bounds) {
+    const tr = b.t_end_s;
+    const lo = tr + lag - 0.35;
+    const fit = fitInspiratoryFall(t, co2, Math.max(tr - 0.05, lo), lo + 1.0);
+    if (fit) fits.push({ delay: fit.t0_s - tr, fit });
+  }
+  return fits;
 }
 
 /** Median volume of the larger flow excursions of either sign (mL), used only to set the ripple floor. */
