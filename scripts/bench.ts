@@ -6,7 +6,7 @@
 //   3. peak RSS of `analyse` on the 6-hour file (memory must not grow with length);
 //   4. `phasewise batch` of each set of 20 files with --jobs 1 and --jobs 2 (wall time, CPU time and ratio).
 // Peak RSS is process.resourceUsage().maxRSS of the child, written at exit by a preloaded hook.
-// Each measurement runs twice (--repeat N to change) and the shorter wall time is shown (best of N), because other
+// Each measurement runs three times (--repeat N to change) and the shorter wall time is shown (best of N), because other
 // processes on the machine only ever slow a run down; peak RSS is the largest of the runs. The two sides of each
 // ratio (analyse / papaparse, jobs 1 / jobs 2) run alternately, so a change in load hits both alike.
 // Options: --keep (keep the folder), --skip-papa, --repeat N. MB = 10^6 bytes. Figures vary with the machine; tests never time.
@@ -32,7 +32,7 @@ interface Run {
   stderr: string;
 }
 
-let REPEAT = 2;
+let REPEAT = 3;
 
 /** The run with the shortest wall time of REPEAT runs (less disturbed by other processes; peak RSS is the largest seen). */
 function measure(dir: string, args: string[]): Run {

@@ -218,7 +218,7 @@ class StreamAnalyser implements Analyser {
       exp_abrupt: b.exp_abrupt,
     };
     const rows = this.rows;
-    const d = decomposeBreath(signals, { breath: rows.length + 1, delay_s: c.delay_s, tau_s: tau, settings: cfg });
+    const d = decomposeBreath(signals, { breath: rows.length + 1, delay_s: c.delay_s, tau_s: tau, settings: cfg, keep_geometry: this.onBreath !== null });
     // NaN in the aligned CO2 inside the breath means the CO2 channel was missing there
     for (let i = signals.i_insp; i < signals.i_end; i++) {
       if (!(fast[i]! === fast[i]!)) {

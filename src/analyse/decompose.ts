@@ -29,6 +29,11 @@ export interface BreathContext {
   /** CO2 sensor first-order time constant, s */
   tau_s: number;
   settings: AnalysisSettings;
+  /**
+   * false: the geometry's curves (v_ml, co2_mmhg, co2_raw_mmhg) are views of working arrays, valid until the next
+   * breath (the command line never keeps them); default true: freshly allocated (the viewer keeps every breath's)
+   */
+  keep_geometry?: boolean;
 }
 
 /** Geometry of the decomposition, for review and plotting. Volumes mL from the start of expiration, CO2 mmHg. */
@@ -61,8 +66,8 @@ export interface BreathDecomposition {
   flags: string[];
 }
 
-// Working arrays reused from breath to breath (views of the first n entries; never handed out: the geometry that
-// leaves this module is freshly allocated). Saves a dozen allocations per breath on 24-hour recordings.
+// Working arrays reused from breath to breath (views of the first n entries; handed out only as the geometry of a
+// breath whose caller said it does not keep it, keep_geometry: false). Saves a dozen allocations per breath.
 const workBufs: Float64Array[] = [];
 function work(slot: number, n: number): Float64Array {
   let b = workBufs[slot];
@@ -71,6 +76,12 @@ function work(slot: number, n: number): Float64Array {
     workBufs[slot] = b;
   }
   return b.subarray(0, n);
+}
+
+let indexBuf = new Int32Array(256);
+function workIndex(n: number): Int32Array {
+  if (indexBuf.length < n) indexBuf = new Int32Array(Math.max(n, 2 * indexBuf.length));
+  return indexBuf;
 }
 
 /** mL STPD of CO2 per (mmHg x mL) of PCO2-volume area at body temperature (primer 5.1, ideal gas). */
@@ -178,19 +189,22 @@ export function decomposeBreath(s: BreathSignals, ctx: BreathContext): BreathDec
     if (F[k]! > peakFlow) peakFlow = F[k]!;
   }
   const vte = V[m - 1]!;
-  const keep: number[] = [0];
+  // indices of the monotone (strictly increasing volume) samples
+  const keep = workIndex(m);
+  let M = 1;
+  keep[0] = 0;
   let vmax = 0;
   for (let k = 1; k < m; k++) {
     if (V[k]! > vmax) {
-      keep.push(k);
+      keep[M++] = k;
       vmax = V[k]!;
     }
   }
-  const nonMonotonic = m - keep.length;
-  const M = keep.length;
-  const cv = new Float64Array(M);
-  const cp = new Float64Array(M);
-  const cs = new Float64Array(M);
+  const nonMonotonic = m - M;
+  const fresh = ctx.keep_geometry !== false;
+  const cv = fresh ? new Float64Array(M) : work(9, M);
+  const cp = fresh ? new Float64Array(M) : work(10, M);
+  const cs = fresh ? new Float64Array(M) : work(11, M);
   const cf = work(5, M);
   for (let j = 0; j < M; j++) {
     const k = keep[j]!;
