@@ -5,6 +5,8 @@
 //   --jobs 1: one thread reads and analyses (no worker at all);
 //   --jobs 2: the main thread analyses, one reader thread parses;
 //   --jobs 3: that, plus a worker that reads and analyses by itself; --jobs 4: two lanes of two; and so on.
+// When most of the bytes are in short recordings, readers would idle: every lane then reads its own files, with one
+// thread's worth left to V8's background threads (planLanes).
 // Pairing threads this way (instead of N threads that each read and analyse) starts fewer copies of the code, each
 // of which warms up only its half, and keeps one file per lane in memory. Only files of READER_MIN_BYTES or more
 // go through the reader thread: for short recordings the second thread costs more than it saves (measured, below).
@@ -39,12 +41,21 @@ export function defaultWorkerFile(): string | null {
   return existsSync(f) ? f : null;
 }
 
-/** The lanes for `jobs` threads: per lane, whether it has a reader thread (lane 0 is the main thread). */
-export function planLanes(jobs: number, tasks: number, haveReader: boolean): boolean[] {
+/**
+ * The lanes for `jobs` threads: per lane, whether it has a reader thread (lane 0 is the main thread).
+ * When most of the bytes are in recordings of READER_MIN_BYTES or more (`pairs`), threads go in pairs (analysis +
+ * reader), an odd one as a lane of its own. Otherwise readers would idle, so every lane reads its own files; one
+ * thread's worth is left to V8's compiler and garbage-collector threads, which keep about a core busy beside the
+ * JavaScript threads (measured here: on 2 cores, two such lanes took 1.9-2.2 s for 20 short recordings, one lane
+ * 1.4-1.6 s).
+ */
+export function planLanes(jobs: number, tasks: number, pairs: boolean): boolean[] {
+  const n = Math.max(1, Math.floor(jobs));
+  if (!pairs) return Array.from({ length: Math.max(1, Math.min(tasks, n >= 3 ? n - 1 : 1)) }, () => false);
   const lanes: boolean[] = [];
-  let left = Math.max(1, Math.floor(jobs));
+  let left = n;
   while (left > 0 && lanes.length < tasks) {
-    const pair = haveReader && left >= 2;
+    const pair = left >= 2;
     lanes.push(pair);
     left -= pair ? 2 : 1;
   }
@@ -110,7 +121,11 @@ export async function runTasks(
   readerMinBytes: number = READER_MIN_BYTES,
 ): Promise<void> {
   if (!tasks.length) return;
-  const lanes = planLanes(jobs, tasks.length, readerFile !== null);
+  // pairs when at least half of the bytes are in recordings large enough for the reader thread
+  const sizes = tasks.map((t) => fileSize(t.path));
+  const total = sizes.reduce((a, b) => a + b, 0);
+  const big = sizes.reduce((a, b) => a + (b >= readerMinBytes ? b : 0), 0);
+  const lanes = planLanes(jobs, tasks.length, readerFile !== null && total > 0 && big >= 0.5 * total);
   if (lanes.length > 1 && !workerFile) throw new Error(`the worker bundle ${WORKER_BUNDLE} was not found next to the CLI; run \`npm run build\``);
   let next = 0;
   let done = 0;

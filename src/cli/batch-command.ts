@@ -57,7 +57,7 @@ export function registerBatch(program: Command): void {
     .argument('<inputs...>', 'recording files, folders (searched for .csv, .tsv, .txt) or quoted globs like "data/**/*.csv"')
     // not requiredOption: Commander would then demand it of `batch merge` too (it checks ancestors' options)
     .option('--out <dir>', 'output folder (required)')
-    .option('--jobs <n>', 'threads to use, in lanes of an analysis thread and a reader thread for recordings of 4 MB or more (default: number of cores)', positiveInt)
+    .option('--jobs <n>', 'threads to use: lanes of an analysis thread and a reader thread when most bytes are in recordings of 4 MB or more, else N - 1 lanes (at least one) that read their own files (default: number of cores)', positiveInt)
     .option('--resume', 'keep results whose input content and settings are unchanged since the manifest in --out')
     .option('--shard <I/N>', 'analyse only shard I of N (0-based; input k goes to shard k mod N); see `batch merge`')
     .option('--quiet', 'no progress and no closing summary (failures are still listed on stderr)');

@@ -42,13 +42,15 @@ afterAll(() => rmSync(dir, { recursive: true, force: true }));
 describe('parallel == serial', () => {
   // --jobs 2: main thread + reader thread; 3: that + a worker reading its own files; 4: two lanes with readers;
   // without a reader bundle: three workers that each read their own files
-  // (readerMinBytes 0: every file goes through the reader thread; the default keeps these small files in place)
+  // (readerMinBytes 0: every file goes through the reader thread; the default keeps these small files in place, and
+  // --jobs 4 then runs three lanes that each read their own files)
   it.each([
     [2, true, 0],
     [3, true, 0],
     [4, true, 0],
     [3, false, 0],
     [2, true, undefined],
+    [4, true, undefined],
   ])('--jobs %i (reader bundle: %s, reader from %s bytes) writes byte-identical tables, per-recording files and manifest entries', async (jobs, withReader, minBytes) => {
     const serial = await run({ outDir: 'serial', readerFile: null });
     const out = `parallel-${jobs}-${withReader}-${minBytes}`;
@@ -87,14 +89,17 @@ describe('a failing result handler', () => {
 });
 
 describe('lanes', () => {
-  it('spend the threads in pairs (analysis + reader) while there are two left, and never more lanes than tasks', () => {
+  it('pair threads (analysis + reader) for large recordings; for short ones, one lane per thread but one', () => {
     expect(planLanes(1, 10, true)).toEqual([false]);
     expect(planLanes(2, 10, true)).toEqual([true]);
     expect(planLanes(3, 10, true)).toEqual([true, false]);
     expect(planLanes(4, 10, true)).toEqual([true, true]);
-    expect(planLanes(4, 10, false)).toEqual([false, false, false, false]);
     expect(planLanes(8, 2, true)).toEqual([true, true]);
     expect(planLanes(0, 5, true)).toEqual([false]);
+    expect(planLanes(1, 10, false)).toEqual([false]);
+    expect(planLanes(2, 10, false)).toEqual([false]);
+    expect(planLanes(4, 10, false)).toEqual([false, false, false]);
+    expect(planLanes(8, 3, false)).toEqual([false, false, false]);
   });
 });
 
@@ -102,7 +107,7 @@ describe('a worker that dies', () => {
   it('fails only the task it held, is replaced, and the batch completes', async () => {
     const crash = join(dir, 'crash-worker.cjs');
     writeFileSync(crash, "require('node:worker_threads').parentPort.on('message', () => { throw new Error('boom'); });\n");
-    const r = await run({ outDir: 'crash', jobs: 2, workerFile: crash, readerFile: null });
+    const r = await run({ outDir: 'crash', jobs: 3, workerFile: crash, readerFile: null }); // two lanes: main + worker
     const byStatus = r.manifest.inputs.map((e) => e.status);
     expect(byStatus).not.toContain('pending');
     const died = r.manifest.inputs.filter((e) => e.error?.code === 'internal');
@@ -141,8 +146,8 @@ describe('shards + merge == one run', () => {
 
 describe('bundled CLI', () => {
   const cli = (...args: string[]) => spawnSync(process.execPath, [bundles.cli, ...args], { cwd: dir, encoding: 'utf8' });
-  it('batch with --jobs 2 uses the bundled worker, lists the failure in one line and exits 4', () => {
-    const r = cli('batch', 'data', '--out', 'cli-out', '--jobs', '2');
+  it('batch with --jobs 3 uses the bundled worker (two lanes for these short recordings), lists the failure in one line and exits 4', () => {
+    const r = cli('batch', 'data', '--out', 'cli-out', '--jobs', '3');
     expect(r.status).toBe(4);
     expect(r.stderr).toMatch(/^\s+data\/r0-empty\.csv: \[empty_file\] data\/r0-empty\.csv: the file is empty/m);
     expect(r.stderr).toMatch(/^\[\d\/6\] ok {5}data\/r1-adult-healthy\.csv: \d+ breaths/m); // plain lines: stderr is not a terminal
