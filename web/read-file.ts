@@ -1,5 +1,6 @@
-// Reads a recording File in the worker with the CLI's own byte reader (src/ingest/bytes.ts): 1 MiB chunks through a
-// streaming TextDecoder, the same checks, order and notes, so the blocks (and the breaths) are the ones the CLI sees.
+// Reads a recording File in the worker with the CLI's own byte reader (src/ingest/bytes.ts): 1 MiB chunks, valid UTF-8
+// scanned as bytes (checked in JavaScript here; Node uses its native all-ASCII test), the same checks, order and
+// notes, so the blocks (and the breaths) are the ones the CLI sees.
 
 import { CHUNK_BYTES, firstInvalidUtf8, notTextError, openDecoder, readRecordingBytes } from '../src/ingest/bytes';
 import { InputError } from '../src/ingest/errors';
