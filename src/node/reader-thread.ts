@@ -31,9 +31,10 @@ export function startReaderWorker(workerFile: string): StartedReader {
   const inFlight = new SharedArrayBuffer(4);
   const data: ReadWorkerData = { inFlight };
   // the reader holds one chunk and one block at a time: a bounded heap keeps the process under the memory target.
-  // Young generation 32 MB (not 8): measured on the 24 h file, peak RSS 188 instead of 233 MB (fewer objects promoted
-  // to the old generation) at the same speed; a batch of 60-min files peaks near 250 MB.
-  const worker = new Worker(workerFile, { workerData: data, resourceLimits: { maxYoungGenerationSizeMb: 32, maxOldGenerationSizeMb: 96 } });
+  // Young generation 16 MB, measured: `analyse` of the 24 h file peaks at 187-191 MB (8 MB: 231-233 MB, more objects
+  // promoted to the old generation; 32 MB: 188-190 MB) and a --jobs 2 batch of three 24 h files at 240-267 MB
+  // (8 MB: 277-280 MB; 32 MB: 309 MB, over the 300 MB target).
+  const worker = new Worker(workerFile, { workerData: data, resourceLimits: { maxYoungGenerationSizeMb: 16, maxOldGenerationSizeMb: 96 } });
   return { worker, inFlight };
 }
 
