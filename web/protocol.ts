@@ -4,10 +4,22 @@ import type { AnalysisCore } from '../src/analyse/analyser';
 import type { GasParseResult } from '../src/gas/index';
 import type { IngestReport, TableLayout } from '../src/ingest/index';
 import type { Settings } from '../src/settings';
+import type { SampleBlock } from '../src/types';
 import type { PackedGeometry } from './geometry-store';
 import type { ComposedOutputs, GasInput } from './outputs';
 import type { PackedRows } from './row-columns';
 import type { SignalWindow } from './signal-store';
+
+/** To the reader worker (read-worker.ts), from the analysis worker. */
+export type ReaderIn = { type: 'read'; file: File; settings: Settings } | { type: 'ack' };
+
+/** From the reader worker. */
+export type ReaderOut =
+  | { type: 'layout'; layout: TableLayout; head: string }
+  | { type: 'block'; block: SampleBlock }
+  | { type: 'progress'; bytes: number }
+  | { type: 'done'; report: IngestReport }
+  | { type: 'error'; message: string; code: string };
 
 export type ToWorker =
   | { type: 'sniff'; file: File; settings: Settings }

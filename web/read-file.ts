@@ -39,11 +39,19 @@ export async function readHead(file: File, chars = SNIFF_CHARS): Promise<string>
   return head.slice(0, chars);
 }
 
-/** Streams the whole file through the shared byte reader; resolves to the ingest report. */
-export async function readRecording(file: File, settings: IngestSettings, minRateHz: number, cb: ReadCallbacks): Promise<IngestReport> {
+/**
+ * Streams the whole file through the shared byte reader; resolves to the ingest report. `beforeChunk` (optional) is
+ * awaited before each chunk is read (the reader worker's backpressure).
+ */
+export async function readRecording(
+  file: File, settings: IngestSettings, minRateHz: number, cb: ReadCallbacks, beforeChunk?: () => Promise<void>,
+): Promise<IngestReport> {
   checkNotEmpty(file);
   async function* chunks(): AsyncGenerator<Uint8Array> {
-    for (let pos = 0; pos < file.size; pos += CHUNK_BYTES) yield new Uint8Array(await file.slice(pos, pos + CHUNK_BYTES).arrayBuffer());
+    for (let pos = 0; pos < file.size; pos += CHUNK_BYTES) {
+      if (beforeChunk) await beforeChunk();
+      yield new Uint8Array(await file.slice(pos, pos + CHUNK_BYTES).arrayBuffer());
+    }
   }
   return readRecordingBytes(
     { name: file.name, size: file.size, chunks: chunks(), lineAtByte: (offset) => lineAtByte(file, offset), notTextHint: HINT },

@@ -1,7 +1,8 @@
 /// <reference lib="webworker" />
-// The analysis worker: reads the File in chunks, runs the same core as the CLI (sniffTable -> table reader ->
-// createAnalyser), keeps the samples for the overview chart and the per-breath geometry for the breath view, and
-// posts progress and results. The page never parses the recording.
+// The analysis worker: has the File read and parsed by a reader worker of its own (read-worker.ts; here when workers
+// cannot start workers), runs the same core as the CLI on the blocks (createAnalyser), keeps the samples for the
+// overview chart and the per-breath geometry for the breath view, and posts progress and results. The page never
+// parses the recording.
 
 import { createAnalyser } from '../src/analyse/analyser';
 import { parseGasCsv } from '../src/gas/index';
@@ -14,8 +15,8 @@ import { installDeterministicMath } from './det-math';
 import { GeometryWriter, transferables } from './geometry-store';
 import { composeOutputs, type ComposedOutputs } from './outputs';
 import { packRows, rowTransferables } from './row-columns';
-import type { FromWorker, ToWorker } from './protocol';
-import { readHead, readRecording } from './read-file';
+import type { FromWorker, ReaderIn, ReaderOut, ToWorker } from './protocol';
+import { readHead, readRecording, type ReadCallbacks } from './read-file';
 import { SignalStore } from './signal-store';
 
 declare const self: DedicatedWorkerGlobalScope;
@@ -67,7 +68,7 @@ async function analyse(file: File, settings: Settings, given: string[]): Promise
   const analyser = createAnalyser(settings, (e) => geometry.add(e.decomposition.geometry));
   let s: SignalStore | null = null;
   let lastPost = 0;
-  const report = await readRecording(file, settings.ingest, settings.analysis.min_rate_hz, {
+  const callbacks: ReadCallbacks = {
     onLayout: (layout, head) => {
       // preallocate from the head's characters per data row so a 24-hour file does not grow its arrays
       const lines = head.split(layout.line_end);
@@ -87,7 +88,8 @@ async function analyse(file: File, settings: Settings, given: string[]): Promise
         post({ type: 'progress', bytes, total: file.size, breaths: geometry.count });
       }
     },
-  });
+  };
+  const report = typeof Worker === 'function' ? await readInReaderWorker(file, settings, callbacks) : await readRecording(file, settings.ingest, settings.analysis.min_rate_hz, callbacks);
   const core = analyser.finish();
   const sig = s! as SignalStore;
   sig.finalize();
@@ -121,6 +123,37 @@ async function analyse(file: File, settings: Settings, given: string[]): Promise
     },
     [...transferables(packed), ...rowTransferables(rows)],
   );
+}
+
+/**
+ * Reads the file in a reader worker of its own (read-worker.ts) while this worker analyses the blocks: the same
+ * blocks, in the same order, as reading here (the exports are compared with the command line's in the browser tests).
+ */
+function readInReaderWorker(file: File, settings: Settings, cb: ReadCallbacks): Promise<IngestReport> {
+  const reader = new Worker(new URL('./read-worker.ts', import.meta.url), { type: 'module' });
+  const send = (m: ReaderIn) => reader.postMessage(m);
+  return new Promise<IngestReport>((resolve, reject) => {
+    const finish = (f: () => void) => {
+      reader.terminate();
+      f();
+    };
+    reader.onmessage = (ev: MessageEvent<ReaderOut>) => {
+      const m = ev.data;
+      try {
+        if (m.type === 'block') {
+          cb.onBlock(m.block);
+          send({ type: 'ack' });
+        } else if (m.type === 'layout') cb.onLayout?.(m.layout, m.head);
+        else if (m.type === 'progress') cb.onProgress?.(m.bytes);
+        else if (m.type === 'done') finish(() => resolve(m.report));
+        else finish(() => reject(Object.assign(new Error(m.message), { code: m.code })));
+      } catch (e) {
+        finish(() => reject(e));
+      }
+    };
+    reader.onerror = (ev) => finish(() => reject(new Error(`the reader worker stopped: ${ev.message || 'unknown error'}`)));
+    send({ type: 'read', file, settings });
+  });
 }
 
 self.onmessage = async (ev: MessageEvent<ToWorker>) => {
