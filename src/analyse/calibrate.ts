@@ -4,7 +4,7 @@
 import type { Settings } from '../settings.js';
 import type { SettingOrigin } from '../types.js';
 import { fitInspiratoryFall, type FallFit } from './fall-fit.js';
-import { median, quantile } from './stats.js';
+import { median, medianStep, quantile } from './stats.js';
 import { createSegmenter, type BreathBounds } from './segment.js';
 
 export interface Calibration {
@@ -47,9 +47,7 @@ export function estimateFlowOffset(
   const n = flow.length;
   const peak = quantile(absValues(flow), 0.95);
   if (!(peak > 0) || n < 10) return null;
-  const diffs: number[] = [];
-  for (let i = 1; i < Math.min(n, 2000); i++) diffs.push(t[i]! - t[i - 1]!);
-  const dt = median(diffs);
+  const dt = medianStep(t, 2000);
   const w = Math.max(5, Math.round(0.1 / dt));
   // sample-to-sample noise of flow near zero (robust: MAD of first differences / sqrt 2)
   const d1: number[] = [];
@@ -323,14 +321,6 @@ export function calibrate(
 
 // Helpers holding calibrate's loops: calibrate runs once per recording, and V8 recompiles a function as a whole when
 // one of its loops bails out; small loop functions are compiled once for all recordings.
-
-/** Median of the first `max` time steps (as the samples come, zero and negative steps included). */
-function medianStep(t: Float64Array, max: number): number {
-  const n = Math.min(t.length, max);
-  const d = new Float64Array(Math.max(0, n - 1));
-  for (let i = 1; i < n; i++) d[i - 1] = t[i]! - t[i - 1]!;
-  return median(d);
-}
 
 function shifted(x: Float64Array, offset: number): Float64Array {
   const out = new Float64Array(x.length);

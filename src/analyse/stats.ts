@@ -135,6 +135,14 @@ export function fitLine(x: ArrayLike<number>, y: ArrayLike<number>): LineFit {
   return { intercept, slope, r2: syy > 0 ? 1 - sse / syy : 1, rms: Math.sqrt(sse / n), n };
 }
 
+/** Median of the first steps t[i] - t[i-1], i < max (as the samples come: zero and negative steps included). */
+export function medianStep(t: ArrayLike<number>, max: number): number {
+  const n = Math.min(t.length, max);
+  const d = new Float64Array(Math.max(0, n - 1));
+  for (let i = 1; i < n; i++) d[i - 1] = t[i]! - t[i - 1]!;
+  return median(d);
+}
+
 /** Median of the positive steps t[i] - t[i-1], from the start, over at most `max` steps (NaN when none). */
 export function medianPositiveStep(t: ArrayLike<number>, max: number): number {
   const d = new Float64Array(Math.min(max, Math.max(0, t.length - 1)));

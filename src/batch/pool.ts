@@ -14,7 +14,7 @@
 // so the reader never waits); results arrive in completion order and the caller places them by index, so the
 // tables do not depend on scheduling. A worker that dies (e.g. out of memory) fails only the tasks it held and is
 // replaced.
-import { existsSync, statSync } from 'node:fs';
+import { existsSync } from 'node:fs';
 import { join } from 'node:path';
 import { Worker } from 'node:worker_threads';
 import { ReaderThread, readWorkerFile } from '../node/reader-thread.js';
@@ -86,7 +86,7 @@ export async function runLane(
   try {
     for (let t = await take(); t !== null; t = await take()) {
       const task = t;
-      const big = readerFile !== null && fileSize(task.path) >= readerMinBytes;
+      const big = readerFile !== null && task.bytes >= readerMinBytes;
       if (big && !reader) reader = new ReaderThread(readerFile);
       if (big && reader?.usable) {
         const p: Promise<void> = processRecording(task, reader!).then(complete);
@@ -104,14 +104,6 @@ export async function runLane(
   }
 }
 
-function fileSize(path: string): number {
-  try {
-    return statSync(path).size;
-  } catch {
-    return 0;
-  }
-}
-
 export async function runTasks(
   tasks: readonly RecordingTask[],
   jobs: number,
@@ -122,9 +114,8 @@ export async function runTasks(
 ): Promise<void> {
   if (!tasks.length) return;
   // pairs when at least half of the bytes are in recordings large enough for the reader thread
-  const sizes = tasks.map((t) => fileSize(t.path));
-  const total = sizes.reduce((a, b) => a + b, 0);
-  const big = sizes.reduce((a, b) => a + (b >= readerMinBytes ? b : 0), 0);
+  const total = tasks.reduce((a, t) => a + t.bytes, 0);
+  const big = tasks.reduce((a, t) => a + (t.bytes >= readerMinBytes ? t.bytes : 0), 0);
   const lanes = planLanes(jobs, tasks.length, readerFile !== null && total > 0 && big >= 0.5 * total);
   if (lanes.length > 1 && !workerFile) throw new Error(`the worker bundle ${WORKER_BUNDLE} was not found next to the CLI; run \`npm run build\``);
   let next = 0;

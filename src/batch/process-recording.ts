@@ -18,6 +18,8 @@ export interface RecordingTask {
   recording: string;
   /** absolute path of the file (read from here; messages and summary.json name the recording id instead) */
   path: string;
+  /** size of the file when the batch was planned (0 when it could not be read) */
+  bytes: number;
   /** absolute output folder of this recording */
   outFolder: string;
   settings: Settings;

@@ -66,6 +66,14 @@ export async function runBatch(o: BatchOptions): Promise<BatchOutcome> {
   const done = new Map<string, ManifestEntry>();
   if (previous && previous.version === VERSION) for (const e of previous.inputs) if (e.status === 'ok' && e.sha256) done.set(e.recording, e);
 
+  // sizes (bytes), read cheaply before hashing: for the progress bar and the choice of lanes
+  const sizes = picked.map(({ input }) => {
+    try {
+      return statSync(input.path).size;
+    } catch {
+      return 0;
+    }
+  });
   const entries: ManifestEntry[] = [];
   const tasks: RecordingTask[] = [];
   for (const [k, { input, folder }] of picked.entries()) {
@@ -85,7 +93,7 @@ export async function runBatch(o: BatchOptions): Promise<BatchOutcome> {
             rows: null, breaths_found: null, breaths_ok: null, resumed: false, elapsed_s: null,
           },
     );
-    tasks.push({ index: k, recording: input.recording, path, outFolder: join(outDir, folder), settings: rs.settings, given: rs.given, resumeSha256 });
+    tasks.push({ index: k, recording: input.recording, path, bytes: sizes[k]!, outFolder: join(outDir, folder), settings: rs.settings, given: rs.given, resumeSha256 });
   }
 
   const manifest: Manifest = {
@@ -101,14 +109,6 @@ export async function runBatch(o: BatchOptions): Promise<BatchOutcome> {
   };
   writeManifest();
 
-  // sizes for the progress bar (bytes), read cheaply before hashing
-  const sizes = picked.map(({ input }) => {
-    try {
-      return statSync(input.path).size;
-    } catch {
-      return 0;
-    }
-  });
   const progress = createProgress(picked.map(({ input }, k) => ({ recording: input.recording, size: sizes[k]! })), { mode: o.progress });
   let lastWrite = performance.now();
   await runTasks(

@@ -337,7 +337,7 @@ export class LineScanner {
 const utf8 = new TextDecoder('utf-8', { ignoreBOM: true });
 
 /** The text of bytes [from, to): ASCII directly, anything else through the UTF-8 decoder (same text as decoding the file). */
-export function cellText(s: Uint8Array, from: number, to: number): string {
+function cellText(s: Uint8Array, from: number, to: number): string {
   let ascii = true;
   for (let i = from; i < to; i++) {
     if (s[i]! >= 0x80) {

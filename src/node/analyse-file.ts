@@ -53,13 +53,3 @@ export async function analyseFile(path: string, settings: Settings, options: Ana
     if (own) void own.close();
   }
 }
-
-/** Reads one file in a reader thread of its own (`workerFile`), calling onBlock here; resolves to the ingest report. */
-export async function readInWorker(workerFile: string, path: string, settings: Settings, onBlock: (b: SampleBlock) => void): Promise<IngestReport> {
-  const reader = new ReaderThread(workerFile);
-  try {
-    return (await reader.read(path, settings, onBlock)).report;
-  } finally {
-    void reader.close();
-  }
-}

@@ -2,7 +2,7 @@
 // CLI finds its bundled worker, exits 4 when a file failed and 2 on usage errors with one line.
 import { spawnSync } from 'node:child_process';
 import { createHash } from 'node:crypto';
-import { mkdirSync, mkdtempSync, readdirSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
+import { mkdirSync, mkdtempSync, readdirSync, readFileSync, rmSync, statSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
@@ -75,7 +75,7 @@ describe('a failing result handler', () => {
   it.each([1, 2, 3])('ends the run with its error (--jobs %i), instead of hanging or crashing', async (jobs) => {
     const data = join(dir, 'data');
     const tasks: RecordingTask[] = readdirSync(data).sort().map((f, index) => ({
-      index, recording: f, path: join(data, f), outFolder: join(dir, 'handler-out', String(jobs), f), settings: defaultSettings(), given: [], resumeSha256: null,
+      index, recording: f, path: join(data, f), bytes: statSync(join(data, f)).size, outFolder: join(dir, 'handler-out', String(jobs), f), settings: defaultSettings(), given: [], resumeSha256: null,
     }));
     const boom = new Error('manifest not writable');
     let calls = 0;

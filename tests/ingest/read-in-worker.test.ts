@@ -6,7 +6,6 @@ import { describe, expect, it } from 'vitest';
 import { isInputError } from '../../src/ingest/errors.js';
 import { createHash } from 'node:crypto';
 import { readFileSync } from 'node:fs';
-import { readInWorker } from '../../src/node/analyse-file.js';
 import { ReaderThread } from '../../src/node/reader-thread.js';
 import { readRecordingFile } from '../../src/node/read-recording.js';
 import { defaultSettings } from '../../src/settings.js';
@@ -15,6 +14,16 @@ import type { SampleBlock } from '../../src/types.js';
 const worker = fileURLToPath(new URL('../../dist/read-worker.cjs', import.meta.url));
 const sample = fileURLToPath(new URL('../../sample-waveforms/child-sidestream.csv', import.meta.url));
 const sample2 = fileURLToPath(new URL('../../sample-waveforms/adult-healthy.csv', import.meta.url));
+
+/** One file through a reader thread of its own, as `analyse` reads it. */
+async function readInWorker(workerFile: string, path: string, settings: ReturnType<typeof defaultSettings>, onBlock: (b: SampleBlock) => void) {
+  const reader = new ReaderThread(workerFile);
+  try {
+    return (await reader.read(path, settings, onBlock)).report;
+  } finally {
+    await reader.close();
+  }
+}
 
 function flatten(blocks: SampleBlock[]): number[] {
   const out: number[] = [];
