@@ -10,6 +10,7 @@ import { deconvolveFirstOrder, interpolateAt, scratchFor, type DeconvolveScratch
 import { calibrate, type Calibration } from './calibrate.js';
 import { decomposeBreath, type BreathDecomposition, type BreathSignals } from './decompose.js';
 import { fitInspiratoryFall, lowerBound } from './fall-fit.js';
+import { inspirationReversalTime } from './flow-reversal.js';
 import { checkBreath, markOutliers, statusOf } from './quality.js';
 import { createSegmenter, type BreathBounds, type Segmenter } from './segment.js';
 import { countFinite, median, medianPositiveStep } from './stats.js';
@@ -200,8 +201,9 @@ class StreamAnalyser implements Analyser {
     const dec = deconvolveFirstOrder(t, co2, tau, scratch);
     const fast = interpolateAt(dec.t, dec.x, t, c.delay_s, this.fastBuf);
     const raw = interpolateAt(t, co2, t, c.delay_s, this.rawBuf);
-    const fall = fitInspiratoryFall(t, co2, b.t_end_s + c.delay_s - 0.35, b.t_end_s + c.delay_s + 0.65);
-    const breathDelay = fall ? fall.t0_s - b.t_end_s : NaN;
+    const reversal = inspirationReversalTime(t, f, b.t_end_s);
+    const fall = fitInspiratoryFall(t, co2, reversal + c.delay_s - 0.35, reversal + c.delay_s + 0.65);
+    const breathDelay = fall ? fall.t0_s - reversal : NaN;
     if (fall) this.breathDelays.push(breathDelay);
     const signals: BreathSignals = {
       t_s: t,

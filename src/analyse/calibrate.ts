@@ -6,6 +6,8 @@ import type { SettingOrigin } from '../types.js';
 import { fitInspiratoryFall, type FallFit } from './fall-fit.js';
 import { median, medianStep, quantile } from './stats.js';
 import { createSegmenter, type BreathBounds } from './segment.js';
+import { inspirationReversalTime } from './flow-reversal.js';
+import { robustDelay } from './robust-delay.js';
 
 export interface Calibration {
   /** multiply (file flow - offset) by this to get expiration positive */
@@ -14,6 +16,10 @@ export interface Calibration {
   /** flow offset in the file's sign convention, L/s */
   offset_lps: number;
   offset_origin: SettingOrigin;
+  /** where the offset came from: still flow at end-inspiration, at end-expiration, both, given, or none found */
+  offset_source: OffsetSource | 'given' | 'none';
+  /** standard error of the estimated offset, L/s (NaN when given or not found) */
+  offset_uncertainty_lps: number;
   delay_s: number;
   delay_origin: SettingOrigin;
   response_ms: number;
@@ -24,74 +30,142 @@ export interface Calibration {
   typical_vt_ml: number;
   /** spread (interquartile range) of per-breath delay estimates in the calibration window, s */
   delay_iqr_s: number;
+  /** standard error of the estimated delay, s (NaN when given or not estimable) */
+  delay_uncertainty_s: number;
+  /** share of the calibration breaths whose downstroke agrees with the delay (its cluster) */
+  delay_agreement: number;
+  /** false when the per-breath delays do not agree on one value (no cluster holds most breaths) */
+  delay_trusted: boolean;
   fall_fits: number;
   notes: string[];
 }
 
+/** Where a flow offset estimate came from. */
+export type OffsetSource = 'end_inspiratory_pause' | 'end_expiratory_rest';
+
+/** The decaying end of one phase of a breath (sample index range, end exclusive) and which phase it ends. */
+export interface DecaySpan {
+  from: number;
+  to: number;
+  kind: 'end_inspiratory' | 'end_expiratory';
+}
+
+/** Offset estimate: the median level, how many phase ends gave one, its standard error and where it came from. */
+export interface OffsetEstimate {
+  offset: number;
+  spans: number;
+  uncertainty_lps: number;
+  source: OffsetSource;
+}
+
+/** Candidate decay time constants of a phase end, s (log-spaced 0.02-5 s). */
+const DECAY_TAUS: number[] = Array.from({ length: 36 }, (_, k) => 0.02 * Math.pow(250, k / 35));
+
 /**
- * Flow zero offset from still periods: windows of 0.1 s (at least 5 samples) in which flow is near zero (within 10 % of
- * peak flow), level (least-squares drift across the window below 0.2 % of peak flow plus twice its
- * noise-driven spread) and quiet (residual SD below 0.5 % of peak flow or twice the sample noise). Inspiratory pauses and end-expiratory rests are such periods, and the true
- * flow there is zero, so their median level is the sensor's zero (primer 9.4: common practice, no source).
- * `spans` restricts the search to given time spans: the calibration passes the end-inspiratory part of each breath
- * (between inspiratory flow and expiration onset), because a slowly decaying expiratory tail or cardiogenic ripple
- * at end-expiration can look level within noise while not being zero flow. Returns null when there is no still
- * period (e.g. continuous decelerating flow, no inspiratory pause): the offset is then not corrected, and the
- * caller says so.
+ * Flow zero offset from the ends of the breath's phases (end-inspiratory pauses; end-expiratory stretches only when
+ * no breath has such a pause). After the peak of each phase, flow decays towards zero:
+ * abruptly into an inspiratory pause (square flow), exponentially in a decelerating inspiration or a passive
+ * expiration, or into an end-expiratory rest. Each phase end from a tenth of its peak flow onwards is fitted with
+ *   f(t) = c + A exp(-(t - t_s)/tau)
+ * (tau from a log grid, c and A by linear least squares): c is where the flow settles, the sensor's zero. A still
+ * stretch gives tau small and c its mean level; a slowly decaying tail that looks level within noise is modelled
+ * instead of being taken for zero flow. A fit counts when it has at least 8 samples, its residual RMS is below
+ * max(3 x sample noise, 1.5 % of peak flow) (a non-exponential shape such as the end of a half-sine inspiration
+ * fails) and the modelled tail has fallen below 1 % of peak flow by the phase end (c is measured, not extrapolated).
+ * The offset is the median of c over phase ends (common practice, no source for the zero-flow principle; the decay
+ * model is derived here from the single-compartment passive expiration, flow ∝ exp(-t/RC)).
+ * Returns null when fewer than 30 % of the breaths (or fewer than 3 phase ends) give a fit: no correction then.
  */
 export function estimateFlowOffset(
   t: ArrayLike<number>,
   flow: ArrayLike<number>,
-  spans: { from_s: number; to_s: number }[] | null = null,
-): { offset: number; windows: number } | null {
+  spans: DecaySpan[],
+  breaths: number,
+): OffsetEstimate | null {
   const n = flow.length;
   const peak = quantile(absValues(flow), 0.95);
   if (!(peak > 0) || n < 10) return null;
-  const dt = medianStep(t, 2000);
-  const w = Math.max(5, Math.round(0.1 / dt));
   // sample-to-sample noise of flow near zero (robust: MAD of first differences / sqrt 2)
   const d1: number[] = [];
   for (let i = 1; i < n && d1.length < 50_000; i++) {
     if (Math.abs(flow[i]!) < 0.05 * peak && Math.abs(flow[i - 1]!) < 0.05 * peak) d1.push(Math.abs(flow[i]! - flow[i - 1]!));
   }
   const noiseSd = d1.length ? (1.4826 * median(d1)) / Math.SQRT2 : 0;
-  const levels: number[] = [];
-  for (let s0 = 0; s0 + w <= n; s0 += Math.max(1, w >> 1)) {
-    if (spans && !spans.some((sp) => t[s0]! >= sp.from_s && t[s0 + w - 1]! <= sp.to_s)) continue;
-    let sf = 0;
-    let ok = true;
-    for (let i = s0; i < s0 + w; i++) {
-      const f = flow[i]!;
-      if (!(f === f) || Math.abs(f) > 0.1 * peak) {
-        ok = false;
-        break;
-      }
-      sf += f;
-    }
-    if (!ok) continue;
-    const mean = sf / w;
-    // least-squares drift over the window and residual SD
-    const mid = (w - 1) / 2;
-    let sxy = 0;
-    let sxx = 0;
-    for (let k = 0; k < w; k++) {
-      sxy += (k - mid) * (flow[s0 + k]! - mean);
-      sxx += (k - mid) * (k - mid);
-    }
-    const slope = sxy / sxx;
-    let sse = 0;
-    for (let k = 0; k < w; k++) {
-      const r = flow[s0 + k]! - mean - slope * (k - mid);
-      sse += r * r;
-    }
-    const sd = Math.sqrt(sse / Math.max(1, w - 2));
-    const drift = Math.abs(slope * (w - 1));
-    const driftSpread = sd * Math.sqrt(12 / w);
-    if (sd < Math.max(0.005 * peak, 2 * noiseSd) && drift < 0.002 * peak + 2 * driftSpread) levels.push(mean);
+  const maxRms = Math.max(3 * noiseSd, 0.015 * peak);
+  const levels: { level: number; kind: DecaySpan['kind'] }[] = [];
+  for (const sp of spans) {
+    const fit = fitDecay(t, flow, sp.from, sp.to);
+    if (fit && fit.rms <= maxRms && Math.abs(fit.tailEnd) < 0.01 * peak) levels.push({ level: fit.level, kind: sp.kind });
   }
-  // a trustworthy zero needs still periods in a good share of the breaths, not a few lucky windows
-  if (levels.length < 3 || (spans && levels.length < 0.3 * spans.length)) return null;
-  return { offset: median(levels), windows: levels.length };
+  // end-inspiratory pauses are the cleaner zero; end-expiratory stretches are used when no breath has such a pause
+  const insp = levels.filter((x) => x.kind === 'end_inspiratory');
+  const used = insp.length >= 3 && insp.length >= 0.3 * breaths ? insp : levels.filter((x) => x.kind === 'end_expiratory');
+  if (used.length < 3 || used.length < 0.3 * breaths) return null;
+  const values = used.map((x) => x.level);
+  const offset = median(values);
+  const spread = 1.4826 * median(values.map((v) => Math.abs(v - offset)));
+  return {
+    offset,
+    spans: used.length,
+    uncertainty_lps: (1.2533 * spread) / Math.sqrt(used.length),
+    source: used === insp ? 'end_inspiratory_pause' : 'end_expiratory_rest',
+  };
+}
+
+/** Least-squares fit of c + A exp(-(t - t_from)/tau) over samples [from, to): tau from the grid, then refined by a
+ *  golden-section search between the grid neighbours of the best grid value (a coarse tau would bias c). */
+function fitDecay(t: ArrayLike<number>, flow: ArrayLike<number>, from: number, to: number): { level: number; tailEnd: number; rms: number } | null {
+  if (to - from < 8) return null;
+  let bestK = -1;
+  let bestSse = Infinity;
+  for (let k = 0; k < DECAY_TAUS.length; k++) {
+    const fit = decayFitAt(t, flow, from, to, DECAY_TAUS[k]!);
+    if (fit && fit.sse < bestSse) {
+      bestSse = fit.sse;
+      bestK = k;
+    }
+  }
+  if (bestK < 0) return null;
+  let lo = DECAY_TAUS[Math.max(0, bestK - 1)]!;
+  let hi = DECAY_TAUS[Math.min(DECAY_TAUS.length - 1, bestK + 1)]!;
+  const g = (Math.sqrt(5) - 1) / 2;
+  for (let it = 0; it < 25; it++) {
+    const a = hi - g * (hi - lo);
+    const b = lo + g * (hi - lo);
+    const fa = decayFitAt(t, flow, from, to, a)?.sse ?? Infinity;
+    const fb = decayFitAt(t, flow, from, to, b)?.sse ?? Infinity;
+    if (fa <= fb) hi = b;
+    else lo = a;
+  }
+  const tau = 0.5 * (lo + hi);
+  const fit = decayFitAt(t, flow, from, to, tau);
+  const best = fit && fit.sse <= bestSse ? fit : decayFitAt(t, flow, from, to, DECAY_TAUS[bestK]!)!;
+  return { level: best.level, tailEnd: best.tailEnd, rms: Math.sqrt(best.sse / (to - from)) };
+}
+
+/** Linear least squares of flow on [1, exp(-(t - t_from)/tau)] for one tau. */
+function decayFitAt(t: ArrayLike<number>, flow: ArrayLike<number>, from: number, to: number, tau: number): { level: number; tailEnd: number; sse: number } | null {
+  const m = to - from;
+  const t0 = t[from]!;
+  let su = 0;
+  let suu = 0;
+  let sy = 0;
+  let suy = 0;
+  for (let i = from; i < to; i++) {
+    const u = Math.exp(-(t[i]! - t0) / tau);
+    const y = flow[i]!;
+    su += u;
+    suu += u * u;
+    sy += y;
+    suy += u * y;
+  }
+  const det = m * suu - su * su;
+  if (!(det > 1e-12 * m * m)) return null;
+  const amp = (m * suy - su * sy) / det;
+  const level = (sy - amp * su) / m;
+  let sse = 0;
+  for (let i = from; i < to; i++) sse += (flow[i]! - level - amp * Math.exp(-(t[i]! - t0) / tau)) ** 2;
+  return { level, tailEnd: amp * Math.exp(-(t[to - 1]! - t0) / tau), sse };
 }
 
 function absValues(a: ArrayLike<number>): Float64Array {
@@ -248,6 +322,8 @@ export function calibrate(
   const offsetGiven = a.flow_offset_lps !== null;
   let offset = offsetGiven ? a.flow_offset_lps! : 0;
   let offsetFound = offsetGiven;
+  let offsetSource: OffsetSource | 'given' | 'none' = offsetGiven ? 'given' : 'none';
+  let offsetUncertainty = NaN;
   const flow = shifted(flowFile, offset);
   const peak = quantile(absValues(flow), 0.95);
   const thr = a.flow_threshold_fraction * peak;
@@ -277,23 +353,40 @@ export function calibrate(
   }
   scale(flow, sign);
   if (!offsetGiven) {
-    const spans = endInspiratorySpans(t, flow, breathBounds(t, flow, thr, minVol, a.min_phase_s));
-    const est = estimateFlowOffset(t, flow, spans);
+    const bounds = breathBounds(t, flow, thr, minVol, a.min_phase_s);
+    const est = estimateFlowOffset(t, flow, decaySpans(t, flow, bounds), bounds.length);
     if (est) {
       offset = sign * est.offset; // in the file's sign convention
       offsetFound = true;
+      offsetSource = est.source;
+      offsetUncertainty = est.uncertainty_lps;
       subtract(flow, est.offset);
-    } else notes.push('no end-inspiratory pause found: flow offset not corrected; set analysis.flow_offset_lps in a settings file if it is known');
+    } else {
+      notes.push(
+        'no phase end settles to a steady flow (end-inspiratory pause or end-expiratory rest): flow offset not corrected; set analysis.flow_offset_lps in a settings file if it is known',
+      );
+    }
   }
 
-  // per-breath fall fits around the coarse lag
-  const fits = fallFits(t, co2, breathBounds(t, flow, thr, minVol, a.min_phase_s), delayGiven ? a.delay_s! : coarseLag);
-  const delays = fits.map((f) => f.delay);
+  // per-breath CO2 downstrokes: the sensor's time constant and the transport delay (densest cluster of the
+  // per-breath delays; w: two sample intervals, at least 10 ms)
+  const fits = fallFits(t, flow, co2, breathBounds(t, flow, thr, minVol, a.min_phase_s), delayGiven ? a.delay_s! : coarseLag);
+  const delaySamples = fits.map((f) => f.delay);
   const taus = fits.map((f) => f.fit.tau_s);
-  let delay = delayGiven ? a.delay_s! : fits.length ? median(delays) : coarseLag;
-  if (!delayGiven && delay < 0) delay = Math.max(0, delay);
   const responseGiven = a.response_ms !== null;
   const tau = responseGiven ? a.response_ms! / 1000 : taus.length ? Math.max(0, median(taus)) : 0;
+  const est = robustDelay(delaySamples, Math.max(0.01, 2 * dt));
+  let delay = delayGiven ? a.delay_s! : fits.length ? est.delay_s : coarseLag;
+  // a slightly negative delay is real when the export averages flow over each interval and stamps it at the end
+  // (flow then lags CO2 by half an interval); more than that is not a transport delay
+  if (!delayGiven) delay = Math.max(-1.5 * dt, delay);
+  const delayTrusted = delayGiven || (fits.length > 0 && est.trusted);
+  if (!delayGiven && fits.length && !est.trusted) {
+    notes.push(
+      `the breaths do not agree on one transport delay (only ${(100 * est.share).toFixed(0)} % of ${est.breaths} breaths within ` +
+        `the largest cluster): the delay ${delay.toFixed(3)} s cannot be trusted; give --delay if it is known`,
+    );
+  }
   if (!fits.length) notes.push('no clean inspiratory CO2 downstroke found: delay from the coarse search, response time 0');
   if (!delayGiven && (tau >= 0.035 || delay >= 0.2)) {
     notes.push(
@@ -307,13 +400,18 @@ export function calibrate(
     sign_origin: signGiven ? 'given' : 'inferred',
     offset_lps: offset,
     offset_origin: offsetGiven ? 'given' : offsetFound ? 'inferred' : 'default',
+    offset_source: offsetSource,
+    offset_uncertainty_lps: offsetUncertainty,
     delay_s: delay,
     delay_origin: delayGiven ? 'given' : 'inferred',
     response_ms: tau * 1000,
     response_origin: responseGiven ? 'given' : 'inferred',
     peak_flow_lps: peak,
     typical_vt_ml: typicalVt,
-    delay_iqr_s: delays.length ? quantile(delays, 0.75) - quantile(delays, 0.25) : NaN,
+    delay_iqr_s: delaySamples.length ? quantile(delaySamples, 0.75) - quantile(delaySamples, 0.25) : NaN,
+    delay_uncertainty_s: delayGiven ? NaN : est.uncertainty_s,
+    delay_agreement: est.share,
+    delay_trusted: delayTrusted,
     fall_fits: fits.length,
     notes,
   };
@@ -343,22 +441,40 @@ function lagGrid(dt: number, maxDelayS: number): number[] {
   return lags;
 }
 
-/** End-inspiratory part of each breath: from peak inspiratory flow to just before the expiration onset. */
-function endInspiratorySpans(t: Float64Array, flow: Float64Array, bounds: BreathBounds[]): { from_s: number; to_s: number }[] {
-  const spans: { from_s: number; to_s: number }[] = [];
+/**
+ * The decaying end of each phase: from where flow has fallen to a tenth of its peak (after the peak) to 20 ms before the
+ * next phase starts.
+ */
+function decaySpans(t: Float64Array, flow: Float64Array, bounds: BreathBounds[]): DecaySpan[] {
+  const spans: DecaySpan[] = [];
   for (const b of bounds) {
-    let k = b.i_insp;
-    for (let i = b.i_insp; i < b.i_exp; i++) if (flow[i]! < flow[k]!) k = i;
-    spans.push({ from_s: t[k]!, to_s: b.t_exp_s - 0.02 });
+    spans.push({ from: tenthPeakAfter(flow, b.i_insp, b.i_exp, -1), to: lastBefore(t, b.i_exp, b.t_exp_s - 0.02), kind: 'end_inspiratory' });
+    spans.push({ from: tenthPeakAfter(flow, b.i_exp, b.i_end, 1), to: lastBefore(t, b.i_end, b.t_end_s - 0.02), kind: 'end_expiratory' });
   }
   return spans;
 }
 
+/** First index after the phase's peak (sign: -1 inspiration, +1 expiration) where |flow| is at most 10 % of it. */
+function tenthPeakAfter(flow: Float64Array, from: number, to: number, sign: 1 | -1): number {
+  let k = from;
+  for (let i = from; i < to; i++) if (sign * flow[i]! > sign * flow[k]!) k = i;
+  const tenth = 0.1 * sign * flow[k]!;
+  while (k < to && sign * flow[k]! > tenth) k++;
+  return k;
+}
+
+/** End (exclusive) of the samples before time x, searching back from index i. */
+function lastBefore(t: Float64Array, i: number, x: number): number {
+  let k = Math.min(i, t.length);
+  while (k > 0 && t[k - 1]! > x) k--;
+  return k;
+}
+
 /** The inspiratory CO2 fall of each breath, searched from `lag` - 0.35 s after its inspiration onset. */
-function fallFits(t: Float64Array, co2: Float64Array, bounds: BreathBounds[], lag: number): { delay: number; fit: FallFit }[] {
+function fallFits(t: Float64Array, flow: Float64Array, co2: Float64Array, bounds: BreathBounds[], lag: number): { delay: number; fit: FallFit }[] {
   const fits: { delay: number; fit: FallFit }[] = [];
   for (const b of bounds) {
-    const tr = b.t_end_s;
+    const tr = inspirationReversalTime(t, flow, b.t_end_s);
     const lo = tr + lag - 0.35;
     const fit = fitInspiratoryFall(t, co2, Math.max(tr - 0.05, lo), lo + 1.0);
     if (fit) fits.push({ delay: fit.t0_s - tr, fit });

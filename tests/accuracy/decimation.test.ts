@@ -1,0 +1,39 @@
+// Sampling-rate invariance (see decimation.ts): each pattern simulated at 1 kHz, exported device-style at 200, 100
+// and 50 Hz (flow averaged over each interval, stamped at its end; CO2 point-sampled), analysed with default
+// settings. Limits: median airway dead space within 1.5 % (infants 0.5 mL) of the truth and of the 1 kHz result,
+// PĒCO2 within 0.3 mmHg, phase III slope within 10 %. Ground truth: the simulator's noise-free model.
+// Combinations that do not meet the limits yet are listed in KNOWN_SHORTFALLS and run as expected failures: they
+// fail this file as soon as they start to pass (then move them out of the list). docs/accuracy.md has the table.
+import { describe, expect, it } from 'vitest';
+import { PATTERNS, checkRate, runPattern } from './decimation.js';
+
+/** pattern index:rate — measured shortfalls of the current analysis (docs/accuracy.md gives the numbers) */
+const KNOWN_SHORTFALLS = new Set<string>([
+  '1:100', // adult fast expiration: VDaw -1.4 % of truth but 2.1 % from the 1 kHz result
+  '1:50', // adult fast expiration: VDaw -9.7 %, PĒCO2 +1.1 mmHg (flow averaging of a step expiration)
+  '2:100', // infant fast expiration: PĒCO2 +0.37 mmHg
+  '2:50', // infant fast expiration: VDaw -1.3 mL
+  '3:200', // spontaneous with ripple: PĒCO2 +0.4 mmHg (also at 1 kHz: VDaw +2.3 %)
+  '3:100',
+  '3:50',
+  '4:100', // sidestream child: VDaw 1.85 % from the 1 kHz result (-0.8 % of truth)
+]);
+
+describe('sampling-rate sweep: device-style exports at 200, 100 and 50 Hz', () => {
+  PATTERNS.forEach((pattern, index) => {
+    const run = (() => {
+      let cached: ReturnType<typeof runPattern> | null = null;
+      return () => (cached ??= runPattern(pattern, [1000, 200, 100, 50]));
+    })();
+    for (const rate of [200, 100, 50]) {
+      const key = `${index}:${rate}`;
+      const body = () => {
+        const { sim, results } = run();
+        const result = results.find((r) => r.rate_hz === rate)!;
+        expect(checkRate(pattern, sim, results[0]!, result)).toEqual([]);
+      };
+      if (KNOWN_SHORTFALLS.has(key)) it.fails(`${pattern.name} at ${rate} Hz (known shortfall)`, body);
+      else it(`${pattern.name} at ${rate} Hz is within the limits`, body);
+    }
+  });
+});
