@@ -11,7 +11,7 @@ export interface WeightChoice {
 }
 
 /**
- * Body weight used for per-kg dead-space values (primer 12): predicted body weight (ARDSNet, cm form) for adults
+ * Body weight used for per-kg dead-space values: predicted body weight (ARDSNet, cm form) for adults
  * when height and sex are given, otherwise actual weight, otherwise none.
  * PBW formula: men 50 + 0.91 (height_cm - 152.4), women 45.5 + 0.91 (height_cm - 152.4) kg
  * [published: ARDSNet 2000 NEJM and Devine 1974 as restated in multiple secondary sources]. The formula is for
