@@ -11,12 +11,33 @@ const read = (path: string): string => readFileSync(new URL(path, root), 'utf8')
 const readme = read('README.md');
 const manual = read('docs/manual.md');
 
-/** Markdown link targets of a text, without the `#anchor` part; web addresses are left out. */
-function localLinks(text: string): string[] {
+/** Markdown link targets of a text (file and optional `#anchor`); web addresses and same-page anchors are left out. */
+function localTargets(text: string): { file: string; anchor: string }[] {
   return [...text.matchAll(/\]\(([^)\s]+)\)/g)]
     .map((m) => m[1]!)
     .filter((t) => !/^[a-z]+:/i.test(t) && !t.startsWith('#'))
-    .map((t) => t.split('#')[0]!);
+    .map((t) => ({ file: t.split('#')[0]!, anchor: t.split('#')[1] ?? '' }));
+}
+const localLinks = (text: string): string[] => localTargets(text).map((t) => t.file);
+
+/** Heading anchors of a Markdown text as GitHub forms them: lower case, punctuation dropped, spaces to hyphens. */
+function anchors(markdown: string): Set<string> {
+  const out = new Set<string>();
+  for (const m of markdown.matchAll(/^#{1,6} +(.+)$/gm)) {
+    out.add(m[1]!.trim().toLowerCase().replace(/[^\p{L}\p{N} _-]/gu, '').replace(/ /g, '-'));
+  }
+  return out;
+}
+
+/** Every local link target of `text` (a file in `dir`) exists, and so does its heading anchor when it names one. */
+function expectLinksResolve(text: string, dir: URL, from: string): void {
+  for (const { file, anchor } of localTargets(text)) {
+    const target = new URL(file, dir);
+    expect(existsSync(target), `${from} -> ${file}`).toBe(true);
+    if (anchor && file.endsWith('.md')) {
+      expect([...anchors(readFileSync(target, 'utf8'))], `${from} -> ${file}#${anchor}`).toContain(anchor);
+    }
+  }
 }
 
 describe('README', () => {
@@ -34,12 +55,12 @@ describe('README', () => {
     expect(readme).toMatch(/arterial blood[\s>]+gases/);
     expect(readme).toMatch(/licensed clinicians decide/);
   });
-  it('links the manual, methods, batch, performance and accuracy pages, and every local link exists', () => {
+  it('links the manual, methods, batch, performance and accuracy pages, and every local link and anchor exists', () => {
     const links = localLinks(readme);
     for (const page of ['docs/manual.md', 'docs/methods.md', 'docs/batch.md', 'docs/performance.md', 'docs/accuracy.md']) {
       expect(links, page).toContain(page);
     }
-    for (const target of links) expect(existsSync(new URL(target, root)), target).toBe(true);
+    expectLinksResolve(readme, root, 'README.md');
   });
 });
 
@@ -52,12 +73,9 @@ describe('docs/', () => {
     for (const k of Object.keys(DEFAULT_ANALYSIS)) expect(manual, k).toContain(`analysis.${k}`);
     for (const k of Object.keys(DEFAULT_TRENDS)) expect(manual, k).toContain(`events.${k}`);
   });
-  it('every local link between the docs pages exists', () => {
+  it('every local link of the docs pages exists, with its heading anchor', () => {
     for (const page of ['manual', 'methods', 'batch', 'performance', 'accuracy']) {
-      const dir = new URL('docs/', root);
-      for (const target of localLinks(read(`docs/${page}.md`))) {
-        expect(existsSync(new URL(target, dir)), `docs/${page}.md -> ${target}`).toBe(true);
-      }
+      expectLinksResolve(read(`docs/${page}.md`), new URL('docs/', root), `docs/${page}.md`);
     }
   });
 });
