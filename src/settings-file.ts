@@ -98,7 +98,7 @@ export function parseSettingsFile(text: string, fileName: string): SettingsFile 
   if (!r.success) {
     const issue = r.error.issues[0]!;
     const where = issue.path.length ? issue.path.join('.') : '(top level)';
-    throw new SettingsError(`${fileName}: setting ${where}: ${issue.message}. See the settings table in the README.`);
+    throw new SettingsError(`${fileName}: setting ${where}: ${issue.message}. See the settings table in docs/manual.md.`);
   }
   return r.data;
 }

@@ -20,14 +20,14 @@ export interface IngestSettings {
   co2_unit: 'mmHg' | 'kPa' | '%' | null;
   /** barometric pressure for % conversion, mmHg */
   pb_mmhg: number;
-  /** 'ambient': PCO2 = F x PB; 'dry': PCO2 = F x (PB - 47) (primer 7.2) */
+  /** 'ambient': PCO2 = F x PB; 'dry': PCO2 = F x (PB - 47) (common practice, no source) */
   co2_percent: 'ambient' | 'dry';
   /** sign of expiratory flow in the file; null = infer (CO2 rises while the patient breathes out) */
   expiration: 'positive' | 'negative' | null;
   /** a channel silent for longer than this is a gap, s */
   max_silence_s: number;
   /** gas condition in which the flow sensor reports volume: 'btps' (as used internally; no conversion), 'atps'
-   *  (ambient temperature, saturated) or 'atpd' (ambient, dry) — converted to BTPS at ingest (primer 7.3-7.4) */
+   *  (ambient temperature, saturated) or 'atpd' (ambient, dry) — converted to BTPS at ingest (derived here: docs/methods.md, Derivations) */
   flow_condition: 'btps' | 'atps' | 'atpd';
   /** gas temperature at the flow sensor for 'atps' / 'atpd', deg C */
   flow_temp_c: number;
@@ -48,21 +48,22 @@ export interface AnalysisSettings {
   min_volume_fraction: number;
   /** minimum duration of an expiration or inspiration, s */
   min_phase_s: number;
-  /** PETCO2 definition (primer 5.4) */
+  /** PETCO2 definition (common practice, no source) */
   petco2_method: 'line_end' | 'last' | 'max' | 'mean_last';
   /** for petco2_method 'mean_last': share of expired volume averaged */
   petco2_last_fraction: number;
-  /** phase III regression window (primer 4) */
+  /** phase III regression window (common practice, no source) */
   phase3_window: 'middle_half' | 'all' | 'middle_half_vd';
   /** phase III starts where CO2 first reaches this fraction of the (preliminary) phase III line after the inflection */
   phase3_level_fraction: number;
   /** samples with expiratory flow below this fraction of peak expiratory flow are left out of the phase III fit */
   phase3_low_flow_fraction: number;
-  /** Fowler upper limit V_x: end of expiration or start of the regression window (primer 3.1) */
+  /** Fowler upper limit V_x: end of expiration or start of the regression window (Fowler WS 1948, Am J Physiol 154:405-416) */
   fowler_limit: 'end' | 'window_start';
-  /** alveolar PCO2 for Bohr: midpoint of phase III (primer 5.6) or mean alveolar expired PCO2 */
+  /** alveolar PCO2 for Bohr: midpoint of phase III (Tusman G et al. 2011, "Validation of Bohr dead space measured by
+   *  volumetric capnography", Intensive Care Med 37:870-874) or mean alveolar expired PCO2 */
   alveolar_method: 'phase3_mid' | 'mean_alveolar';
-  /** Bohr with the inspired CO2 term (primer 6.1) */
+  /** Bohr with the inspired CO2 term (common practice, no source) */
   bohr_inspired_term: boolean;
   /** apparatus volume between sensor and patient to subtract from airway dead space, mL */
   apparatus_ml: number;

@@ -1,4 +1,4 @@
-// The command line as users meet it (issue 5): every failure is one line on stderr with the documented exit code,
+// The command line as users meet it: every failure is one line on stderr with the documented exit code,
 // never a stack trace; a good run exits 0 and writes its files. Runs the built CLI (npm test builds it first).
 import { spawnSync } from 'node:child_process';
 import { existsSync, mkdtempSync, writeFileSync } from 'node:fs';

@@ -93,7 +93,7 @@ export function settingsProblem(s: Settings): string | null {
     parseSettingsFile(JSON.stringify(changedSettingsFile(s)), 'settings');
     return null;
   } catch (e) {
-    return (e as Error).message.replace(/^settings: /, '').replace(/ See the settings table in the README\.$/, '');
+    return (e as Error).message.replace(/^settings: /, '').replace(/ See the settings table in docs\/manual\.md\.$/, '');
   }
 }
 

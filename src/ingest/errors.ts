@@ -1,7 +1,7 @@
 // Input errors of the ingest layer: one class, stable codes, one-line messages, exit codes.
 // A data problem that leaves the file usable is never thrown (rows are skipped and counted instead);
 // only a file that cannot be analysed at all, or a setting that cannot work, throws an InputError.
-// The table of codes lives in src/ingest/ERRORS.md (copied into the README).
+// The table of codes lives in src/ingest/ERRORS.md (copied into docs/manual.md).
 
 /** Stable error codes. Never rename one: scripts and batch manifests match on them. */
 export const INPUT_ERROR_CODES = [

@@ -92,7 +92,7 @@ export function sniffTable(head: string, settings: IngestSettings, min_rate_hz: 
 
   const recorded = (value: unknown, origin: RecordedSetting['origin'], note?: string): RecordedSetting => (note ? { value, origin, note } : { value, origin });
   const givenOrDefault = (k: keyof IngestSettings): RecordedSetting => recorded(settings[k], settings[k] === DEFAULT_INGEST[k] ? 'default' : 'given');
-  // flow volumes to BTPS (primer 7.3: F_BTPS = (310.15 / (273.15 + T)) (PB - PH2O(T)) / (PB - 47); dry gas: PH2O(T) = 0)
+  // flow volumes to BTPS (derived here, docs/methods.md: F_BTPS = (310.15 / (273.15 + T)) (PB - PH2O(T)) / (PB - 47); dry gas: PH2O(T) = 0)
   const conditionFactor = settings.flow_condition === 'btps' ? 1 : btpsFactor(settings.flow_temp_c, settings.pb_mmhg, settings.flow_condition === 'atps');
   if (settings.flow_condition !== 'btps') {
     notes.push(`flow converted from ${settings.flow_condition.toUpperCase()} at ${settings.flow_temp_c} C to BTPS (x ${conditionFactor.toFixed(4)})`);

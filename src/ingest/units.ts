@@ -11,14 +11,14 @@ export type Co2Unit = NonNullable<IngestSettings['co2_unit']>;
 /**
  * mmHg per kPa, from mathjs (mathjs defines 1 mmHg = 133.322 Pa; the SI value is 133.322387415 Pa,
  * a relative difference of 2.9e-6, far below any clinical resolution).
- * `[common practice, no source]` primer 7.1: 1 kPa = 7.50062 mmHg.
+ * 1 kPa = 7.50062 mmHg (NIST SP 811, 2008, Appendix B: 1 mmHg = 133.3224 Pa).
  */
 export const MMHG_PER_KPA: number = unit(1, 'kPa').toNumber('mmHg');
 /** L/s per L/min (mathjs): 1/60. */
 export const LPS_PER_LPM: number = unit(1, 'L/min').toNumber('L/s');
 /** L/s per mL/s (mathjs): 1/1000. */
 export const LPS_PER_MLPS: number = unit(1, 'mL/s').toNumber('L/s');
-/** Saturated water vapour pressure at 37 C, mmHg (primer 7.2, `[common practice, no source]`). */
+/** Saturated water vapour pressure at 37 C, mmHg (`[common practice, no source]`). */
 export const PH2O_37C_MMHG = 47;
 
 /** Factor that turns a flow in `u` into L/s. */
@@ -31,8 +31,8 @@ export function flowFactorToLps(u: FlowUnit): number {
 /**
  * Factor that turns a CO2 reading in `u` into mmHg.
  * '%': PCO2 = F x PB ('ambient', the fraction of the actual gas) or F x (PB - 47) ('dry', fraction of dry gas),
- * primer 7.2 `[common practice, no source]`; F = value / 100.
- * @example co2FactorToMmhg('%', 760, 'dry') * 5 // => 35.65 (primer W4)
+ * `[common practice, no source]`; F = value / 100.
+ * @example co2FactorToMmhg('%', 760, 'dry') * 5 // => 35.65 (0.05 x 713)
  */
 export function co2FactorToMmhg(u: Co2Unit, pbMmhg: number, convention: IngestSettings['co2_percent']): number {
   if (u === 'kPa') return MMHG_PER_KPA;

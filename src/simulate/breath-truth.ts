@@ -20,8 +20,8 @@ export interface BreathConditions {
 
 /**
  * True values of one breath from its noise-free expired curve and gas exchange (definitions in truth.ts).
- * VTCO2 = 1.1588e-3 (integral P dV_exp - PI VTi) mL STPD (primer 5.1); PECO2 = integral / V_E (5.2);
- * PAECO2 = integral / (V_E - VDaw) (5.5); Bohr and Enghoff with the inspired term (6.1).
+ * VTCO2 = 1.1588e-3 (integral P dV_exp - PI VTi) mL STPD (derived here, docs/methods.md); PECO2 = integral / V_E;
+ * PAECO2 = integral / (V_E - VDaw); Bohr and Enghoff with the inspired term (Bohr 1891, Enghoff 1938).
  */
 export function breathTruth(
   timing: BreathTiming,

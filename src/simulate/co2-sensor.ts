@@ -2,8 +2,8 @@
  * CO2 sensor model at the internal simulation rate: transport delay, then a first-order response.
  *
  * - Transport delay (sidestream sampling line; ~0 for mainstream): y1(t) = g(t - delay), linear interpolation between
- *   internal samples [published range 0.6-5.0 s: Breen, Mazumdar, Skinner 1994 Anesth Analg 78:584, primer 9.2].
- * - First-order response with time constant tau = rise_10_90 / ln 9 (primer 9.2, W22):
+ *   internal samples [published range 0.6-5.0 s: Breen, Mazumdar, Skinner 1994 Anesth Analg 78:584].
+ * - First-order response with time constant tau = rise_10_90 / ln 9 (derived here, docs/methods.md):
  *   dy/dt = (y1 - y) / tau, discretised exactly for an input held over each internal step:
  *   y[k] = y[k-1] + (1 - exp(-dt / tau)) (y1[k] - y[k-1]).
  * Because this runs at the internal rate (>= 10x the output rate) and the output is point-sampled, the lag seen at

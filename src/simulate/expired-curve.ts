@@ -13,7 +13,7 @@ import { emgCdf, normalCdf } from './normal-cdf';
  * - phase III: L(v) = Pmix + b (v - (VDaw + V_E)/2), b = slope3 / 1000 mmHg/mL (sequential emptying), whose mean over
  *   [VDaw, V_E] equals the mean alveolar expired PCO2 Pmix from gas exchange, so the breath's CO2 volume
  *   (PI V_E + (Pmix - PI)(V_E - VDaw)) is what the lung eliminates.
- * [common practice, no source: model construction; front shape in the spirit of primer 3.4 and W21]
+ * [common practice, no source: model construction; front shape like synthetic curve C of docs/methods.md]
  */
 export interface ExpiredCurve {
   pi_mmhg: number;
@@ -80,10 +80,10 @@ export function curveArea(c: ExpiredCurve, offsetMmhg = 0): number {
 }
 
 /**
- * Fowler's equal-area airway dead space by the primer's closed form (primer 3.1): with A = integral_0^{Vx} P dV and
+ * Fowler's equal-area airway dead space in closed form (derived here, docs/methods.md): with A = integral_0^{Vx} P dV and
  * the phase III line a + b V, solve (b/2) V*^2 + a V* - K = 0, K = a Vx + (b/2) Vx^2 - A, stable root
- * V* = 2K / (a + sqrt(a^2 + 2 b K)) [common practice, no source: algebraic restatement of Fowler's area equality].
- * Returns NaN when not computable. @example fowlerEqualArea(13050, 34, 0.01, 500) // 149.648 (primer W20)
+ * V* = 2K / (a + sqrt(a^2 + 2 b K)) [derived here: algebraic restatement of Fowler's area equality].
+ * Returns NaN when not computable. @example fowlerEqualArea(13050, 34, 0.01, 500) // 149.648 (synthetic curve B)
  */
 export function fowlerEqualArea(areaMmhgMl: number, aMmhg: number, bMmhgPerMl: number, vxMl: number): number {
   const k = aMmhg * vxMl + (bMmhgPerMl / 2) * vxMl * vxMl - areaMmhgMl;

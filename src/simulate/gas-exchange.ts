@@ -6,18 +6,18 @@ import { arterialPco2ByMixing } from './shunt-mixing';
  * Lung and circulation model of the simulator, evaluated once per breath (see MODEL.md).
  *
  * Perfused alveolar ventilation (L/min BTPS):   VA_p = RR (VT - VDaw) (1 - f_ads) / 1000
- * Elimination from perfused units (mL/min STPD): E = VA_p (PA - PI) / K,   K = 0.86296 (primer 7.3)
- * Delivery by capillary blood (mL/min STPD):     D = k Q (1 - s) (Pv - PA),  k mL/dL/mmHg, Q in dL/min (primer 10.4)
+ * Elimination from perfused units (mL/min STPD): E = VA_p (PA - PI) / K,   K = 0.86296 (derived here)
+ * Delivery by capillary blood (mL/min STPD):     D = k Q (1 - s) (Pv - PA),  k mL/dL/mmHg, Q in dL/min (derived here)
  * D = E gives the perfused alveolar (= end-capillary) PCO2:
  *   PA = (Gq Pv + Gv PI) / (Gq + Gv),   Gq = k Q (1 - s),  Gv = VA_p / K   (both mL/min/mmHg)
  * Unperfused units (fraction f_ads of alveolar ventilation) return inspired gas, so the mean alveolar expired PCO2 is
  *   Pmix = PA (1 - f_ads) + PI f_ads.
- * Arterial PCO2 by linear content mixing (primer 10.4): Pa = PA + s (Pv - PA).
+ * Arterial PCO2 by linear content mixing (derived here, docs/methods.md): Pa = PA + s (Pv - PA).
  * Body CO2 store (one compartment, capacity C mL/mmHg): dPv/dt = (V'CO2 - E) / C, integrated per breath with the CO2
  * actually eliminated in that breath, so CO2 mass is conserved exactly.
  * VA_p entering the balance is smoothed between breaths with time constant tau_mix (the lung gas volume buffers
  * breath-to-breath changes); the CO2 eliminated in a breath uses that breath's own alveolar volume.
- * [common practice, no source: mass-balance derivation; constants from the primer as cited]
+ * [derived here: mass balance; the constants as cited above]
  */
 export type GasInputs = Pick<
   SimParams,

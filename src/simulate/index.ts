@@ -1,4 +1,4 @@
-// Physiological simulator: flow + CO2 recordings with known truth (issue 3). Pure and browser-safe.
+// Physiological simulator: flow + CO2 recordings with known truth. Pure and browser-safe.
 // Model and sources: src/simulate/MODEL.md.
 
 // Parameters and scenarios

@@ -2,7 +2,7 @@
  * Smooth step functions used for the phase II front of the simulated capnogram.
  *
  * - `erfc`: complementary error function, Chebyshev fit with fractional error below 1.2e-7 everywhere
- *   [from memory: Press et al., Numerical Recipes, 2nd ed., section 6.2, function erfcc].
+ *   [Press WH et al. 1992, Numerical Recipes in C, 2nd ed., Cambridge University Press, section 6.2, function erfcc].
  * - `normalCdf(z)` = Phi(z) = 0.5 * erfc(-z / sqrt 2) (standard normal distribution function).
  * - `emgCdf(x, sigma, tail)`: distribution function of an exponentially modified Gaussian (a normal of SD sigma
  *   convolved with an exponential of mean `tail`), used for the optional skewed front:

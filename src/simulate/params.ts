@@ -104,7 +104,7 @@ export interface SimParams {
   q_l_min: number;
   /** right-to-left shunt fraction Qs/Qt */
   shunt_fraction: number;
-  /** effective CO2 dissociation slope k, mL CO2 / dL blood / mmHg (primer 10.4) */
+  /** effective CO2 dissociation slope k, mL CO2 / dL blood / mmHg (default derived here, docs/methods.md) */
   co2_slope_ml_dl_mmhg: number;
   /** body CO2 store capacity, mL CO2 per mmHg of mixed-venous PCO2 */
   co2_store_ml_per_mmhg: number;
@@ -145,7 +145,7 @@ export interface SimParams {
   co2_rate_hz: number | null;
   flow_unit: FlowUnit;
   co2_unit: Co2Unit;
-  /** '%' convention: 'ambient' F = P/PB, 'dry' F = P/(PB - 47) (primer 7.2) */
+  /** '%' convention: 'ambient' F = P/PB, 'dry' F = P/(PB - 47) (common practice, no source) */
   co2_percent: 'ambient' | 'dry';
   pb_mmhg: number;
   /** sign of expiratory flow in the file */

@@ -4,7 +4,8 @@
  * Generator: mulberry32, a 32-bit state generator with period 2^32 [common practice, no source: public-domain
  * algorithm by T. Ettinger, widely restated]. Good enough for simulated breath-to-breath variability and sensor
  * noise; not for cryptography.
- * Normal deviates: Box-Muller transform (Box & Muller 1958, Ann Math Stat 29:610) [from memory].
+ * Normal deviates: Box-Muller transform (Box GEP, Muller ME 1958, "A note on the generation of random normal
+ * deviates", Ann Math Stat 29:610-611).
  *
  * Independent streams (breath pattern, sensor noise, export damage) are derived from one seed with `streamSeed`,
  * so that changing, say, the noise level does not change the breath pattern of the same seed.

@@ -2,13 +2,14 @@ import { BASE_PARAMS, type SimParams } from './params';
 import { validateParams } from './validate-params';
 
 /**
- * Built-in scenarios: invented patients of our own, named after what they show. Values are chosen inside the ranges
- * of primer section 12 (e.g. adult VCO2 ~200 mL/min, infant ~7 mL/kg/min [published: Smallwood et al.], airway
+ * Built-in scenarios: invented patients of our own, named after what they show. Values are chosen inside typical
+ * ranges (e.g. adult VCO2 ~200 mL/min, infant ~7 mL/kg/min [published: Smallwood et al.], airway
  * dead space ~2.2 mL/kg adults and ~3 mL/kg small children incl. tube [published: Numa & Newth 1996; Goenaga-Diaz
- * et al. 2021], normal venous admixture 4-5 %, P(a-ET)CO2 2-5 mmHg in healthy anaesthetised adults).
+ * et al. 2021], normal venous admixture 4-5 %, P(a-ET)CO2 2-5 mmHg in healthy anaesthetised adults: common practice,
+ * no source).
  * Body CO2 store capacity ~ V'CO2 / (3 mmHg/min), from the apnoeic PaCO2 rise of about 3 mmHg/min
- * [from memory: Eger & Severinghaus 1961 Anesthesiology]. Cardiac output ~ 150-200 mL/kg/min in infants
- * [from memory: paediatric physiology texts].
+ * [Eger EI, Severinghaus JW 1961, "The rate of rise of PaCO2 in the apneic anesthetized patient", Anesthesiology 22].
+ * Cardiac output ~ 150-200 mL/kg/min in infants [common practice, no source].
  */
 interface Scenario {
   description: string;

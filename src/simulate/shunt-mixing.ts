@@ -1,5 +1,5 @@
 /**
- * Effect of a right-to-left shunt on arterial PCO2, linearised content mixing (primer 10.4).
+ * Effect of a right-to-left shunt on arterial PCO2, linearised content mixing (derived here, docs/methods.md).
  *
  * Content mixing CaCO2 = (1 - s) Cc'CO2 + s CvCO2 [published: Anderson & Breen 2000 Crit Care (shunted venous blood
  * raises arterial CO2)], with one effective dissociation slope k for all three bloods (Haldane effect folded into k),
@@ -18,13 +18,13 @@ export function arterialPco2ByMixing(endCapillaryMmhg: number, mixedVenousMmhg: 
 
 /**
  * Shunt part of the arterial - end-capillary PCO2 difference by the Fick route, mmHg.
- * V'CO2 mL/min STPD, Q' L/min (x 10 = dL/min), k mL/dL/mmHg. @example (200, 5, 0.2, 0.67) -> 1.49 (primer W15)
+ * V'CO2 mL/min STPD, Q' L/min (x 10 = dL/min), k mL/dL/mmHg. @example (200, 5, 0.2, 0.67) -> 1.49 (40 / 26.8)
  */
 export function shuntGradientFick(vco2MlMin: number, qLMin: number, shuntFraction: number, kMlDlMmhg: number): number {
   return (shuntFraction * vco2MlMin) / (kMlDlMmhg * qLMin * 10 * (1 - shuntFraction));
 }
 
-/** Same from a measured PvCO2 - PaCO2, mmHg. @example (0.2, 6) -> 1.50 (primer W15b) */
+/** Same from a measured PvCO2 - PaCO2, mmHg. @example (0.2, 6) -> 1.50 (0.25 x 6) */
 export function shuntGradientFromVenousArterial(shuntFraction: number, venousMinusArterialMmhg: number): number {
   return (shuntFraction / (1 - shuntFraction)) * venousMinusArterialMmhg;
 }

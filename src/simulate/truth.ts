@@ -4,8 +4,8 @@ import type { SimParams } from './params';
 /**
  * True values of one simulated breath, from the noise-free model (before any sensor effect). Times are when gas
  * passes the airway opening (no sensor delay). Volumes BTPS as the flow sensor reports them, mL; CO2 volumes mL STPD.
- * Dead-space ratios use the general mass balance VD/VT = (Pref - PE) / (Pref - PI) (primer 6.1), which is the
- * primer's plain form when PI = 0.
+ * Dead-space ratios use the general mass balance VD/VT = (Pref - PE) / (Pref - PI) (common practice, no source), which
+ * is the plain Bohr / Enghoff form when PI = 0.
  */
 export interface TruthBreath {
   breath: number;
@@ -20,7 +20,7 @@ export interface TruthBreath {
   vt_exp_ml: number;
   /** true airway dead space (centre of the phase II front), mL */
   vd_aw_ml: number;
-  /** Fowler's equal-area V* on the true curve with the true phase III line, V_x = V_E, raw P (primer 3.1) */
+  /** Fowler's equal-area V* on the true curve with the true phase III line, V_x = V_E, raw P (Fowler 1948) */
   vd_fowler_exact_ml: number;
   /** same on P - PI (differs from the raw form only with rebreathing) */
   vd_fowler_net_exact_ml: number;
@@ -40,14 +40,14 @@ export interface TruthBreath {
   pa_perfused_mmhg: number;
   /** true curve at V_E */
   petco2_mmhg: number;
-  /** volume-weighted mean of the true expired curve (primer 5.2) */
+  /** volume-weighted mean of the true expired curve */
   peco2_mmhg: number;
-  /** integral P dV / (V_E - VDaw) (primer 5.5) */
+  /** integral P dV / (V_E - VDaw) */
   paeco2_mmhg: number;
   /** true phase III line at the midpoint of [VDaw + 3 sigma, V_E] */
   alv_co2_mmhg: number;
   slope3_mmhg_per_l: number;
-  /** net CO2 volume: veco2 - vico2, mL STPD (primer 5.1) */
+  /** net CO2 volume: veco2 - vico2, mL STPD */
   vtco2_ml: number;
   veco2_ml: number;
   vico2_ml: number;

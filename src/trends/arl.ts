@@ -1,8 +1,8 @@
 // Average run length (ARL) of a one-sided CUSUM and the decision interval that meets a false-alarm budget.
 //
 // Siegmund's approximation for a one-sided CUSUM with reference k and decision interval h (sigma units), applied to
-// independent normal values with mean shift delta (sigma units) [from memory: Siegmund D. Sequential Analysis: Tests
-// and Confidence Intervals. Springer 1985; as given in Montgomery, Introduction to Statistical Quality Control]:
+// independent normal values with mean shift delta (sigma units) [Siegmund D 1985, Sequential Analysis: Tests and
+// Confidence Intervals, Springer; as given in Montgomery DC, Introduction to Statistical Quality Control, Wiley]:
 //
 //   ARL = (exp(-2 D b) + 2 D b - 1) / (2 D^2),   D = delta - k,   b = h + 1.166       (ARL = b^2 when D = 0)
 //

@@ -23,13 +23,13 @@ export interface GasComparison {
  *   share = (PaCO2_after - PaCO2_before) / (PETCO2_after - PETCO2_before)      (PETCO2 from the trend bins of the gas times)
  *
  * Why it separates a fall in pulmonary blood flow from a rise in alveolar dead space (src/trends/RULES.md): the
- * alveolar ventilation equation PaCO2 = 0.863 V'CO2 / V'A (primer 7.3, with PaCO2 standing in for ideal alveolar
- * PCO2, the Enghoff basis of primer 6.1-6.3) says that while the effective alveolar ventilation is unchanged, PaCO2
+ * alveolar ventilation equation PaCO2 = 0.863 V'CO2 / V'A (derived here, docs/methods.md; PaCO2 standing in for ideal
+ * alveolar PCO2, the basis of Enghoff's dead space) says that while the effective alveolar ventilation is unchanged, PaCO2
  * moves with V'CO2, i.e. with PETCO2 (share ~ 1): less CO2 brought to the lungs. A rise in alveolar dead space lowers
  * the effective alveolar ventilation instead: the unperfused units return inspired gas and dilute the end-tidal gas,
  * while the perfused units (and the arterial blood) keep or raise their PCO2, so the arterial-end-tidal gradient widens
- * (primer 10.1: alveolar dead space moves the gradient up) and the share is <= 0. Expired-gas measures alone (Bohr VD/VT
- * with alveolar PCO2 from phase III) do not see units that empty in parallel (primer 6.2; src/simulate/MODEL.md).
+ * (common practice, no source: alveolar dead space widens the gradient) and the share is <= 0. Expired-gas measures alone (Bohr VD/VT
+ * with alveolar PCO2 from phase III) do not see units that empty in parallel (derived here: src/simulate/MODEL.md).
  *
  * Gas choice: the latest gas before the change point (no older than gas_before_max_s, not before `notBefore_s`) and the
  * earliest gas from gas_settle_s to gas_after_max_s after it (before `notAfter_s`). Null when either is missing, a

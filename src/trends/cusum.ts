@@ -1,12 +1,12 @@
 // Tabular CUSUM (Page ES. Continuous inspection schemes. Biometrika 1954;41:100-115), in the two-sided "tabular" form
-// of Montgomery (Introduction to Statistical Quality Control, chapter on CUSUM charts) [from memory: Montgomery]:
+// of Montgomery DC, Introduction to Statistical Quality Control (Wiley), chapter on the cumulative sum chart:
 //
 //   C+_i = max(0, z_i - k + C+_{i-1})        C-_i = max(0, -z_i - k + C-_{i-1})        C+_0 = C-_0 = 0
 //   z_i  = (x_i - mu0) / sigma               (standardised; k and h are in units of sigma)
 //
 // An alarm is raised at the first i with C+_i > h or C-_i > h. N+ (N-) counts the consecutive periods with C+ (C-)
 // above zero; the change is estimated to have happened after the last period with C = 0, i.e. at index i - N + 1, and
-// the new mean as mu0 + sigma (k + C/N) (upper side) or mu0 - sigma (k + C/N) (lower side) [from memory: Montgomery].
+// the new mean as mu0 + sigma (k + C/N) (upper side) or mu0 - sigma (k + C/N) (lower side) [Montgomery, same chapter].
 // NaN values (bins without data) leave the statistics unchanged.
 
 export interface CusumState {

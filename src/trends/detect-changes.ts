@@ -56,7 +56,7 @@ export function medianWindow(x: ArrayLike<number>, start: number, end: number, n
 /**
  * Smallest step between the medians of nb and na values that is `z` standard errors away from zero for noise SD sigma:
  * z sigma 1.2533 sqrt(1/nb + 1/na) (1.2533 = sqrt(pi/2), the large-sample efficiency loss of a median against a mean
- * for normal data [common practice, no source: textbook asymptotics]).
+ * for normal data [common practice, no source: large-sample asymptotics]).
  */
 export function significantStep(sigma: number, nb: number, na: number, z: number): number {
   return z * sigma * 1.2533 * Math.sqrt(1 / nb + 1 / na);

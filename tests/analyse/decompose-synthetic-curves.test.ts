@@ -1,6 +1,5 @@
-// The per-breath decomposition against the analytic synthetic expirograms of the domain primer, section 11
-// (W19, W20, W21). Source of every expected value: the primer's worked numbers, tagged there as
-// `common practice, no source: analytic synthetic curve; verified by script`. The curves are laid out in time at a
+// The per-breath decomposition against the analytic synthetic expirograms A, B and C. Source of every expected value:
+// worked by hand from the curve's definition (derived here: docs/methods.md, Derivations). The curves are laid out in time at a
 // constant expiratory flow so that V = flow x t exactly; both CO2 signals (fast and slow) carry the same curve.
 import { describe, expect, it } from 'vitest';
 import { decomposeBreath, stpdFactor, type BreathSignals } from '../../src/analyse/decompose.js';
@@ -42,11 +41,11 @@ const settings = () => {
   return s;
 };
 
-describe('Fowler closed form (primer 3.1; common practice, no source: algebraic restatement)', () => {
-  it('W19 flat plateau: area 14000 mmHg·mL under a line at 40 mmHg to 500 mL gives 150 mL', () => {
+describe('Fowler closed form (derived here: algebraic restatement)', () => {
+  it('curve A, flat plateau: area 14000 mmHg·mL under a line at 40 mmHg to 500 mL gives 150 mL', () => {
     expectClose(fowlerDeadSpace(40, 0, 500, 14000), 150, { abs: 1e-9 });
   });
-  it('W20 sloped plateau: line 34 + 0.01 V, area 13050 mmHg·mL to 500 mL gives 149.648 mL', () => {
+  it('curve B, sloped plateau: line 34 + 0.01 V, area 13050 mmHg·mL to 500 mL gives 149.648 mL', () => {
     expectClose(fowlerDeadSpace(34, 0.01, 500, 13050), 149.648, { abs: 5e-4 });
   });
   it('refuses a non-positive intercept', () => {
@@ -54,7 +53,7 @@ describe('Fowler closed form (primer 3.1; common practice, no source: algebraic 
   });
 });
 
-describe('decomposeBreath on primer synthetic curve A (W19, flat plateau)', () => {
+describe('decomposeBreath on synthetic curve A (flat plateau)', () => {
   const curveA = (v: number) => (v < 100 ? 0 : v < 200 ? (40 * (v - 100)) / 100 : 40);
   const d = decomposeBreath(breathFromCurve(curveA), { breath: 1, delay_s: 0, tau_s: 0, settings: settings() });
   it('has no quality flags', () => expect(d.flags).toEqual([]));
@@ -66,10 +65,10 @@ describe('decomposeBreath on primer synthetic curve A (W19, flat plateau)', () =
   });
   it('Bohr VD/VT with PACO2 40 = 0.300', () => expectClose(d.row.vdvt_bohr, 0.3, { abs: 5e-4 }));
   it('VTCO2 = 16.22 mL STPD', () => expectClose(d.row.vtco2_ml, 16.22, { abs: 0.02 }));
-  it('STPD factor at 37 C is 1.1588e-3 mL per mmHg·mL (primer 5.1)', () => expectClose(stpdFactor(37), 1.1588e-3, { rel: 1e-4 }));
+  it('STPD factor at 37 C is 1.1588e-3 mL per mmHg·mL (derived here: 273.15 / (310.15 x 760))', () => expectClose(stpdFactor(37), 1.1588e-3, { rel: 1e-4 }));
 });
 
-describe('decomposeBreath on primer synthetic curve B (W20, sloped plateau, PaCO2 40)', () => {
+describe('decomposeBreath on synthetic curve B (sloped plateau, PaCO2 40)', () => {
   const curveB = (v: number) => (v < 100 ? 0 : v < 200 ? (36 * (v - 100)) / 100 : 34 + 0.01 * v);
   const d = decomposeBreath(breathFromCurve(curveB), { breath: 1, delay_s: 0, tau_s: 0, settings: settings() });
   it('Fowler VDaw (V_x = V_E) = 149.648 mL', () => expectClose(d.row.vd_aw_ml, 149.648, { abs: 0.1 }));
@@ -89,7 +88,7 @@ describe('decomposeBreath on primer synthetic curve B (W20, sloped plateau, PaCO
   });
 });
 
-describe('decomposeBreath on primer synthetic curve C (W21, smooth symmetric front)', () => {
+describe('decomposeBreath on synthetic curve C (smooth symmetric front)', () => {
   const curveC = (v: number) => 40 / (1 + Math.exp(-(v - 150) / 10));
   const d = decomposeBreath(breathFromCurve(curveC), { breath: 1, delay_s: 0, tau_s: 0, settings: settings() });
   it('Fowler VDaw = 150.00 mL', () => expectClose(d.row.vd_aw_ml, 150, { abs: 0.05 }));

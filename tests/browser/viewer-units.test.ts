@@ -54,7 +54,7 @@ describe('breath view shapes agree with the core', () => {
     }
   });
 
-  it("Fletcher's X + Y + Z tile PaCO2 x VT, X is the CO2 area and Z = PaCO2 x V* (primer 6.4 relations)", () => {
+  it("Fletcher's X + Y + Z tile PaCO2 x VT, X is the CO2 area and Z = PaCO2 x V* (Fletcher et al. 1981 relations)", () => {
     for (const [r, g] of ok.slice(0, 10)) {
       let top = 0;
       for (const v of g.co2_mmhg) top = Math.max(top, v);

@@ -1,14 +1,14 @@
-// Dead-space arithmetic of analyseGas on hand-built breath rows. Expected values are the primer's worked numbers:
-// W20 (synthetic curve B: PaCO2 40, PECO2 26.10, PETCO2 39.0, VDaw 149.648, VT 500 -> gradient 1.0, AVDSF 0.025,
-// Enghoff 0.3475, VDphys 173.75, VDalv 24.10, Bohr at L(350) 0.3040) [common practice, no source: analytic synthetic
-// curve; verified by script], W24 (PaCO2 40, PETCO2 35 -> AVDSF 0.125) [common practice, no source] and W17 (PBW male
-// 175 cm 70.57 kg) [published formula: ARDSNet 2000 NEJM via secondary sources; numbers are ours].
+// Dead-space arithmetic of analyseGas on hand-built breath rows. Expected values are worked by hand (derived here):
+// synthetic curve B (docs/methods.md, Derivations: PaCO2 40, PECO2 26.10, PETCO2 39.0, VDaw 149.648, VT 500 ->
+// gradient 1.0, AVDSF 0.025, Enghoff 0.3475, VDphys 173.75, VDalv 24.10, Bohr at L(350) 0.3040), AVDSF (40 - 35)/40
+// = 0.125, and predicted body weight male 175 cm 50 + 0.91 x 22.6 = 70.57 kg (ARDS Network 2000 formula, N Engl J Med
+// 342:1301-1308).
 import { describe, expect, it } from 'vitest';
 import { analyseGas } from '../../src/gas/index.js';
 import { expectClose } from '../helpers/expect-close.js';
 import { makeBreath, makeSample } from './make-breath.js';
 
-// Three ok breaths in the window whose per-field medians are the W20 values, plus decoys that must be ignored:
+// Three ok breaths in the window whose per-field medians are the curve B values, plus decoys that must be ignored:
 // a non-ok breath in the window and ok breaths outside it, all with wild values.
 const W20_BREATHS = [
   makeBreath({ breath: 1, t_start_s: 10, petco2_mmhg: 60, peco2_mmhg: 5, vt_exp_ml: 2000, vd_aw_ml: 900, vdvt_bohr: 0.9 }),
@@ -19,7 +19,7 @@ const W20_BREATHS = [
   makeBreath({ breath: 6, t_start_s: 99, petco2_mmhg: 60, peco2_mmhg: 5, vt_exp_ml: 2000, vd_aw_ml: 900, vdvt_bohr: 0.9 }), // ends after t
 ];
 
-describe('analyseGas: dead-space arithmetic (W20)', () => {
+describe('analyseGas: dead-space arithmetic (synthetic curve B)', () => {
   const result = analyseGas(W20_BREATHS, [makeSample({ time_s: 100, paco2_mmhg: 40 })], {
     pb_mmhg: 760,
     height_cm: 175,
@@ -35,12 +35,12 @@ describe('analyseGas: dead-space arithmetic (W20)', () => {
     expectClose(row.vd_aw_ml, 149.648);
   });
 
-  it('gradient 1.0 mmHg, AVDSF 0.025 (W20)', () => {
+  it('gradient 1.0 mmHg, AVDSF 0.025', () => {
     expectClose(row.gradient_mmhg, 1.0);
     expectClose(row.avdsf, 0.025);
   });
 
-  it('Enghoff 0.3475, VDphys 173.75 mL, VDalv 24.10 mL; Bohr 0.3040 side by side, difference 0.0435 (W20)', () => {
+  it('Enghoff 0.3475, VDphys 173.75 mL, VDalv 24.10 mL; Bohr 0.3040 side by side, difference 0.0435', () => {
     expectClose(row.vdvt_enghoff, 0.3475);
     expectClose(row.vd_phys_ml, 173.75);
     expectClose(row.vd_alv_ml, 24.1);
@@ -48,7 +48,7 @@ describe('analyseGas: dead-space arithmetic (W20)', () => {
     expectClose(row.vdvt_difference, 0.3475 - 0.304);
   });
 
-  it('per-kg values on predicted body weight (W17: male 175 cm -> 70.57 kg) and the basis is recorded', () => {
+  it('per-kg values on predicted body weight (male 175 cm -> 70.57 kg) and the basis is recorded', () => {
     expectClose(row.vd_aw_ml_per_kg, 149.648 / 70.57);
     expectClose(row.vd_phys_ml_per_kg, 173.75 / 70.57);
     expectClose(row.vd_alv_ml_per_kg, 24.1 / 70.57);
@@ -93,7 +93,7 @@ describe('analyseGas: dead-space arithmetic (W20)', () => {
 describe('analyseGas: weights, windows and missing breaths', () => {
   const breaths = [makeBreath({ breath: 1, t_start_s: 50, petco2_mmhg: 35, peco2_mmhg: 26.1, vt_exp_ml: 500, vd_aw_ml: 150 })];
 
-  it('W24: PaCO2 40, PETCO2 35 -> AVDSF 0.125 [common practice, no source]', () => {
+  it('PaCO2 40, PETCO2 35 -> AVDSF 0.125 [derived here: 5/40]', () => {
     const r = analyseGas(breaths, [makeSample({ time_s: 100, paco2_mmhg: 40 })], { pb_mmhg: 760 }).rows[0]!;
     expectClose(r.avdsf, 0.125);
     expectClose(r.gradient_mmhg, 5);

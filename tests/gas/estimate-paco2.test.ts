@@ -1,4 +1,4 @@
-// PaCO2 between blood gases: PETCO2 + most recent gradient, with a band from the observed gradients (issue 4).
+// PaCO2 between blood gases: PETCO2 + most recent gradient, with a band from the observed gradients.
 import { describe, expect, it } from 'vitest';
 import { analyseGas, estimatePaco2 } from '../../src/gas/index.js';
 import { expectClose } from '../helpers/expect-close.js';

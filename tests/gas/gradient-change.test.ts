@@ -1,4 +1,4 @@
-// Flag when a new blood gas shows the PaCO2-PETCO2 gradient changed by more than the setting (issue 4).
+// Flag when a new blood gas shows the PaCO2-PETCO2 gradient changed by more than the setting.
 import { describe, expect, it } from 'vitest';
 import { analyseGas } from '../../src/gas/index.js';
 import { expectClose } from '../helpers/expect-close.js';

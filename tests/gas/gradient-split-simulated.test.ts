@@ -1,5 +1,6 @@
-// The arterial–end-tidal gradient split on simulator recordings with known shunt and alveolar dead space (issue 4
-// acceptance). The simulator mixes shunted venous and end-capillary blood linearly (primer 10.4), so the truth is:
+// The arterial–end-tidal gradient split on simulator recordings with known shunt and alveolar dead space
+// (acceptance test). The simulator mixes shunted venous and end-capillary blood linearly (derived here, docs/methods.md
+// Derivations), so the truth is:
 // gradient = PaCO2 - PETCO2; shunt part = PaCO2 - Pc'CO2 (Pc'CO2 = perfused alveolar PCO2); rest = Pc'CO2 - PETCO2.
 // The blood-gas rows are built from the simulator's truth (PaCO2, PvCO2) and oxygen values constructed to carry the
 // simulator's shunt fraction through Berggren's equation (Hb 14 g/dL, FiO2 50 %, SvO2 65 %, Sc'O2 1); the tool must

@@ -1,8 +1,9 @@
-// Venous admixture and the split of the PaCO2-PETCO2 gradient inside analyseGas. Expected values are the primer's
-// worked numbers: W11/W12 (alveolar gas equation, shunt from contents 0.2049) [common practice, no source],
-// W13-type saturation shunt (formula of primer 10.3) [common practice, no source], W15b (s 0.2, PvCO2 - PaCO2 6 ->
-// 1.50 mmHg) [common practice, no source], W15 Fick route (s 0.2, V'CO2 200, Q' 5, k 0.67 -> 1.49 mmHg)
-// [common practice, no source], W24 (PaCO2 40, PETCO2 35 -> gradient 5) [common practice, no source].
+// Venous admixture and the split of the PaCO2-PETCO2 gradient inside analyseGas. Expected values are worked by hand
+// (derived here; the same arithmetic is written out in tests/derived/alveolar-gas-and-shunt.test.ts and
+// tests/derived/shunt-co2-effect.test.ts): alveolar gas equation and shunt from contents 0.2049, saturation shunt
+// (0.1/0.3), venous-arterial route (s 0.2, PvCO2 - PaCO2 6 -> 1.50 mmHg), Fick route (s 0.2, V'CO2 200, Q' 5,
+// k 0.67 -> 1.49 mmHg), gradient PaCO2 40 - PETCO2 35 = 5. The equations: common practice, no source, and the
+// mixing derivation in docs/methods.md.
 import { describe, expect, it } from 'vitest';
 import { analyseGas } from '../../src/gas/index.js';
 import { expectClose } from '../helpers/expect-close.js';
@@ -11,7 +12,7 @@ import { breathSeries, makeSample } from './make-breath.js';
 const BREATHS = breathSeries(50, 9, { petco2_mmhg: 35, peco2_mmhg: 26, vt_exp_ml: 500, vd_aw_ml: 150, vdvt_bohr: 0.3, vtco2_ml: 20, rr_bpm: 10 });
 
 describe('shunt fraction inside analyseGas', () => {
-  it('W12 by contents: FiO2 100 %, PaO2 200, SaO2 100 %, SvO2 75 %, PvO2 40, Hb 15 -> PAO2 673, Qs/Qt 0.2049', () => {
+  it('by contents: FiO2 100 %, PaO2 200, SaO2 100 %, SvO2 75 %, PvO2 40, Hb 15 -> PAO2 673, Qs/Qt 0.2049', () => {
     const sample = makeSample({
       time_s: 100, paco2_mmhg: 40, fio2_pct: 100, pao2_mmhg: 200, sao2_pct: 100, svo2_pct: 75, pvo2_mmhg: 40, hb_g_dl: 15,
     });
@@ -21,9 +22,9 @@ describe('shunt fraction inside analyseGas', () => {
     expectClose(row.shunt_fraction, 0.2049);
   });
 
-  // W14: the Severinghaus curve gives 0.7495 at 40 mmHg, so SvO2 75 % maps back to about 40 mmHg and the dissolved
+  // The Severinghaus equation gives 0.7495 at 40 mmHg (tests/derived/severinghaus-equation.test.ts), so SvO2 75 % maps back to about 40 mmHg and the dissolved
   // venous O2 barely changes: Qs/Qt stays 0.2049 within 1e-3 relative.
-  it('W12 without PvO2: venous PO2 from SvO2 by the Severinghaus curve (about 40 mmHg, W14) still gives 0.2049', () => {
+  it('without PvO2: venous PO2 from SvO2 by the Severinghaus curve (about 40 mmHg) still gives 0.2049', () => {
     const sample = makeSample({
       time_s: 100, paco2_mmhg: 40, fio2_pct: 100, pao2_mmhg: 200, sao2_pct: 100, svo2_pct: 75, hb_g_dl: 15,
     });
@@ -43,7 +44,7 @@ describe('shunt fraction inside analyseGas', () => {
     expect(row.missing_inputs.split(';')).toEqual(['weight_kg', 'pao2_mmhg', 'hb_g_dl', 'fio2_pct']);
   });
 
-  it('W13 through analyseGas: SaO2 90 %, SvO2 70 % -> 0.3333', () => {
+  it('saturation shunt through analyseGas: SaO2 90 %, SvO2 70 % -> 0.3333', () => {
     const row = analyseGas(BREATHS, [makeSample({ time_s: 100, paco2_mmhg: 40, sao2_pct: 90, svo2_pct: 70, pvco2_mmhg: 46 })], {
       pb_mmhg: 760,
     }).rows[0]!;
@@ -83,7 +84,7 @@ describe('gradient split', () => {
     expectClose(r.rows[0]!.gradient_shunt_mmhg, 0.25 * 8);
   });
 
-  it('W15 Fick route when a cardiac output is given: V\'CO2 20 mL x 10/min = 200, Q\' 5, k 0.67, s 0.2 -> 1.49 mmHg', () => {
+  it('Fick route when a cardiac output is given: V\'CO2 20 mL x 10/min = 200, Q\' 5, k 0.67, s 0.2 -> 1.49 mmHg', () => {
     const r = analyseGas(BREATHS, [makeSample({ time_s: 100, paco2_mmhg: 40, sao2_pct: 95, svo2_pct: 75 })], {
       pb_mmhg: 760,
       cardiac_output_l_min: 5,
@@ -94,7 +95,7 @@ describe('gradient split', () => {
     expectClose(row.gradient_rest_mmhg, 5 - 1.49, { abs: 0.005 });
   });
 
-  it('W12 contents shunt with measured PvCO2 46: shunt part s/(1-s) x 6 with s = 0.2049', () => {
+  it('contents shunt with measured PvCO2 46: shunt part s/(1-s) x 6 with s = 0.2049', () => {
     const sample = makeSample({
       time_s: 100, paco2_mmhg: 40, fio2_pct: 100, pao2_mmhg: 200, sao2_pct: 100, svo2_pct: 75, pvo2_mmhg: 40, hb_g_dl: 15,
       pvco2_mmhg: 46,
@@ -107,7 +108,7 @@ describe('gradient split', () => {
   it('inconsistent saturations (SaO2 above end-capillary) give a warning and no split', () => {
     const sample = makeSample({ time_s: 100, paco2_mmhg: 40, fio2_pct: 21, sao2_pct: 99, svo2_pct: 75, pvco2_mmhg: 46 });
     const r = analyseGas(BREATHS, [sample], { pb_mmhg: 760, end_capillary_saturation: 'odc' });
-    // FiO2 21 %: PAO2 = 0.21 x 713 - 40 x (0.21 + 0.79/0.8) = 101.83 mmHg (W11 formula) -> Sc'O2 0.9786 < SaO2 0.99
+    // FiO2 21 %: PAO2 = 0.21 x 713 - 40 x (0.21 + 0.79/0.8) = 101.83 mmHg (full alveolar gas equation) -> Sc'O2 0.9786 < SaO2 0.99
     expectClose(r.rows[0]!.pao2_alv_mmhg, 0.21 * 713 - 40 * (0.21 + 0.79 / 0.8));
     expect(r.rows[0]!.shunt_fraction).toBeLessThan(0);
     expect(Number.isNaN(r.rows[0]!.gradient_shunt_mmhg)).toBe(true);

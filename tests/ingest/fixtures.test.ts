@@ -12,7 +12,7 @@ import { concatBlocks } from './reference-reader';
 const HERE = dirname(fileURLToPath(import.meta.url));
 
 const dir = join(HERE, '..', 'fixtures', 'ingest');
-/** mmHg per kPa from the primer (7.1), `[common practice, no source]`; the code uses mathjs (7.500637...). */
+/** mmHg per kPa (NIST SP 811, 2008, Appendix B: 1 mmHg = 133.3224 Pa); the code uses mathjs (7.500637...). */
 const KPA = 7.50062;
 
 interface Case {
@@ -84,13 +84,13 @@ const cases: Case[] = [
     rows: 12, first: [0, -0.5, 0.2], last: [11 / 100, 0.3, 40], rate_hz: 100,
   },
   {
-    // 'co2 (%)', last row 5.00 %: ambient convention at PB 760 -> 38.0 mmHg (primer W4)
+    // 'co2 (%)', last row 5.00 %: ambient convention at PB 760 -> 38.0 mmHg (0.05 x 760)
     file: 'percent.csv', delimiter: ',', decimal: '.', header_line: 1,
     columns: { time: 'time', flow: 'flow', co2: 'co2 (%)' }, units: { time: 's', flow: 'L/s', co2: '%' },
     rows: 12, first: [0, -0.5, (0.03 * 760) / 100], last: [0.11, 0.3, 38.0],
   },
   {
-    // same, dry convention: 5.00 % x (760 - 47) = 35.65 mmHg (primer W4)
+    // same, dry convention: 5.00 % x (760 - 47) = 35.65 mmHg
     file: 'percent.csv', settings: { co2_percent: 'dry' }, delimiter: ',', decimal: '.', header_line: 1,
     columns: { time: 'time', flow: 'flow', co2: 'co2 (%)' }, units: { time: 's', flow: 'L/s', co2: '%' },
     rows: 12, first: [0, -0.5, (0.03 * 713) / 100], last: [0.11, 0.3, 35.65], note: /dry/,

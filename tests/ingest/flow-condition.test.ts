@@ -1,6 +1,6 @@
 // Flow volumes reported at ambient conditions are converted to BTPS at ingest. Check value: the BTPS factor at 22 C
-// and PB 760 mmHg is 1.091 (published: BTPS table in a public teaching package, primer 7.3 W6; identity with the
-// ATS/ERS 2005 table from memory); dry gas (ATPD) uses no water vapour at ambient temperature (primer 7.3).
+// and PB 760 mmHg is 1.091 (the spirometry BTPS table, common practice, no source; formula derived in docs/methods.md);
+// dry gas (ATPD) uses no water vapour at ambient temperature.
 import { describe, expect, it } from 'vitest';
 import { readRecordingText } from '../../src/ingest/index.js';
 import { defaultSettings } from '../../src/settings.js';
@@ -18,7 +18,7 @@ function flows(condition: 'btps' | 'atps' | 'atpd', temp = 22): number[] {
 }
 
 describe('flow condition', () => {
-  it('ATPS at 22 C scales flow by the BTPS factor 1.091 (W6)', () => {
+  it('ATPS at 22 C scales flow by the BTPS factor 1.091', () => {
     const a = flows('btps');
     const b = flows('atps');
     const k = b[15]! / a[15]!;
@@ -29,7 +29,7 @@ describe('flow condition', () => {
     const a = flows('btps');
     const d = flows('atpd')[15]! / a[15]!;
     expect(d).toBeGreaterThan(1.091);
-    // dry gas at 22 C: (310.15/295.15) * 760/713 = 1.1201 (primer 7.3 formula with PH2O(T) = 0; our arithmetic)
+    // dry gas at 22 C: (310.15/295.15) * 760/713 = 1.1201 (the formula with PH2O(T) = 0; derived here)
     expectClose(d, 1.1201, { abs: 0.0005 });
   });
 });

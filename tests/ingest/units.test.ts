@@ -10,13 +10,13 @@ import { expectClose } from '../helpers/expect-close';
 import { concatBlocks } from './reference-reader';
 
 describe('pressure conversion mmHg <-> kPa', () => {
-  it('40 mmHg -> 5.3329 kPa (primer W5, `common practice, no source`)', () => {
+  it('40 mmHg -> 5.3329 kPa (derived here: 40 x 0.133322)', () => {
     expectClose(40 / MMHG_PER_KPA, 5.3329, { rel: 1e-4 });
   });
-  it('5.3 kPa -> 39.753 mmHg (primer W5, `common practice, no source`)', () => {
+  it('5.3 kPa -> 39.753 mmHg (derived here: 5.3 x 7.50062)', () => {
     expectClose(5.3 * MMHG_PER_KPA, 39.753, { rel: 1e-4 });
   });
-  it('1 kPa = 7.50062 mmHg (primer 7.1, `common practice, no source: SI definitions`)', () => {
+  it('1 kPa = 7.50062 mmHg (NIST SP 811, 2008, Appendix B: 1 mmHg = 133.3224 Pa)', () => {
     expectClose(MMHG_PER_KPA, 7.50062, { rel: 1e-5 });
   });
   it('agrees with the SI value 1 mmHg = 133.322387415 Pa within 5e-6 relative (`published: BIPM SI Brochure / ISO 80000-4`)', () => {
@@ -27,11 +27,11 @@ describe('pressure conversion mmHg <-> kPa', () => {
   });
 });
 
-describe('CO2 percent -> mmHg (primer 7.2)', () => {
-  it('5.0 % dry at PB 760 -> 35.65 mmHg (primer W4, `common practice, no source`)', () => {
+describe('CO2 percent -> mmHg (conventions: common practice, no source)', () => {
+  it('5.0 % dry at PB 760 -> 35.65 mmHg (derived here: 0.05 x 713)', () => {
     expectClose(5 * co2FactorToMmhg('%', 760, 'dry'), 35.65, { rel: 1e-6 });
   });
-  it('5.0 % ambient-referenced at PB 760 -> 38.00 mmHg (primer W4, `common practice, no source`)', () => {
+  it('5.0 % ambient-referenced at PB 760 -> 38.00 mmHg (derived here: 0.05 x 760)', () => {
     expectClose(5 * co2FactorToMmhg('%', 760, 'ambient'), 38.0, { rel: 1e-6 });
   });
   it('mmHg stays mmHg', () => {

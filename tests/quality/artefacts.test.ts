@@ -1,4 +1,4 @@
-// Breath quality codes on simulator recordings that contain one artefact from 90 s on (issue 5 acceptance): the
+// Breath quality codes on simulator recordings that contain one artefact from 90 s on (acceptance test): the
 // matching reason code appears after the onset, and the clean breaths before it stay ok. The artefacts are simulator
 // events (rebreathing, leak, clipping, tiny breaths, one odd breath) or manipulations of the sampled signals (a delay
 // jump, heavy noise, missing rows). Thresholds are the documented defaults in src/settings.ts.

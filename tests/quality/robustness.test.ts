@@ -1,4 +1,4 @@
-// Bad input never escapes as an exception (issue 5 acceptance): property-based tests (fast-check) feed random and
+// Bad input never escapes as an exception (acceptance test): property-based tests (fast-check) feed random and
 // mutated recordings — dropped, duplicated, garbled and truncated lines, random units in the header, NaN and huge
 // values, random bytes — and assert the analysis either returns a result with full row accounting
 // (rows = rows_used + rows_skipped) or fails with a clear one-line error of a known kind.

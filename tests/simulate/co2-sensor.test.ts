@@ -17,8 +17,8 @@ function stepCrossings(delayS: number, riseMs: number, fs: number): { t10: numbe
 }
 
 describe('CO2 sensor model', () => {
-  it('W22: tau 100 ms <-> 10-90 % rise time 219.7 ms (ln 9 x tau)', () => {
-    // [published relation: Miller's Anesthesia 6th ed. (about 2.2 tau)], primer 11 W22
+  it('tau 100 ms <-> 10-90 % rise time 219.7 ms (ln 9 x tau)', () => {
+    // [derived here: docs/methods.md, Derivations] 100 ms x ln 9 = 219.7 ms
     const { t10, t90 } = stepCrossings(0, 219.7, 10000);
     expectClose(t90 - t10, 0.2197, { abs: 0.0005 });
   });

@@ -1,7 +1,7 @@
 // CSV export round trips: parse our own files with papaparse and convert back to internal units.
-// Unit factors here are written out independently of the simulator: 1 kPa = 7.50062 mmHg (primer 7.1,
-// `[common practice, no source: SI definitions]`; mathjs uses 7.500638, 2.9e-6 apart), % = P / PB x 100 (ambient)
-// or P / (PB - 47) x 100 (dry), primer 7.2 `[common practice, no source]`; 1 L/s = 60 L/min = 1000 mL/s.
+// Unit factors here are written out independently of the simulator: 1 kPa = 7.50062 mmHg (NIST SP 811,
+// 2008, Appendix B: 1 mmHg = 133.3224 Pa; mathjs uses 7.500638, 2.9e-6 apart), % = P / PB x 100 (ambient)
+// or P / (PB - 47) x 100 (dry) `[common practice, no source]`; 1 L/s = 60 L/min = 1000 mL/s.
 import Papa from 'papaparse';
 import { describe, expect, it } from 'vitest';
 import { concatBlocks, scenarioParams, simulateRecording, writeRecordingCsv, type SimParams } from '../../src/simulate/index';

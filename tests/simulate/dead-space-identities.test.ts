@@ -20,13 +20,13 @@ function truthOf(overrides: Partial<SimParams>): TruthBreath[] {
   return simulateRecording(cleanParams({ minutes: 1, ...overrides }), 5).truth.breaths;
 }
 
-describe('Fowler equal-area closed form (primer 3.1)', () => {
-  it('W20 synthetic curve B: A 13050, line 34 + 0.01 V, V_x 500 -> VDaw 149.648 mL', () => {
-    // [common practice, no source: analytic synthetic curve; verified by script] primer 11 W20
+describe('Fowler equal-area closed form (derived here)', () => {
+  it('synthetic curve B: A 13050, line 34 + 0.01 V, V_x 500 -> VDaw 149.648 mL', () => {
+    // [derived here: synthetic curve B, docs/methods.md Derivations]
     expectClose(fowlerEqualArea(13050, 34, 0.01, 500), 149.648, { abs: 0.001 });
   });
-  it('W19 synthetic curve A: flat plateau 40, area 14000, V_E 500 -> VDaw 150.0 mL', () => {
-    // [common practice, no source: analytic synthetic curve] primer 11 W19
+  it('synthetic curve A: flat plateau 40, area 14000, V_E 500 -> VDaw 150.0 mL', () => {
+    // [derived here: synthetic curve A, docs/methods.md Derivations]
     expectClose(fowlerEqualArea(14000, 40, 0, 500), 150, { abs: 1e-9 });
   });
 });
@@ -61,7 +61,7 @@ describe('skewed phase II front (optional mode)', () => {
   });
 });
 
-describe('Bohr and Enghoff on the truth (primer 6.1-6.3)', () => {
+describe('Bohr and Enghoff on the truth (Bohr 1891, Enghoff 1938)', () => {
   it('no shunt, no alveolar dead space, flat phase III: Enghoff equals Bohr', () => {
     for (const b of truthOf({ shunt_fraction: 0, alv_dead_space_fraction: 0, slope3_mmhg_per_l: 0 })) {
       expectClose(b.vdvt_enghoff, b.vdvt_bohr, { abs: 1e-3 });
@@ -76,7 +76,7 @@ describe('Bohr and Enghoff on the truth (primer 6.1-6.3)', () => {
       const alveolar = b.pa_perfused_mmhg;
       // algebra of the two equations with PI = 0: (Pa - PE)/Pa - (PA - PE)/PA
       expectClose(b.vdvt_enghoff - b.vdvt_bohr, (b.peco2_mmhg * (pa - alveolar)) / (alveolar * pa), { abs: 2e-4 });
-      // primer 10.4 / W15 Fick route `[common practice, no source]`, steady state
+      // Fick route `[derived here: docs/methods.md]`, steady state
       expectClose(pa - alveolar, shuntGradientFick(200, 5, 0.25, 0.67), { rel: 0.01 });
     }
   });
@@ -95,7 +95,7 @@ describe('Bohr and Enghoff on the truth (primer 6.1-6.3)', () => {
       for (const b of truthOf(c)) expectClose(b.vd_phys_ml, b.vd_aw_ml + b.vd_alv_ml, { abs: 0.1 }, JSON.stringify(c));
     }
   });
-  it('Bohr with PACO2 = PAECO2 collapses to VDaw (primer 6.2 algebraic trap)', () => {
+  it('Bohr with PACO2 = PAECO2 collapses to VDaw (algebraic trap, derived here)', () => {
     for (const b of truthOf({ slope3_mmhg_per_l: 10 })) {
       const vdBohrMean = b.vt_exp_ml * (1 - b.peco2_mmhg / b.paeco2_mmhg);
       expectClose(vdBohrMean, b.vd_aw_ml, { abs: 1e-6 });

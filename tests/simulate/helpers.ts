@@ -24,7 +24,7 @@ export function cleanParams(overrides: Partial<SimParams> = {}): SimParams {
 /**
  * Net CO2 volume (mL STPD) crossing the airway opening in [t0, t1): trapezoid integral of P x flow over time with
  * flow in mL/s (expiration positive, so inspired CO2 is subtracted), times 1.1588e-3 mL STPD per mmHg mL.
- * Source of the constant: primer 5.1 `[common practice, no source: ideal-gas derivation]` (273.15/310.15/760,
+ * Source of the constant: `[derived here: ideal gas law, docs/methods.md]` (273.15/310.15/760,
  * written out here, not imported from the simulator).
  */
 export function netCo2Ml(block: SampleBlock, t0: number, t1: number): number {

@@ -1,7 +1,7 @@
 // CO2 mass balance of the simulator: over a steady minute the CO2 leaving through the airway opening, integrated
 // from the emitted (clean) signal, equals the CO2 production set in the parameters.
-// Physics: VTCO2_STPD = (273.15/310.15)/760 x integral P dV_BTPS, primer 5.1
-// `[common practice, no source: ideal-gas derivation]`; in steady state elimination equals production (primer 5.1,
+// Physics: VTCO2_STPD = (273.15/310.15)/760 x integral P dV_BTPS
+// `[derived here: ideal gas law, docs/methods.md]`; in steady state elimination equals production (mass balance,
 // steady-state caveat `[published: Anderson & Breen 2000 Crit Care]`).
 import { describe, it } from 'vitest';
 import { concatBlocks, simulateRecording, type SimParams } from '../../src/simulate/index';

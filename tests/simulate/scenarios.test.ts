@@ -1,7 +1,7 @@
 // Built-in scenarios: names, validation messages and physiologically plausible true values.
 // Plausibility ranges: PaCO2/PETCO2 35-45 mmHg normal, P(a-ET)CO2 2-5 mmHg in healthy anaesthetised adults
 // `[published: Satoh et al. 2015 Anesthesiol Res Pract 710537]`, VD/VT ~0.2-0.35 healthy `[common practice]`
-// (primer 12). These are sanity bounds for invented patients, not checks of a formula.
+// These are sanity bounds for invented patients, not checks of a formula.
 import { describe, expect, it } from 'vitest';
 import { listScenarios, scenarioParams, simulateRecording, summariseBreaths } from '../../src/simulate/index';
 import { expectClose } from '../helpers/expect-close';

@@ -1,6 +1,6 @@
 // computeTrends on hand-made breath rows. Expected values are worked out by hand in the comments from the definitions
-// `[common practice, no source: primer 5.1 (V'CO2 = sum of VTCO2 over a window / window minutes) and 6.3 (V'A = RR x
-// (VT - VDaw), the "ventilation reaching alveoli" form)]`.
+// `[common practice, no source: V'CO2 = sum of VTCO2 over a window / window minutes; V'A = RR x (VT - VDaw), the
+// "ventilation reaching alveoli" form]`.
 import { describe, expect, it } from 'vitest';
 import { computeTrends } from '../../src/trends/compute-trends';
 import { DEFAULT_TRENDS } from '../../src/trends/settings';

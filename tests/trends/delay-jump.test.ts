@@ -1,5 +1,5 @@
 // A sidestream line whose transport delay jumps (e.g. a kinked or wet sampling line) is a sensor event, not
-// rebreathing, although the misaligned CO2 lands on the inspiratory side (issue 8: "a sudden delay change ->
+// rebreathing, although the misaligned CO2 lands on the inspiratory side (acceptance: "a sudden delay change ->
 // sensor"). Simulated child on a sidestream sensor, CO2 delayed 0.6 s more from 10 min on.
 import { describe, expect, it } from 'vitest';
 import { createAnalyser } from '../../src/analyse/analyser.js';

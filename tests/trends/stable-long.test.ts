@@ -1,5 +1,5 @@
 // Acceptance: a stable 6-hour recording yields at most one event. 6 h at 100 Hz through the analyser takes long, so the
-// simulator runs at 50 Hz (enough for an adult; primer 9.8 asks 100 Hz for phase II detail, which trends do not use).
+// simulator runs at 50 Hz (enough for an adult; phase II detail needs 100 Hz, which trends do not use; common practice, no source).
 import { describe, expect, it } from 'vitest';
 import { computeTrends } from '../../src/trends/compute-trends';
 import { detectEvents } from '../../src/trends/detect-events';

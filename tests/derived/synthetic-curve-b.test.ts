@@ -1,7 +1,9 @@
-// Synthetic curve B (sloped plateau) of primer W20, physiology parts: Bohr/Enghoff, the Bohr-PĀECO2 identity
-// (primer 6.2), Fletcher's areas (primer 6.4), gradient and AVDSF. Inputs are the primer's analytic values
-// (area 13050 mmHg mL, VT 500 mL, Fowler VDaw 149.648 mL, PETCO2 39.0, PaCO2 40, L(350) = 37.50); the curve
-// integration and the Fowler construction belong to the capnogram tests.
+// Synthetic curve B (sloped plateau), physiology parts: Bohr/Enghoff, the Bohr-PĀECO2 identity, Fletcher's areas
+// (Fletcher R, Jonson B, Cumming G, Brew J 1981, "The concept of deadspace with special reference to the single
+// breath test for carbon dioxide", Br J Anaesth 53:77-88), gradient and AVDSF. Inputs are the curve's analytic values
+// (area 13050 mmHg mL, VT 500 mL, Fowler VDaw 149.648 mL, PETCO2 39.0, PaCO2 40, L(350) = 37.50; derivation in
+// docs/methods.md "Derivations"); the curve integration and the Fowler construction belong to the capnogram tests.
+// Not outside checks: every expected value is worked by hand (derived here).
 import { describe, it } from 'vitest';
 import { expectClose } from '../helpers/expect-close.js';
 import {
@@ -19,10 +21,10 @@ const VDAW = 149.648;
 const PACO2 = 40;
 const PETCO2 = 39.0;
 
-// common practice, no source: analytic synthetic curve; verified by script (primer W20)
-const TAG = '[common practice, no source: analytic synthetic curve; verified by script]';
+// derived here: analytic synthetic curve (docs/methods.md "Derivations")
+const TAG = '[derived here: synthetic curve B]';
 
-describe('W20 synthetic curve B', () => {
+describe('synthetic curve B', () => {
   it(`PECO2 = 26.10; PAECO2 = 37.248 ${TAG}`, () => {
     expectClose(mixedExpiredPco2(AREA, VT), 26.1);
     expectClose(meanAlveolarExpiredPco2(AREA, VT, VDAW), 37.248);
@@ -34,8 +36,8 @@ describe('W20 synthetic curve B', () => {
     expectClose(f * VT, 152.0);
   });
 
-  // common practice, no source: algebra (primer 6.2): Bohr with PĀECO2 from the same VDaw returns VDaw exactly
-  it(`Bohr with PAECO2 -> VD = 149.648 mL = VDaw (identity of primer 6.2) ${TAG}`, () => {
+  // derived here (algebra, docs/methods.md): Bohr with PĀECO2 from the same VDaw returns VDaw exactly
+  it(`Bohr with PAECO2 -> VD = 149.648 mL = VDaw (identity) ${TAG}`, () => {
     const paeco2 = meanAlveolarExpiredPco2(AREA, VT, VDAW);
     expectClose(bohrDeadSpaceFraction(paeco2, mixedExpiredPco2(AREA, VT)) * VT, 149.648);
     expectClose(bohrDeadSpaceFraction(paeco2, mixedExpiredPco2(AREA, VT)) * VT, VDAW, { rel: 1e-12 });
@@ -57,7 +59,7 @@ describe('W20 synthetic curve B', () => {
     expectClose(a.total_mmhg_ml, 20000);
     expectClose(a.efficiency, 0.6525);
     expectClose(a.vdalv_vtalv, 0.06879);
-    // primer 6.4: VDphys/VT from the areas equals Enghoff (0.3475), efficiency = 1 - Enghoff
+    // Fletcher et al. 1981: VDphys/VT from the areas equals Enghoff (0.3475), efficiency = 1 - Enghoff
     expectClose(a.vdphys_fraction, 0.3475);
     expectClose(a.vdaw_fraction, VDAW / VT);
   });
@@ -69,9 +71,9 @@ describe('W20 synthetic curve B', () => {
 });
 
 describe('AVDSF', () => {
-  // common practice, no source (primer W24). Formula: published: Yehya et al. 2016 "Alveolar dead space fraction
-  // discriminates mortality in pediatric acute respiratory distress syndrome", Pediatr Crit Care Med 17:101-109.
-  it('W24: PaCO2 40, PETCO2 35 -> 0.125 [common practice, no source]', () => {
+  // derived here: (40 - 35)/40. Formula (PaCO2 - PETCO2)/PaCO2 as used by Yehya N et al. 2016, "Alveolar dead space
+  // fraction discriminates mortality in pediatric acute respiratory distress syndrome", Pediatr Crit Care Med 17:101-109.
+  it('PaCO2 40, PETCO2 35 -> 0.125 [derived here: 5/40]', () => {
     expectClose(avdsf(40, 35), 0.125);
   });
 });
