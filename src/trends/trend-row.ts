@@ -1,4 +1,5 @@
 // One row of trends.csv: the breaths of one time bin summarised. NaN = not computable (empty cell).
+import { TREND_METRICS } from '../metrics/registry.js';
 
 /**
  * Per-bin trend values. Breaths belong to the bin that contains their start (t_start_s). Unless said otherwise a
@@ -42,8 +43,5 @@ export interface TrendRow {
   breaths: number;
 }
 
-/** Column order of trends.csv. */
-export const TREND_COLUMNS: readonly (keyof TrendRow)[] = [
-  't_s', 'vco2_ml_min', 've_l_min', 'va_l_min', 'rr_bpm', 'vte_ml', 'petco2_mmhg', 'vd_aw_ml', 'vdvt_bohr',
-  'slope3_mmhg_per_l', 'fico2_mmhg', 'delay_s', 'ok_share', 'breaths',
-] as const;
+/** Column order of trends.csv, from the metric registry. */
+export const TREND_COLUMNS: readonly (keyof TrendRow)[] = TREND_METRICS.map((m) => m.key);
