@@ -26,8 +26,7 @@ export function renderBreathMetrics(
     table.append(h('tr', { class: 'group' }, [h('th', { colspan: 3, text: group })]));
     for (const key of keys) {
       const { label, unit, decimals } = breathMetric(key);
-      const v = row[key] as number;
-      table.append(h('tr', {}, [h('th', { text: label, title: key }), h('td', { class: 'num', 'data-key': key, text: fixed(v, decimals) }), h('td', { class: 'unit', text: unit })]));
+      table.append(h('tr', {}, [h('th', { text: label, title: key }), h('td', { class: 'num', 'data-key': key, text: fixed(row[key], decimals) }), h('td', { class: 'unit', text: unit })]));
     }
   }
   if (paco2) {

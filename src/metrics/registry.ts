@@ -145,6 +145,8 @@ export type BreathRow = { [S in BreathSpec as S['key']]: S['kind'] extends 'text
   flags: string[];
 };
 export type BreathKey = BreathSpec['key'];
+/** Keys of the numeric breath columns. */
+export type NumericBreathKey = Extract<BreathSpec, { kind: 'number' }>['key'];
 /** Keys of the breath metrics that summary.json summarises. */
 export type SummaryKey = Extract<BreathSpec, { summary: true }>['key'];
 
@@ -180,7 +182,7 @@ export const VIEWER_SUMMARY_ROWS: readonly SummaryKey[] = [
 ];
 
 /** The viewer's table of the selected breath, by group. */
-export const VIEWER_BREATH_GROUPS: readonly (readonly [string, readonly BreathKey[]])[] = [
+export const VIEWER_BREATH_GROUPS: readonly (readonly [string, readonly NumericBreathKey[]])[] = [
   ['timing', ['t_start_s', 'rr_bpm', 'ti_s', 'te_s']],
   ['volumes', ['vt_insp_ml', 'vt_exp_ml']],
   ['dead space', ['vd_aw_ml', 'vd_inflection_ml', 'vd_alv_ml', 'vd_bohr_ml', 'vdvt_bohr', 'vd_enghoff_ml', 'vdvt_enghoff']],

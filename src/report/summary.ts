@@ -57,7 +57,7 @@ export function summariseMetric(values: number[]): MetricSummary {
 export function metricSummaries(rows: readonly BreathRow[]): Record<string, MetricSummary> {
   const ok = rows.filter((r) => r.status === 'ok');
   const out: Record<string, MetricSummary> = {};
-  for (const key of SUMMARY_METRICS) out[key] = summariseMetric(ok.map((r) => r[key] as number));
+  for (const key of SUMMARY_METRICS) out[key] = summariseMetric(ok.map((r) => r[key]));
   return out;
 }
 
