@@ -286,8 +286,17 @@ export const METRIC_TABLES = {
 export type MetricTableName = keyof typeof METRIC_TABLES;
 
 const BREATH_BY_KEY = new Map<string, BreathSpec>(BREATH_METRICS.map((m) => [m.key, m]));
+type GasSpec = (typeof GAS_METRICS)[number];
+const GAS_BY_KEY = new Map<string, GasSpec>(GAS_METRICS.map((m) => [m.key, m]));
+/** Keys of the numeric gas.csv columns. */
+export type NumericGasKey = Extract<GasSpec, { kind: 'number' }>['key'];
 
 /** The registry entry of a breath metric. */
 export function breathMetric(key: BreathKey): BreathSpec {
   return BREATH_BY_KEY.get(key)!;
+}
+
+/** The registry entry of a gas.csv column. */
+export function gasMetric(key: GasSpec['key']): GasSpec {
+  return GAS_BY_KEY.get(key)!;
 }
