@@ -161,7 +161,8 @@ export const SUMMARY_METRICS: readonly SummaryKey[] = BREATH_METRICS.filter((m):
 /** A breath row with every number NaN, status 'ok' and no flags (the starting point of every computed row). */
 export function blankBreathRow(): BreathRow {
   const row: Record<string, unknown> = {};
-  for (const m of BREATH_METRICS) row[m.key] = m.kind === 'text' ? 'ok' : NaN;
+  for (const m of BREATH_METRICS) row[m.key] = m.kind === 'number' ? NaN : '';
+  row.status = 'ok';
   row.flags = [];
   return row as BreathRow;
 }

