@@ -3,15 +3,16 @@
 // meaning and its source. Everything else is generated from here: the column order of the CSV files, the metrics of
 // summary.json (and of the batch recordings.csv), the terminal summary table, the viewer's breath and summary tables,
 // and the column tables of the documentation (src/metrics/markdown.ts, checked by tests/metrics/docs-tables.test.ts).
-// The BreathRow type itself is derived from the breaths table, so a new per-breath metric is one entry here plus the
-// code that computes it. Pure and browser-safe: no imports but types.
+// The BreathRow and TrendRow types are derived from their tables, so a new per-breath or trend metric is one entry
+// here plus the code that computes it; GasRow and Paco2Estimate keep their own interfaces (text columns with fixed
+// values) and a type check (ROW_TYPES_COMPLETE) keeps them and their tables in step. Pure and browser-safe: no
+// imports but types.
 //
 // Sources: a published source (short citation; author, year, title and journal in REFERENCES), `common practice, no
 // source`, or `derived here` (a value this project defines itself: thresholds, identifiers, combinations of other
 // columns, values passed through from an input file).
 
 import type { GasRow, Paco2Estimate } from '../gas/gas-types.js';
-import type { TrendRow } from '../trends/trend-row.js';
 
 /** What a column holds: a number (NaN = empty cell) or text. */
 export type MetricKind = 'number' | 'text';
@@ -194,12 +195,18 @@ export const VIEWER_BREATH_GROUPS: readonly (readonly [string, readonly NumericB
 // ---------------------------------------------------------------------------------------------------------------
 // trends.csv: one row per time bin (src/trends/compute-trends.ts)
 
+/**
+ * The per-bin trend columns, in trends.csv order; TrendRow is derived from them. Breaths belong to the bin that holds
+ * their start (t_start_s). Unless said otherwise a value uses the bin's ok breaths only; with fewer than
+ * `min_ok_breaths` ok breaths it is NaN. Rates are computed over the time the ok breaths cover, not over the bin
+ * length (V'CO2 = sum(VTCO2) / (sum(breath duration) / 60)), so an excluded breath adds neither CO2 nor time.
+ */
 export const TREND_METRICS = [
   n('t_s', 'Bin start', 's', 0, false, 'bin start (recording time)', DERIVED),
   n('vco2_ml_min', "V'CO2", 'mL/min', 1, false,
     "sum of net VTCO2 / (sum of breath durations / 60), mL/min STPD, over the bin's ok breaths: an excluded breath adds neither CO2 nor time, so bin edges cause no bias",
     NO_SOURCE),
-  n('ve_l_min', "V'E", 'L/min', 2, false, 'sum of VTe / (sum of durations / 60)', NO_SOURCE),
+  n('ve_l_min', "V'E", 'L/min', 2, false, 'sum of VTe / (sum of durations / 60), volumes as the flow sensor reports them', NO_SOURCE),
   n('va_l_min', "V'A (airway)", 'L/min', 2, false,
     'alveolar ventilation as ventilation reaching alveoli: sum of (VTe − VDaw) / (sum of durations / 60), i.e. RR × (VT − VDaw), not RR × (VT − VDphys)',
     NO_SOURCE),
@@ -213,7 +220,17 @@ export const TREND_METRICS = [
   n('delay_s', 'CO2 delay measured', 's', 3, false, 'median of the per-breath measured delay (`delay_measured_s`) over all breaths', DERIVED),
   n('ok_share', 'Ok share', '', 2, false, 'ok breaths / breaths (empty when the bin has no breath)', DERIVED),
   n('breaths', 'Breaths', '', 0, false, 'breaths starting in the bin (all statuses)', DERIVED),
-] as const satisfies readonly Entry<TrendRow>[];
+] as const satisfies readonly MetricSpec[];
+
+/** One row of trends.csv (NaN = not computable, an empty cell). */
+export type TrendRow = { [S in (typeof TREND_METRICS)[number] as S['key']]: number };
+
+/** A trend row with every value NaN. */
+export function blankTrendRow(): TrendRow {
+  const row: Record<string, number> = {};
+  for (const m of TREND_METRICS) row[m.key] = NaN;
+  return row as TrendRow;
+}
 
 // ---------------------------------------------------------------------------------------------------------------
 // gas.csv: one row per blood-gas sample (src/gas/analyse-gas.ts)
@@ -268,12 +285,11 @@ export const PACO2_ESTIMATE_METRICS = [
   txt('band_method', 'Band method', '`observed_range` or `single_gas_spread`', DERIVED),
 ] as const satisfies readonly Entry<Paco2Estimate>[];
 
-/** A type check only: a field of TrendRow, GasRow or Paco2Estimate without its registry entry makes this a type error. */
+/** A type check only: a field of GasRow or Paco2Estimate without its registry entry makes this a type error. */
 export const ROW_TYPES_COMPLETE: [
-  Complete<TrendRow, typeof TREND_METRICS>,
   Complete<GasRow, typeof GAS_METRICS>,
   Complete<Paco2Estimate, typeof PACO2_ESTIMATE_METRICS>,
-] = [true, true, true];
+] = [true, true];
 
 // ---------------------------------------------------------------------------------------------------------------
 
