@@ -255,7 +255,7 @@ export const GAS_METRICS = [
   n('vd_aw_ml_per_kg', 'Airway dead space per kg', 'mL/kg', 2, false, '`vd_aw_ml` per kg of predicted body weight (adults with `--height --sex`) or of `--weight`', ARDSNET),
   n('vd_alv_ml_per_kg', 'Alveolar dead space per kg', 'mL/kg', 2, false, '`vd_alv_ml` per kg, same weight as above', ARDSNET),
   n('vd_phys_ml_per_kg', 'Physiological dead space per kg', 'mL/kg', 2, false, '`vd_phys_ml` per kg, same weight as above', ARDSNET),
-  n('pao2_alv_mmhg', 'Ideal alveolar PO2', 'mmHg', 1, false, 'ideal alveolar PO2 from the alveolar gas equation (RQ 0.8)', FENN),
+  n('pao2_alv_mmhg', 'Ideal alveolar PO2', 'mmHg', 1, false, 'ideal alveolar PO2 from the alveolar gas equation (RQ setting, 0.8 by default)', FENN),
   n('shunt_fraction', 'Venous admixture', '', 2, false, 'venous admixture from oxygen contents (end-capillary saturation 1.0) or from saturations only', BERGGREN),
   txt('shunt_method', 'Venous admixture method', '`contents`, `saturations` or empty', DERIVED),
   n('pvco2_mmhg', 'PvCO2 used', 'mmHg', 1, false, 'venous PCO2 used for the shunt part: measured, or PaCO2 + a default P(v−a)CO2 of 6 mmHg', NO_SOURCE),
