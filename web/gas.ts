@@ -6,6 +6,7 @@
 // given, else the most recent gas sample at or before the breath's start (src/gas/apply-paco2.ts), else none.
 
 import type { GasParseResult, GasResult, GasSample } from '../src/gas/index';
+import { gasMetric, type NumericGasKey } from '../src/metrics/registry';
 import type { Settings } from '../src/settings';
 import type { BreathRow } from '../src/types';
 import { h } from './dom';
@@ -22,15 +23,20 @@ export function paco2ForBreath(
   return { mmhg: best.paco2_mmhg, source: `gas sample of ${clockLabel(best.time_s, 1e9)}, line ${best.line}` };
 }
 
+/** The sidebar's gas table: [gas.csv column, header]; decimals from the metric registry. */
+const GAS_TABLE_COLUMNS: [NumericGasKey, string][] = [
+  ['paco2_mmhg', 'PaCO2'], ['petco2_mmhg', 'PETCO2'], ['gradient_mmhg', 'Pa−ETCO2'], ['vdvt_enghoff', 'VD/VT Enghoff'],
+  ['vd_phys_ml', 'VD phys (mL)'], ['shunt_fraction', 'shunt'],
+];
+
 export function renderGas(host: HTMLElement, file: string, parsed: GasParseResult, result: GasResult): void {
   const table = h('table', { class: 'gas-table', id: 'gas-table' }, [
-    h('tr', {}, ['#', 'time', 'PaCO2', 'PETCO2', 'Pa−ETCO2', 'VD/VT Enghoff', 'VD phys (mL)', 'shunt', 'breaths'].map((t) => h('th', { text: t }))),
+    h('tr', {}, ['#', 'time', ...GAS_TABLE_COLUMNS.map(([, head]) => head), 'breaths'].map((t) => h('th', { text: t }))),
   ]);
   for (const r of result.rows) {
     table.append(
       h('tr', {}, [
-        String(r.sample), clockLabel(r.time_s, 1e9), fixed(r.paco2_mmhg, 1), fixed(r.petco2_mmhg, 1), fixed(r.gradient_mmhg, 1),
-        fixed(r.vdvt_enghoff, 3), fixed(r.vd_phys_ml, 0), fixed(r.shunt_fraction, 2), String(r.breaths_used),
+        String(r.sample), clockLabel(r.time_s, 1e9), ...GAS_TABLE_COLUMNS.map(([key]) => fixed(r[key], gasMetric(key).decimals)), String(r.breaths_used),
       ].map((t) => h('td', { class: 'num', text: t }))),
     );
   }

@@ -1,27 +1,12 @@
 // The recording summary (the same Summary object that summary.json holds): breath counts, exclusions by reason,
-// the delay / sensor-response / sign the analysis used, and median (p25-p75) of the main metrics over ok breaths.
+// the delay / sensor-response / sign the analysis used, and median (p25-p75) of the main metrics over ok breaths
+// (which metrics, their labels, units and decimals: the metric registry, src/metrics/registry.ts).
 
+import { breathMetric, VIEWER_SUMMARY_ROWS } from '../src/metrics/registry';
 import type { Summary } from '../src/report/summary';
 import { formatNumber } from '../src/report/format';
 import { h } from './dom';
 import { fixed } from './metrics-table';
-
-/** [metric key, label, unit, decimals] shown in the panel (all of them are in summary.json). */
-export const SUMMARY_ROWS: [string, string, string, number][] = [
-  ['rr_bpm', 'rate', '/min', 1],
-  ['vt_exp_ml', 'tidal volume out', 'mL', 0],
-  ['vd_aw_ml', 'airway dead space (Fowler)', 'mL', 1],
-  ['vd_inflection_ml', 'airway dead space (inflection)', 'mL', 1],
-  ['vd_alv_ml', 'alveolar dead space', 'mL', 1],
-  ['vd_bohr_ml', 'Bohr dead space', 'mL', 1],
-  ['vdvt_bohr', 'VD/VT Bohr', '', 3],
-  ['vd_enghoff_ml', 'Enghoff dead space', 'mL', 1],
-  ['vdvt_enghoff', 'VD/VT Enghoff', '', 3],
-  ['slope3_mmhg_per_l', 'phase III slope', 'mmHg/L', 2],
-  ['petco2_mmhg', 'PETCO2', 'mmHg', 1],
-  ['peco2_mmhg', 'PĒCO2', 'mmHg', 1],
-  ['vtco2_ml', 'VTCO2 per breath', 'mL', 2],
-];
 
 export function renderSummary(host: HTMLElement, s: Summary): void {
   const b = s.breaths;
@@ -40,9 +25,10 @@ export function renderSummary(host: HTMLElement, s: Summary): void {
   const table = h('table', { class: 'summary-metrics', id: 'summary-metrics' }, [
     h('tr', {}, [h('th', { text: 'ok breaths' }), h('th', { text: 'median' }), h('th', { text: 'p25 – p75' }), h('th', { text: 'n' }), h('th', { text: '' })]),
   ]);
-  for (const [key, label, unit, d] of SUMMARY_ROWS) {
+  for (const key of VIEWER_SUMMARY_ROWS) {
     const m = s.metrics[key];
     if (!m || m.n === 0) continue;
+    const { label, unit, decimals: d } = breathMetric(key);
     table.append(
       h('tr', { 'data-metric': key }, [
         h('th', { text: label }),

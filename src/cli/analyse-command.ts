@@ -3,6 +3,7 @@
 import type { Command } from 'commander';
 import { analyseFile } from '../node/analyse-file.js';
 import { writeFileAtomic } from '../node/atomic-write.js';
+import { gasMetric, type NumericGasKey } from '../metrics/registry.js';
 import { formatNumber } from '../report/format.js';
 import { composeOutputs, outputFile, outputNames } from '../report/outputs.js';
 import { formatSummaryText } from '../report/summary.js';
@@ -58,18 +59,20 @@ function insertBeforeCaution(text: string, block: string): string {
   return i < 0 ? `${text}\n${block}` : `${text.slice(0, i)}\n${block}\n${text.slice(i)}`;
 }
 
+/** The terminal's blood-gas table: [gas.csv column, header, width]; decimals from the metric registry. */
+const GAS_TERMINAL_COLUMNS: [NumericGasKey, string, number][] = [
+  ['time_s', 't (s)', 8], ['paco2_mmhg', 'PaCO2', 8], ['petco2_mmhg', 'PETCO2', 8], ['gradient_mmhg', 'Pa-ET', 8],
+  ['avdsf', 'AVDSF', 8], ['vdvt_bohr', 'Bohr', 7], ['vdvt_enghoff', 'Enghoff', 9], ['shunt_fraction', 'shunt', 7],
+  ['gradient_shunt_mmhg', 'by shunt', 10], ['gradient_rest_mmhg', 'rest', 7],
+];
+
 function formatGasText(g: GasResult): string {
-  const f = (x: number, d = 1) => (Number.isFinite(x) ? formatNumber(Number(x.toFixed(d))) : '—');
+  const f = (x: number, d: number) => (Number.isFinite(x) ? formatNumber(Number(x.toFixed(d))) : '—');
   const lines = ['blood gases (median of ok breaths in the window before each sample):'];
-  lines.push(
-    `${'t (s)'.padStart(8)}${'PaCO2'.padStart(8)}${'PETCO2'.padStart(8)}${'Pa-ET'.padStart(8)}${'AVDSF'.padStart(8)}${'Bohr'.padStart(7)}${'Enghoff'.padStart(9)}${'shunt'.padStart(7)}${'by shunt'.padStart(10)}${'rest'.padStart(7)}  n`,
-  );
+  lines.push(`${GAS_TERMINAL_COLUMNS.map(([, head, width]) => head.padStart(width)).join('')}  n`);
   for (const r of g.rows) {
-    lines.push(
-      `${f(r.time_s, 0).padStart(8)}${f(r.paco2_mmhg).padStart(8)}${f(r.petco2_mmhg).padStart(8)}${f(r.gradient_mmhg).padStart(8)}${f(r.avdsf, 3).padStart(8)}` +
-        `${f(r.vdvt_bohr, 3).padStart(7)}${f(r.vdvt_enghoff, 3).padStart(9)}${f(r.shunt_fraction, 2).padStart(7)}${f(r.gradient_shunt_mmhg).padStart(10)}` +
-        `${f(r.gradient_rest_mmhg).padStart(7)}  ${r.breaths_used}${r.gradient_changed ? '  gradient changed' : ''}`,
-    );
+    const cells = GAS_TERMINAL_COLUMNS.map(([key, , width]) => f(r[key], gasMetric(key).decimals).padStart(width)).join('');
+    lines.push(`${cells}  ${r.breaths_used}${r.gradient_changed ? '  gradient changed' : ''}`);
   }
   for (const w of g.warnings) lines.push(`gas note: ${w}`);
   return lines.join('\n');

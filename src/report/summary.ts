@@ -3,6 +3,7 @@
 import { detLog } from '../numeric/det-math.js';
 import type { AnalysisCore } from '../analyse/analyser.js';
 import { REASON_CODES } from '../analyse/quality.js';
+import { breathMetric, TERMINAL_SUMMARY_ROWS } from '../metrics/registry.js';
 import { quantileSorted } from '../analyse/stats.js';
 import { SETTING_GROUPS, type Settings } from '../settings.js';
 import { SUMMARY_METRICS, type BreathRow, type MetricSummary, type RecordedSetting } from '../types.js';
@@ -56,7 +57,7 @@ export function summariseMetric(values: number[]): MetricSummary {
 export function metricSummaries(rows: readonly BreathRow[]): Record<string, MetricSummary> {
   const ok = rows.filter((r) => r.status === 'ok');
   const out: Record<string, MetricSummary> = {};
-  for (const key of SUMMARY_METRICS) out[key] = summariseMetric(ok.map((r) => r[key] as number));
+  for (const key of SUMMARY_METRICS) out[key] = summariseMetric(ok.map((r) => r[key]));
   return out;
 }
 
@@ -151,23 +152,8 @@ export function buildSummary(
   };
 }
 
-const TABLE: [string, string, string][] = [
-  ['rr_bpm', 'Respiratory rate', '/min'],
-  ['vt_exp_ml', 'Expired tidal volume', 'mL'],
-  ['vt_insp_ml', 'Inspired tidal volume', 'mL'],
-  ['vd_aw_ml', 'Airway dead space (Fowler)', 'mL'],
-  ['vd_inflection_ml', 'Airway dead space (inflection)', 'mL'],
-  ['slope3_mmhg_per_l', 'Phase III slope', 'mmHg/L'],
-  ['petco2_mmhg', 'PETCO2', 'mmHg'],
-  ['peco2_mmhg', 'PECO2 (mixed expired)', 'mmHg'],
-  ['alv_co2_mmhg', 'Alveolar PCO2 (phase III mid)', 'mmHg'],
-  ['vtco2_ml', 'VTCO2 per breath (STPD)', 'mL'],
-  ['vdvt_bohr', 'VD/VT Bohr', ''],
-  ['vd_bohr_ml', 'Bohr dead space', 'mL'],
-  ['vd_alv_ml', 'Alveolar dead space (Bohr - airway)', 'mL'],
-  ['vdvt_enghoff', 'VD/VT Enghoff', ''],
-  ['vd_enghoff_ml', 'Enghoff dead space', 'mL'],
-];
+/** Decimals of the terminal table's median and quartiles (one width for every metric, so the columns line up). */
+const TERMINAL_DECIMALS = 3;
 
 /** Plain-text summary for the terminal (fixed-width table, then notes and the caution line). */
 export function formatSummaryText(s: Summary): string {
@@ -184,10 +170,12 @@ export function formatSummaryText(s: Summary): string {
   );
   lines.push('');
   lines.push(`${'metric (ok breaths)'.padEnd(38)}${'median'.padStart(10)}${'p25'.padStart(10)}${'p75'.padStart(10)}${'n'.padStart(7)}  unit`);
-  for (const [key, label, unit] of TABLE) {
+  for (const key of TERMINAL_SUMMARY_ROWS) {
     const m = s.metrics[key];
     if (!m || m.n === 0) continue;
-    lines.push(`${label.padEnd(38)}${fmt(m.median, 3).padStart(10)}${fmt(m.p25, 3).padStart(10)}${fmt(m.p75, 3).padStart(10)}${String(m.n).padStart(7)}  ${unit}`);
+    const { label, unit } = breathMetric(key);
+    const d = TERMINAL_DECIMALS;
+    lines.push(`${label.padEnd(38)}${fmt(m.median, d).padStart(10)}${fmt(m.p25, d).padStart(10)}${fmt(m.p75, d).padStart(10)}${String(m.n).padStart(7)}  ${unit}`);
   }
   const reasons = Object.entries(s.breaths.excluded_by_reason).filter(([, n]) => n > 0);
   if (reasons.length) {

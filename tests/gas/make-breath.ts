@@ -1,45 +1,10 @@
 // Hand-built BreathRow values for the blood-gas tests (not a test file). Unset numeric fields are NaN.
+import { blankBreathRow } from '../../src/metrics/registry.js';
 import type { BreathRow } from '../../src/types.js';
 import type { GasSample } from '../../src/gas/index.js';
 
 export function makeBreath(fields: Partial<BreathRow> & { t_start_s: number }): BreathRow {
-  const nan = NaN;
-  return {
-    breath: 0,
-    t_exp_start_s: nan,
-    t_end_s: fields.t_start_s + 4,
-    status: 'ok',
-    rr_bpm: nan,
-    ti_s: nan,
-    te_s: nan,
-    vt_insp_ml: nan,
-    vt_exp_ml: nan,
-    vd_aw_ml: nan,
-    vd_inflection_ml: nan,
-    v_phase2_start_ml: nan,
-    v_phase3_start_ml: nan,
-    slope2_mmhg_per_l: nan,
-    slope3_mmhg_per_l: nan,
-    slope3_norm_per_l: nan,
-    slope3_r2: nan,
-    petco2_mmhg: nan,
-    peco2_mmhg: nan,
-    paeco2_mmhg: nan,
-    alv_co2_mmhg: nan,
-    vtco2_ml: nan,
-    veco2_ml: nan,
-    vico2_ml: nan,
-    fico2_mmhg: nan,
-    vd_bohr_ml: nan,
-    vdvt_bohr: nan,
-    vd_alv_ml: nan,
-    vd_enghoff_ml: nan,
-    vdvt_enghoff: nan,
-    delay_s: nan,
-    delay_measured_s: nan,
-    flags: [],
-    ...fields,
-  };
+  return { ...blankBreathRow(), breath: 0, t_end_s: fields.t_start_s + 4, ...fields };
 }
 
 /** Numbered breaths every 5 s from `fromS` (each 4 s long), all with the same fields. */

@@ -1,5 +1,6 @@
 // Choice of blood gases around an event and the arterial share (arithmetic checked by hand in the comments).
 import { describe, expect, it } from 'vitest';
+import { blankTrendRow } from '../../src/metrics/registry';
 import { compareGases, petco2At } from '../../src/trends/blood-gas';
 import { trendSettings } from '../../src/trends/settings';
 import type { TrendRow } from '../../src/trends/trend-row';
@@ -7,6 +8,7 @@ import { expectClose } from '../helpers/expect-close';
 
 const o = trendSettings();
 const rows: TrendRow[] = Array.from({ length: 30 }, (_, i) => ({
+  ...blankTrendRow(),
   t_s: i * 60, vco2_ml_min: 200, ve_l_min: 7, va_l_min: 4.9, rr_bpm: 14, vte_ml: 500, petco2_mmhg: i < 12 ? 36 : 29,
   vd_aw_ml: 150, vdvt_bohr: 0.3, slope3_mmhg_per_l: 8, fico2_mmhg: 0, delay_s: 0, ok_share: 1, breaths: 14,
 }));

@@ -1,0 +1,319 @@
+// The metric registry: one table per output file (breaths.csv, trends.csv, gas.csv, paco2_estimates.csv) holding,
+// for every column, its key (unit in the name), label, unit, decimals, whether summary.json summarises it, a one-line
+// meaning and its source. Everything else is generated from here: the column order of the CSV files, the metrics of
+// summary.json (and of the batch recordings.csv), the terminal summary table, the viewer's breath and summary tables,
+// and the column tables of the documentation (src/metrics/markdown.ts, checked by tests/metrics/docs-tables.test.ts).
+// The BreathRow and TrendRow types are derived from their tables, so a new per-breath or trend metric is one entry
+// here plus the code that computes it; GasRow and Paco2Estimate keep their own interfaces (text columns with fixed
+// values) and a type check (ROW_TYPES_COMPLETE) keeps them and their tables in step. Pure and browser-safe: no
+// imports but types.
+//
+// Sources: a published source (short citation; author, year, title and journal in REFERENCES), `common practice, no
+// source`, or `derived here` (a value this project defines itself: thresholds, identifiers, combinations of other
+// columns, values passed through from an input file).
+
+import type { GasRow, Paco2Estimate } from '../gas/gas-types.js';
+
+/** What a column holds: a number (NaN = empty cell) or text. */
+export type MetricKind = 'number' | 'text';
+
+export interface MetricSpec<K extends string = string> {
+  /** column name; carries its unit (`vd_aw_ml`, `slope3_mmhg_per_l`); dimensionless values carry none */
+  key: K;
+  kind: MetricKind;
+  /** display name (terminal table, viewer tables) */
+  label: string;
+  /** display unit ('' = dimensionless or text) */
+  unit: string;
+  /** decimals shown in the viewer's tables */
+  decimals: number;
+  /** summary.json gives median, p25, p75 and n over ok breaths (breaths table only) */
+  summary: boolean;
+  /** one-line meaning, for the documentation tables */
+  meaning: string;
+  /** published source (short citation; the full reference in REFERENCES), `common practice, no source` or `derived here` */
+  source: MetricSource;
+}
+
+/** Published sources, by the short citation the registry entries use. */
+export const REFERENCES = {
+  'Fowler 1948': 'Fowler WS 1948. Lung function studies. II. The respiratory dead space. Am J Physiol 154:405-416',
+  'Fletcher et al. 1981':
+    'Fletcher R, Jonson B, Cumming G, Brew J 1981. The concept of deadspace with special reference to the single breath test for carbon dioxide. Br J Anaesth 53:77-88',
+  'Bohr 1891': 'Bohr C 1891. Über die Lungenathmung. Skand Arch Physiol 2:236-268',
+  'Enghoff 1938': 'Enghoff H 1938. Volumen inefficax. Bemerkungen zur Frage des schädlichen Raumes. Upsala Läkareförenings Förhandlingar 44:191-218',
+  'Tusman et al. 2012': 'Tusman G, Sipmann FS, Bohm SH 2012. Rationale of dead space measurement by volumetric capnography. Anesth Analg 114:866-874',
+  'Tusman et al. 2011':
+    'Tusman G, Sipmann FS, Borges JB, Hedenstierna G, Bohm SH 2011. Validation of Bohr dead space measured by volumetric capnography. Intensive Care Med 37:870-874',
+  'Hardman & Aitkenhead 2003':
+    'Hardman JG, Aitkenhead AR 2003. Estimating alveolar dead space from the arterial to end-tidal CO2 gradient: a modeling analysis. Anesth Analg 97:1846-1851',
+  'ARDS Network 2000':
+    'The Acute Respiratory Distress Syndrome Network 2000. Ventilation with lower tidal volumes as compared with traditional tidal volumes for acute lung injury and the acute respiratory distress syndrome. N Engl J Med 342:1301-1308 (predicted body weight)',
+  'Fenn et al. 1946': 'Fenn WO, Rahn H, Otis AB 1946. A theoretical study of the composition of the alveolar air at altitude. Am J Physiol 146:637-653',
+  'Berggren 1942': 'Berggren SM 1942. The oxygen deficit of arterial blood caused by non-ventilating parts of the lung. Acta Physiol Scand 4 Suppl 11:1-92',
+} as const;
+
+const FOWLER = 'Fowler 1948';
+const FLETCHER = 'Fletcher et al. 1981';
+const BOHR = 'Bohr 1891';
+const ENGHOFF = 'Enghoff 1938';
+const TUSMAN_2012 = 'Tusman et al. 2012';
+const TUSMAN_2011 = 'Tusman et al. 2011';
+const HARDMAN = 'Hardman & Aitkenhead 2003';
+const ARDSNET = 'ARDS Network 2000';
+const FENN = 'Fenn et al. 1946';
+const BERGGREN = 'Berggren 1942';
+export const NO_SOURCE = 'common practice, no source';
+export const DERIVED = 'derived here';
+
+/** A published source (a key of REFERENCES), `common practice, no source` or `derived here`. */
+export type MetricSource = keyof typeof REFERENCES | typeof NO_SOURCE | typeof DERIVED;
+
+/** One table's entries, checked against its row type: every key is a field of Row (text columns hold strings). */
+type Entry<Row> = { [K in keyof Row & string]: MetricSpec<K> & { kind: Row[K] extends number ? 'number' : 'text' } }[keyof Row & string];
+
+/** A numeric column. */
+function n<K extends string, S extends boolean>(
+  key: K, label: string, unit: string, decimals: number, summary: S, meaning: string, source: MetricSource,
+): MetricSpec<K> & { kind: 'number'; summary: S } {
+  return { key, kind: 'number', label, unit, decimals, summary, meaning, source };
+}
+
+/** A text column (written as it is; booleans as true/false). */
+function txt<K extends string>(key: K, label: string, meaning: string, source: MetricSource): MetricSpec<K> & { kind: 'text'; summary: false } {
+  return { key, kind: 'text', label, unit: '', decimals: 0, summary: false, meaning, source };
+}
+
+/** `true` when a table lists every field of its row type, else the missing keys (Entry checks the other direction). */
+type Complete<Row, Table extends readonly { key: string }[]> = [Exclude<keyof Row & string, Table[number]['key']>] extends [never]
+  ? true
+  : { missing: Exclude<keyof Row & string, Table[number]['key']> };
+
+// ---------------------------------------------------------------------------------------------------------------
+// breaths.csv: one row per breath, columns in this order
+
+/**
+ * The per-breath columns, in breaths.csv order. BreathRow is derived from this list (plus `flags`), so the type,
+ * the CSV and the tables cannot drift apart.
+ */
+export const BREATH_METRICS = [
+  n('breath', 'Breath', '', 0, false, 'breath number (1-based)', DERIVED),
+  n('t_start_s', 'Inspiration start', 's', 2, false, 'inspiration start (recording time)', DERIVED),
+  n('t_exp_start_s', 'Expiration start', 's', 2, false, 'expiration start', DERIVED),
+  n('t_end_s', 'Breath end', 's', 2, false, 'end of expiration (= next inspiration start)', DERIVED),
+  txt('status', 'Status', '`ok`, or the quality codes joined by `+`', DERIVED),
+  n('rr_bpm', 'Respiratory rate', '/min', 1, true, '60 / breath duration', NO_SOURCE),
+  n('ti_s', 'Inspiratory time', 's', 2, false, 'inspiratory time', NO_SOURCE),
+  n('te_s', 'Expiratory time', 's', 2, false, 'expiratory time', NO_SOURCE),
+  n('vt_insp_ml', 'Inspired tidal volume', 'mL', 1, true, 'inspired tidal volume (flow integrated by the trapezoid rule, offset-corrected)', NO_SOURCE),
+  n('vt_exp_ml', 'Expired tidal volume', 'mL', 1, true, 'expired tidal volume V_E (flow integrated by the trapezoid rule, offset-corrected)', NO_SOURCE),
+  n('vd_aw_ml', 'Airway dead space (Fowler)', 'mL', 1, true,
+    "airway dead space by Fowler's equal-area construction on CO2 above the inspired level, upper limit V_E (setting), minus `apparatus_ml`", FOWLER),
+  n('vd_inflection_ml', 'Airway dead space (inflection)', 'mL', 1, true,
+    'airway dead space as the phase II inflection (steepest point), sub-sample refined', TUSMAN_2012),
+  n('v_phase2_start_ml', 'Phase II start', 'mL', 1, false, 'expired volume where CO2 leaves 5 % of the phase III line', DERIVED),
+  n('v_phase3_start_ml', 'Phase III start', 'mL', 1, false, 'expired volume where CO2 first reaches 95 % of the phase III line after the inflection', DERIVED),
+  n('slope2_mmhg_per_l', 'Phase II slope', 'mmHg/L', 0, false, 'steepest phase II slope', TUSMAN_2012),
+  n('slope3_mmhg_per_l', 'Phase III slope', 'mmHg/L', 2, true,
+    'phase III slope: least-squares line over the middle half of phase III, low-flow samples left out, sensor lag modelled', TUSMAN_2012),
+  n('slope3_norm_per_l', 'Phase III slope / PETCO2', '1/L', 3, true, 'phase III slope / PETCO2', NO_SOURCE),
+  n('slope3_r2', 'Phase III fit R²', '', 4, false, 'R² of the phase III fit', NO_SOURCE),
+  n('petco2_mmhg', 'PETCO2', 'mmHg', 1, true, 'end-tidal PCO2 (default: the phase III line at end of expiration; see `petco2_method`)', NO_SOURCE),
+  n('peco2_mmhg', 'PECO2 (mixed expired)', 'mmHg', 1, true, 'mixed expired PCO2 = ∫P dV / V_E over the whole expiration', FLETCHER),
+  n('paeco2_mmhg', 'Mean alveolar expired PCO2', 'mmHg', 1, true, 'average alveolar expired PCO2 = ∫P dV / (V_E − VDaw)', FLETCHER),
+  n('alv_co2_mmhg', 'Alveolar PCO2 (phase III mid)', 'mmHg', 1, true,
+    'alveolar PCO2 for Bohr: the phase III line at the midpoint of phase III (setting)', TUSMAN_2011),
+  n('vtco2_ml', 'VTCO2 per breath (STPD)', 'mL', 2, true,
+    'CO2 eliminated per breath, mL STPD = expired − inspired CO2 volume; 1.1588e-3 × ∫P dV at 37 °C', FLETCHER),
+  n('veco2_ml', 'Expired CO2 volume (STPD)', 'mL', 2, false, 'expired CO2 volume, mL STPD', FLETCHER),
+  n('vico2_ml', 'Re-inspired CO2 volume (STPD)', 'mL', 3, false, 'inspired CO2 volume, mL STPD', FLETCHER),
+  n('fico2_mmhg', 'Inspired PCO2', 'mmHg', 2, true, 'volume-weighted mean inspired PCO2', NO_SOURCE),
+  n('vd_bohr_ml', 'Bohr dead space', 'mL', 1, true, 'Bohr dead space = VD/VT Bohr × V_E', BOHR),
+  n('vdvt_bohr', 'VD/VT Bohr', '', 3, true, 'Bohr: VD/VT = (PACO2 − PĒCO2)/(PACO2 − PICO2)', BOHR),
+  n('vd_alv_ml', 'Alveolar dead space (Bohr - airway)', 'mL', 1, true, 'alveolar dead space = Bohr dead space − airway (Fowler) dead space', FLETCHER),
+  n('vd_enghoff_ml', 'Enghoff dead space', 'mL', 1, true, 'Enghoff dead space = VD/VT Enghoff × V_E (needs `--paco2` or `--gas`)', ENGHOFF),
+  n('vdvt_enghoff', 'VD/VT Enghoff', '', 3, true, 'Enghoff: VD/VT = (PaCO2 − PĒCO2)/(PaCO2 − PICO2) (needs `--paco2` or `--gas`)', ENGHOFF),
+  n('delay_s', 'CO2 delay used', 's', 3, true, 'CO2 transport delay used for this breath', DERIVED),
+  n('delay_measured_s', 'CO2 delay measured', 's', 3, false,
+    "delay measured on this breath's own inspiratory CO2 downstroke (empty when none was found); trends use it to see a delay jump", DERIVED),
+] as const satisfies readonly MetricSpec[];
+
+type BreathSpec = (typeof BREATH_METRICS)[number];
+
+/** One analysed breath (one row of breaths.csv) plus its quality codes. NaN = not computable (an empty cell). */
+export type BreathRow = { [S in BreathSpec as S['key']]: S['kind'] extends 'text' ? string : number } & {
+  /** quality codes of the breath (status is 'ok' or these joined by '+') */
+  flags: string[];
+};
+export type BreathKey = BreathSpec['key'];
+/** Keys of the numeric breath columns. */
+export type NumericBreathKey = Extract<BreathSpec, { kind: 'number' }>['key'];
+/** Keys of the breath metrics that summary.json summarises. */
+export type SummaryKey = Extract<BreathSpec, { summary: true }>['key'];
+
+/** breaths.csv column order. */
+export const BREATH_COLUMNS: readonly BreathKey[] = BREATH_METRICS.map((m) => m.key);
+
+/** Numeric breath columns that get a summary (median, p25, p75, n over ok breaths), in breaths.csv order. */
+export const SUMMARY_METRICS: readonly SummaryKey[] = BREATH_METRICS.filter((m): m is Extract<BreathSpec, { summary: true }> => m.summary).map(
+  (m) => m.key,
+);
+
+/** A breath row with every number NaN, status 'ok' and no flags (the starting point of every computed row). */
+export function blankBreathRow(): BreathRow {
+  const row: Record<string, unknown> = {};
+  for (const m of BREATH_METRICS) row[m.key] = m.kind === 'number' ? NaN : '';
+  row.status = 'ok';
+  row.flags = [];
+  return row as BreathRow;
+}
+
+// ---------------------------------------------------------------------------------------------------------------
+// Views: which breath metrics each display shows, in its order. Labels, units and decimals come from the entries.
+
+/** The terminal summary table (median, p25, p75, n over ok breaths; shown when n > 0). */
+export const TERMINAL_SUMMARY_ROWS: readonly SummaryKey[] = [
+  'rr_bpm', 'vt_exp_ml', 'vt_insp_ml', 'vd_aw_ml', 'vd_inflection_ml', 'slope3_mmhg_per_l', 'petco2_mmhg', 'peco2_mmhg',
+  'alv_co2_mmhg', 'vtco2_ml', 'vdvt_bohr', 'vd_bohr_ml', 'vd_alv_ml', 'vdvt_enghoff', 'vd_enghoff_ml',
+];
+
+/** The viewer's recording summary panel. */
+export const VIEWER_SUMMARY_ROWS: readonly SummaryKey[] = [
+  'rr_bpm', 'vt_exp_ml', 'vd_aw_ml', 'vd_inflection_ml', 'vd_alv_ml', 'vd_bohr_ml', 'vdvt_bohr', 'vd_enghoff_ml',
+  'vdvt_enghoff', 'slope3_mmhg_per_l', 'petco2_mmhg', 'peco2_mmhg', 'vtco2_ml',
+];
+
+/** The viewer's table of the selected breath, by group. */
+export const VIEWER_BREATH_GROUPS: readonly (readonly [string, readonly NumericBreathKey[]])[] = [
+  ['timing', ['t_start_s', 'rr_bpm', 'ti_s', 'te_s']],
+  ['volumes', ['vt_insp_ml', 'vt_exp_ml']],
+  ['dead space', ['vd_aw_ml', 'vd_inflection_ml', 'vd_alv_ml', 'vd_bohr_ml', 'vdvt_bohr', 'vd_enghoff_ml', 'vdvt_enghoff']],
+  ['phases', ['v_phase2_start_ml', 'v_phase3_start_ml', 'slope2_mmhg_per_l', 'slope3_mmhg_per_l', 'slope3_norm_per_l', 'slope3_r2']],
+  ['CO2', ['petco2_mmhg', 'peco2_mmhg', 'alv_co2_mmhg', 'paeco2_mmhg', 'fico2_mmhg', 'vtco2_ml', 'veco2_ml', 'vico2_ml', 'delay_s']],
+];
+
+// ---------------------------------------------------------------------------------------------------------------
+// trends.csv: one row per time bin (src/trends/compute-trends.ts)
+
+/**
+ * The per-bin trend columns, in trends.csv order; TrendRow is derived from them. Breaths belong to the bin that holds
+ * their start (t_start_s). Unless said otherwise a value uses the bin's ok breaths only; with fewer than
+ * `min_ok_breaths` ok breaths it is NaN. Rates are computed over the time the ok breaths cover, not over the bin
+ * length (V'CO2 = sum(VTCO2) / (sum(breath duration) / 60)), so an excluded breath adds neither CO2 nor time.
+ */
+export const TREND_METRICS = [
+  n('t_s', 'Bin start', 's', 0, false, 'bin start (recording time)', DERIVED),
+  n('vco2_ml_min', "V'CO2", 'mL/min', 1, false,
+    "sum of net VTCO2 / (sum of breath durations / 60), mL/min STPD, over the bin's ok breaths: an excluded breath adds neither CO2 nor time, so bin edges cause no bias",
+    NO_SOURCE),
+  n('ve_l_min', "V'E", 'L/min', 2, false, 'sum of VTe / (sum of durations / 60), volumes as the flow sensor reports them', NO_SOURCE),
+  n('va_l_min', "V'A (airway)", 'L/min', 2, false,
+    'alveolar ventilation as ventilation reaching alveoli: sum of (VTe − VDaw) / (sum of durations / 60), i.e. RR × (VT − VDaw), not RR × (VT − VDphys)',
+    NO_SOURCE),
+  n('rr_bpm', 'Respiratory rate', '/min', 1, false, '60 × ok breaths / sum of their durations', NO_SOURCE),
+  n('vte_ml', 'Expired tidal volume', 'mL', 0, false, 'median expired tidal volume over ok breaths', NO_SOURCE),
+  n('petco2_mmhg', 'PETCO2', 'mmHg', 1, false, 'median PETCO2 over ok breaths', NO_SOURCE),
+  n('vd_aw_ml', 'Airway dead space (Fowler)', 'mL', 1, false, 'median airway dead space over ok breaths', FOWLER),
+  n('vdvt_bohr', 'VD/VT Bohr', '', 3, false, 'median Bohr VD/VT over ok breaths', BOHR),
+  n('slope3_mmhg_per_l', 'Phase III slope', 'mmHg/L', 2, false, 'median phase III slope over ok breaths', TUSMAN_2012),
+  n('fico2_mmhg', 'Inspired PCO2', 'mmHg', 2, false, 'median inspired PCO2 over all breaths (rebreathing itself excludes breaths)', NO_SOURCE),
+  n('delay_s', 'CO2 delay measured', 's', 3, false, 'median of the per-breath measured delay (`delay_measured_s`) over all breaths', DERIVED),
+  n('ok_share', 'Ok share', '', 2, false, 'ok breaths / breaths (empty when the bin has no breath)', DERIVED),
+  n('breaths', 'Breaths', '', 0, false, 'breaths starting in the bin (all statuses)', DERIVED),
+] as const satisfies readonly MetricSpec[];
+
+/** One row of trends.csv (NaN = not computable, an empty cell). */
+export type TrendRow = { [S in (typeof TREND_METRICS)[number] as S['key']]: number };
+
+/** A trend row with every value NaN. */
+export function blankTrendRow(): TrendRow {
+  const row: Record<string, number> = {};
+  for (const m of TREND_METRICS) row[m.key] = NaN;
+  return row as TrendRow;
+}
+
+// ---------------------------------------------------------------------------------------------------------------
+// gas.csv: one row per blood-gas sample (src/gas/analyse-gas.ts)
+
+export const GAS_METRICS = [
+  n('sample', 'Sample', '', 0, false, 'sample number in time order (1-based)', DERIVED),
+  n('line', 'Line', '', 0, false, 'line of the sample in the gas file', DERIVED),
+  n('time_s', 'Time', 's', 0, false, 'sample time, seconds from recording start', DERIVED),
+  n('paco2_mmhg', 'PaCO2', 'mmHg', 1, false, 'arterial PCO2 as given in the gas file', DERIVED),
+  n('breaths_used', 'Breaths used', '', 0, false, 'ok breaths in the window before the sample (`--gas-window`) used for the medians', DERIVED),
+  n('petco2_mmhg', 'PETCO2', 'mmHg', 1, false, 'window median of PETCO2', NO_SOURCE),
+  n('peco2_mmhg', 'PECO2 (mixed expired)', 'mmHg', 1, false, 'window median of PĒCO2', FLETCHER),
+  n('vt_exp_ml', 'Expired tidal volume', 'mL', 0, false, 'window median of the expired tidal volume', NO_SOURCE),
+  n('gradient_mmhg', 'Pa-ETCO2 gradient', 'mmHg', 1, false, 'PaCO2 − PETCO2', NO_SOURCE),
+  n('avdsf', 'AVDSF', '', 3, false, 'alveolar dead-space fraction (PaCO2 − PETCO2) / PaCO2', HARDMAN),
+  n('vdvt_bohr', 'VD/VT Bohr', '', 3, false, 'window median of the per-breath Bohr VD/VT', BOHR),
+  n('vdvt_enghoff', 'VD/VT Enghoff', '', 3, false, '(PaCO2 − median PĒCO2) / PaCO2', ENGHOFF),
+  n('vdvt_difference', 'VD/VT Enghoff - Bohr', '', 3, false, '`vdvt_enghoff` − `vdvt_bohr`', DERIVED),
+  n('vd_aw_ml', 'Airway dead space (Fowler)', 'mL', 1, false, 'window median of the airway dead space', FOWLER),
+  n('vd_alv_ml', 'Alveolar dead space', 'mL', 1, false, '`vd_phys_ml` − `vd_aw_ml`', FLETCHER),
+  n('vd_phys_ml', 'Physiological dead space', 'mL', 0, false, '`vdvt_enghoff` × median expired tidal volume', ENGHOFF),
+  n('vd_aw_ml_per_kg', 'Airway dead space per kg', 'mL/kg', 2, false, '`vd_aw_ml` per kg of predicted body weight (adults with `--height --sex`) or of `--weight`', ARDSNET),
+  n('vd_alv_ml_per_kg', 'Alveolar dead space per kg', 'mL/kg', 2, false, '`vd_alv_ml` per kg, same weight as above', ARDSNET),
+  n('vd_phys_ml_per_kg', 'Physiological dead space per kg', 'mL/kg', 2, false, '`vd_phys_ml` per kg, same weight as above', ARDSNET),
+  n('pao2_alv_mmhg', 'Ideal alveolar PO2', 'mmHg', 1, false, 'ideal alveolar PO2 from the alveolar gas equation (RQ setting, 0.8 by default)', FENN),
+  n('shunt_fraction', 'Venous admixture', '', 2, false, 'venous admixture from oxygen contents (end-capillary saturation 1.0) or from saturations only', BERGGREN),
+  txt('shunt_method', 'Venous admixture method', '`contents`, `saturations` or empty', DERIVED),
+  n('pvco2_mmhg', 'PvCO2 used', 'mmHg', 1, false, 'venous PCO2 used for the shunt part: measured, or PaCO2 + a default P(v−a)CO2 of 6 mmHg', NO_SOURCE),
+  txt('pvco2_source', 'PvCO2 source', '`measured`, `default`, `fick` or empty', DERIVED),
+  n('gradient_shunt_mmhg', 'Gradient from shunt', 'mmHg', 1, false, 'part of the gradient that venous admixture explains: s/(1 − s) × (PvCO2 − PaCO2), or the Fick route', DERIVED),
+  n('gradient_rest_mmhg', 'Gradient rest', 'mmHg', 1, false, '`gradient_mmhg` − `gradient_shunt_mmhg`: dead space and V/Q mismatch', DERIVED),
+  n('gradient_change_mmhg', 'Gradient change', 'mmHg', 1, false, "gradient minus the previous sample's gradient", DERIVED),
+  txt('gradient_changed', 'Gradient changed', '`true` when the gradient changed by more than `gradient_change_mmhg` (5 mmHg) since the previous sample', DERIVED),
+  txt('missing_inputs', 'Missing inputs', 'inputs that were missing, `;`-separated (breath metrics as `breath.<field>`)', DERIVED),
+  txt('notes', 'Notes', 'assumptions and fallbacks used for this row, `;`-separated', DERIVED),
+  n('temp_c', 'Patient temperature', '°C', 1, false, 'patient temperature from the gas file, passed through', DERIVED),
+] as const satisfies readonly Entry<GasRow>[];
+
+// ---------------------------------------------------------------------------------------------------------------
+// paco2_estimates.csv: one row per ok breath after the first blood gas (src/gas/estimate-paco2.ts)
+
+export const PACO2_ESTIMATE_METRICS = [
+  n('breath', 'Breath', '', 0, false, 'breath number', DERIVED),
+  n('t_start_s', 'Inspiration start', 's', 2, false, 'inspiration start of the breath', DERIVED),
+  n('petco2_mmhg', 'PETCO2', 'mmHg', 1, false, "the breath's PETCO2", NO_SOURCE),
+  n('paco2_est_mmhg', 'PaCO2 estimate', 'mmHg', 1, false, 'PETCO2 + the gradient of the most recent gas sample', NO_SOURCE),
+  n('band_low_mmhg', 'Estimate band low', 'mmHg', 1, false, 'PETCO2 + the smallest gradient observed so far (one gas: estimate − 5 mmHg)', DERIVED),
+  n('band_high_mmhg', 'Estimate band high', 'mmHg', 1, false, 'PETCO2 + the largest gradient observed so far (one gas: estimate + 5 mmHg)', DERIVED),
+  n('gradient_mmhg', 'Gradient used', 'mmHg', 1, false, 'gradient added to PETCO2 (from the gas sample used)', NO_SOURCE),
+  n('gas_sample', 'Gas sample', '', 0, false, 'sample number of the gas used', DERIVED),
+  n('gases_in_band', 'Gases in band', '', 0, false, 'gas samples at or before this breath whose gradients make the band', DERIVED),
+  txt('band_method', 'Band method', '`observed_range` or `single_gas_spread`', DERIVED),
+] as const satisfies readonly Entry<Paco2Estimate>[];
+
+/** A type check only: a field of GasRow or Paco2Estimate without its registry entry makes this a type error. */
+export const ROW_TYPES_COMPLETE: [
+  Complete<GasRow, typeof GAS_METRICS>,
+  Complete<Paco2Estimate, typeof PACO2_ESTIMATE_METRICS>,
+] = [true, true];
+
+// ---------------------------------------------------------------------------------------------------------------
+
+/** The registry tables by name (the names the documentation markers use: `<!-- metrics:breaths:start -->`). */
+export const METRIC_TABLES = {
+  breaths: BREATH_METRICS as readonly MetricSpec[],
+  trends: TREND_METRICS as readonly MetricSpec[],
+  gas: GAS_METRICS as readonly MetricSpec[],
+  'paco2-estimates': PACO2_ESTIMATE_METRICS as readonly MetricSpec[],
+} as const;
+export type MetricTableName = keyof typeof METRIC_TABLES;
+
+const BREATH_BY_KEY = new Map<string, BreathSpec>(BREATH_METRICS.map((m) => [m.key, m]));
+type GasSpec = (typeof GAS_METRICS)[number];
+const GAS_BY_KEY = new Map<string, GasSpec>(GAS_METRICS.map((m) => [m.key, m]));
+/** Keys of the numeric gas.csv columns. */
+export type NumericGasKey = Extract<GasSpec, { kind: 'number' }>['key'];
+
+/** The registry entry of a breath metric. */
+export function breathMetric(key: BreathKey): BreathSpec {
+  return BREATH_BY_KEY.get(key)!;
+}
+
+/** The registry entry of a gas.csv column. */
+export function gasMetric(key: GasSpec['key']): GasSpec {
+  return GAS_BY_KEY.get(key)!;
+}
