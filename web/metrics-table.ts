@@ -6,6 +6,7 @@ import { REASON_CODES } from '../src/analyse/quality';
 import { fletcherAreas } from '../src/physiology/fletcher-areas';
 import type { BreathRow } from '../src/types';
 import { h } from './dom';
+import { statusClass } from './palette';
 
 type Key = keyof BreathRow;
 
@@ -59,7 +60,7 @@ export function renderBreathMetrics(
   host: HTMLElement, row: BreathRow, total: number, paco2: { mmhg: number; source: string } | null, vStarMl: number,
 ): void {
   const table = h('table', { class: 'metrics', id: 'breath-metrics' });
-  const statusCell = h('td', { colspan: 2, class: `status ${row.status === 'ok' ? 'ok' : 'flagged'}`, 'data-testid': 'breath-status', text: row.status });
+  const statusCell = h('td', { colspan: 2, class: `status ${statusClass(row.status)}`, 'data-testid': 'breath-status', text: row.status });
   table.append(
     h('caption', { text: `breath ${row.breath} of ${total}` }),
     h('tr', {}, [h('th', { text: 'status' }), statusCell]),

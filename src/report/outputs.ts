@@ -66,7 +66,7 @@ export function composeOutputs(
   given: ReadonlySet<string>,
   excluded: ReadonlyMap<number, string>,
   gas: GasInput | null,
-  gasOptions: GasOptions = { pb_mmhg: settings.ingest.pb_mmhg, ...(gas?.options ?? {}) },
+  gasOptions: GasOptions = { pb_mmhg: settings.ingest.pb_mmhg, summary_breaths: settings.analysis.summary_breaths, ...(gas?.options ?? {}) },
 ): Outputs {
   const rows = exportRows(core, settings, excluded, gas);
   const reviewed: AnalysisCore = { ...core, breaths: rows };
@@ -90,7 +90,7 @@ export function composeOutputs(
   }
   const note = exclusionNote(core.breaths, excluded);
   if (note) summary.notes.push(note);
-  const te = trendsAndEvents(rows, settings.events, gas ? gas.samples : []);
+  const te = trendsAndEvents(rows, { ...settings.events, summary_breaths: settings.analysis.summary_breaths }, gas ? gas.samples : []);
   summary.events = jsonSafe(te.events);
   return { rows, summary, gas: gasResult, trends: te.trends, events: te.events };
 }

@@ -2,7 +2,8 @@
 
 /**
  * Per-bin trend values. Breaths belong to the bin that contains their start (t_start_s). Unless said otherwise a
- * value uses the bin's ok breaths only (status 'ok'); with fewer than `min_ok_breaths` ok breaths it is NaN.
+ * value uses the bin's usable breaths only (usableForSummary: ok breaths and, unless analysis.summary_breaths is
+ * 'ok_only', breaths with a caution; called "ok breaths" below); with fewer than `min_ok_breaths` of them it is NaN.
  *
  * Rates are computed over the time the ok breaths cover, not over the bin length:
  *   V'CO2 = sum(VTCO2) / (sum(breath duration) / 60)   mL/min STPD   (primer 5.1: sum of net VTCO2 over a window /
