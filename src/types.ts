@@ -78,7 +78,7 @@ export const BREATH_COLUMNS: readonly (keyof BreathRow)[] = [
   'vico2_ml', 'fico2_mmhg', 'vd_bohr_ml', 'vdvt_bohr', 'vd_alv_ml', 'vd_enghoff_ml', 'vdvt_enghoff', 'delay_s', 'delay_measured_s',
 ] as const;
 
-/** Numeric breath columns that get a summary (median, p25, p75, n over ok breaths). */
+/** Numeric breath columns that get a summary (median, p25, p75, n over the breaths usableForSummary picks). */
 export const SUMMARY_METRICS: readonly (keyof BreathRow)[] = [
   'rr_bpm', 'vt_insp_ml', 'vt_exp_ml', 'vd_aw_ml', 'vd_inflection_ml', 'slope3_mmhg_per_l', 'slope3_norm_per_l',
   'petco2_mmhg', 'peco2_mmhg', 'paeco2_mmhg', 'alv_co2_mmhg', 'vtco2_ml', 'fico2_mmhg', 'vd_bohr_ml', 'vdvt_bohr',
