@@ -32,8 +32,6 @@ export interface GasParseResult {
 
 /** Options of analyseGas. Every value actually used is recorded in GasResult.settings. */
 export interface GasOptions {
-  /** breaths the window medians and estimates use (analysis.summary_breaths; default ok and caution breaths) */
-  summary_breaths?: 'ok_and_caution' | 'ok_only';
   /** window of breaths before each sample, s (default 60) */
   window_s?: number;
   /** actual body weight, kg */

@@ -66,14 +66,14 @@ export function composeOutputs(
   given: ReadonlySet<string>,
   excluded: ReadonlyMap<number, string>,
   gas: GasInput | null,
-  gasOptions: GasOptions = { pb_mmhg: settings.ingest.pb_mmhg, summary_breaths: settings.analysis.summary_breaths, ...(gas?.options ?? {}) },
+  gasOptions: GasOptions = { pb_mmhg: settings.ingest.pb_mmhg, ...(gas?.options ?? {}) },
 ): Outputs {
   const rows = exportRows(core, settings, excluded, gas);
   const reviewed: AnalysisCore = { ...core, breaths: rows };
   let gasResult: GasResult | null = null;
   let summary: Summary;
   if (gas) {
-    gasResult = analyseGas(rows, gas.samples, gasOptions);
+    gasResult = analyseGas(rows, gas.samples, gasOptions, { summary_breaths: settings.analysis.summary_breaths });
     summary = summaryFor(reviewed, report, settings, given);
     summary.gas = jsonSafe({
       file: gas.file,
