@@ -11,7 +11,10 @@ import { buildSummary, formatSummaryText, recordSettings, type InputSummary, typ
 import { defaultSettings } from '../../src/settings.js';
 import { MMHG_PER_KPA, scenarioParams, simulateSignals, type SimParams } from '../../src/simulate/index.js';
 import type { BreathRow } from '../../src/types.js';
+import { selectWindowBreaths } from '../../src/gas/index.js';
+import { computeTrends } from '../../src/trends/compute-trends.js';
 import { checkLimits, type Combo } from '../accuracy/sweep.js';
+import { breathRow } from '../trends/make-row.js';
 
 const INPUT: InputSummary = { file: 'simulated', rows: 0, rows_used: 0, rows_skipped: 0, skipped_by_reason: {}, skipped_examples: [] };
 const TRUTH_KEYS = ['vd_aw_ml', 'petco2_mmhg', 'peco2_mmhg', 'slope3_mmhg_per_l', 'vdvt_enghoff', 'vtco2_ml'] as const;
@@ -143,5 +146,26 @@ describe('quality classes and the CO2 grid', () => {
     const kpa = wave.map((x) => (Math.round((10 * x) / MMHG_PER_KPA) / 10) * MMHG_PER_KPA + 0.3);
     expect(Math.abs(co2GridStep(kpa) - 0.1 * MMHG_PER_KPA)).toBeLessThan(1e-9);
     expect(co2GridStep([36, 36, 36, 37])).toBe(0); // too few steps to tell
+  });
+});
+
+describe('every consumer uses usableForSummary', () => {
+  const rows = [0, 4, 8, 12].map((t, i) =>
+    breathRow({
+      breath: i + 1, t_start_s: t, t_end_s: t + 4, vt_exp_ml: 500, vtco2_ml: 14, petco2_mmhg: 36 + i,
+      status: i === 0 ? 'ok' : i === 3 ? 'outlier' : 'caution:leak', flags: i === 0 ? [] : i === 3 ? ['outlier'] : ['leak'],
+    }));
+
+  it('trends: caution breaths count in a bin unless summary_breaths is ok_only', () => {
+    const [t] = computeTrends(rows, { bin_s: 60, min_ok_breaths: 1 });
+    expect(t!.petco2_mmhg).toBe(37); // median of 36, 37, 38 (the outlier's 39 left out)
+    expect(t!.ok_share).toBe(0.75);
+    const [o] = computeTrends(rows, { bin_s: 60, min_ok_breaths: 1, summary_breaths: 'ok_only' });
+    expect(o!.petco2_mmhg).toBe(36);
+  });
+
+  it('gas windows: caution breaths are in the window unless summary_breaths is ok_only', () => {
+    expect(selectWindowBreaths(rows, 20, 60).map((b) => b.breath)).toEqual([1, 2, 3]);
+    expect(selectWindowBreaths(rows, 20, 60, 'ok_only').map((b) => b.breath)).toEqual([1]);
   });
 });
