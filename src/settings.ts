@@ -80,12 +80,19 @@ export interface AnalysisSettings {
   min_phase3_r2: number;
   /** residual RMS ceiling of the phase III fit, mmHg */
   max_phase3_rms_mmhg: number;
+  /** inspired and expired tidal volumes differing by more than this fraction: caution `leak` */
   leak_fraction: number;
+  /** ... by more than this fraction: the breath is excluded (`large_leak`) */
+  max_leak_fraction: number;
   rebreathing_mmhg: number;
   outlier_mad: number;
   min_petco2_mmhg: number;
   max_co2_mmhg: number;
   delay_spread_s: number;
+  /** CO2 readings on a grid this coarse or coarser (mmHg) get the caution `co2_quantised` */
+  quantised_co2_mmhg: number;
+  /** breaths the medians, trends and gas windows use: ok and caution breaths, or ok breaths only */
+  summary_breaths: 'ok_and_caution' | 'ok_only';
   /** longest transport delay searched when estimating it, s */
   max_delay_s: number;
   min_rate_hz: number;
@@ -140,12 +147,19 @@ export const DEFAULT_ANALYSIS: AnalysisSettings = {
   min_phase3_fraction: 0.08,
   min_phase3_r2: 0.0,
   max_phase3_rms_mmhg: 2.5,
-  leak_fraction: 0.15,
+  leak_fraction: 0.1,
+  // a leak up to 30 % of VT leaves a measurable breath (volumes and dead space on the expired side); beyond it the
+  // expired volume no longer stands for the breath (our choice, no source)
+  max_leak_fraction: 0.3,
   rebreathing_mmhg: 3,
   outlier_mad: 5,
   min_petco2_mmhg: 10,
   max_co2_mmhg: 150,
   delay_spread_s: 0.25,
+  // half the PETCO2 accuracy limit of 1 mmHg: 1 mmHg, 0.1 kPa (0.75 mmHg) and 0.1 % (0.76 mmHg) grids are coarse,
+  // 0.01 kPa and 0.1 mmHg are not (derived here)
+  quantised_co2_mmhg: 0.5,
+  summary_breaths: 'ok_and_caution',
   max_delay_s: 5,
   min_rate_hz: 20,
 };

@@ -8,6 +8,7 @@ import { breathMetric, VIEWER_BREATH_GROUPS } from '../src/metrics/registry';
 import { fletcherAreas } from '../src/physiology/fletcher-areas';
 import type { BreathRow } from '../src/types';
 import { h } from './dom';
+import { statusClass } from './palette';
 
 export function fixed(x: number, decimals: number): string {
   return Number.isFinite(x) ? x.toFixed(decimals) : '–';
@@ -17,7 +18,7 @@ export function renderBreathMetrics(
   host: HTMLElement, row: BreathRow, total: number, paco2: { mmhg: number; source: string } | null, vStarMl: number,
 ): void {
   const table = h('table', { class: 'metrics', id: 'breath-metrics' });
-  const statusCell = h('td', { colspan: 2, class: `status ${row.status === 'ok' ? 'ok' : 'flagged'}`, 'data-testid': 'breath-status', text: row.status });
+  const statusCell = h('td', { colspan: 2, class: `status ${statusClass(row.status)}`, 'data-testid': 'breath-status', text: row.status });
   table.append(
     h('caption', { text: `breath ${row.breath} of ${total}` }),
     h('tr', {}, [h('th', { text: 'status' }), statusCell]),

@@ -1,4 +1,5 @@
 // The viewer's own colours (one place, so charts, legends and the PNG agree).
+import { qualityOfStatus } from '../src/analyse/quality';
 
 export const COLOURS = {
   flow: '#2a6f97',
@@ -18,6 +19,7 @@ export const COLOURS = {
   areaY: 'rgba(208, 0, 0, 0.20)',
   areaZ: 'rgba(106, 76, 147, 0.25)',
   ok: '#2b9348',
+  caution: '#b08900',
   flagged: '#e36414',
   excluded: '#7b2cbf',
   selected: 'rgba(29, 53, 87, 0.12)',
@@ -29,9 +31,15 @@ export const COLOURS = {
 /** Trend series colours, in order. */
 export const TREND_COLOURS = ['#2a6f97', '#e09f3e', '#6a4c93', '#2b9348', '#c0572a'] as const;
 
-/** Colour of a breath's status: ok, flagged by the analysis, or excluded by the reviewer. */
+/** Class of a breath's status for colours and CSS: ok, caution (kept in the summaries), flagged (excluded by the
+ *  analysis) or excluded by the reviewer. */
+export function statusClass(status: string): 'ok' | 'caution' | 'flagged' | 'excluded' {
+  if (status.includes('excluded_by_user')) return 'excluded';
+  const q = qualityOfStatus(status);
+  return q === 'excluded' ? 'flagged' : q;
+}
+
+/** Colour of a breath's status (statusClass). */
 export function statusColour(status: string): string {
-  if (status === 'ok') return COLOURS.ok;
-  if (status.includes('excluded_by_user')) return COLOURS.excluded;
-  return COLOURS.flagged;
+  return COLOURS[statusClass(status)];
 }

@@ -12,6 +12,7 @@ import { renderBreathMetrics } from './metrics-table';
 import { createOverview, type Overview } from './overview-chart';
 import { renderReadingNotes } from './reading-notes';
 import type { SignalWindow } from './signal-store';
+import { statusClass } from './palette';
 import { renderSummary } from './summary-panel';
 import { createTrends, type Trends } from './trends';
 
@@ -121,7 +122,7 @@ export function renderBreath(): void {
   }
   const st = scene.row.status;
   statusEl.textContent = st;
-  statusEl.className = `status ${st === 'ok' ? 'ok' : st.includes('excluded_by_user') ? 'excluded' : 'flagged'}`;
+  statusEl.className = `status ${statusClass(st)}`;
   byId('exclude-button').textContent = state.excluded.has(state.selected) ? 're-include (X)' : 'exclude (X)';
   byId<HTMLSelectElement>('exclude-reason').disabled = state.excluded.has(state.selected);
   breathView.show(scene);
@@ -150,7 +151,10 @@ export function step(dir: 1 | -1, flaggedOnly: boolean): void {
 export function showTrends(): void {
   if (!state.result) return;
   if (!trends) {
-    trends = createTrends(byId('trends'), () => state.rows, () => state.outputs?.gas?.rows ?? [], () => state.outputs?.events ?? [], select);
+    trends = createTrends(
+      byId('trends'), () => state.rows, () => state.outputs?.gas?.rows ?? [], () => state.outputs?.events ?? [], select,
+      () => state.analysed?.settings.analysis.summary_breaths,
+    );
     trendsStale = false;
   } else if (trendsStale) {
     trends.rebuild();

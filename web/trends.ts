@@ -4,6 +4,7 @@
 // physiological dead space and Enghoff VD/VT from the gas table).
 
 import uPlot from 'uplot';
+import { usableForSummary, type SummaryBreaths } from '../src/analyse/quality';
 import type { GasRow } from '../src/gas/index';
 import type { EventRow } from '../src/trends/index';
 import type { BreathRow } from '../src/types';
@@ -54,12 +55,14 @@ export interface Trends {
   destroy(): void;
 }
 
-/** Column arrays of the ok breaths (null elsewhere) for the given keys. */
-export function trendColumns(rows: readonly BreathRow[], keys: (keyof BreathRow)[]): { x: number[]; ys: (number | null)[][] } {
+/** Column arrays of the breaths usable for a summary (usableForSummary; null elsewhere) for the given keys. */
+export function trendColumns(
+  rows: readonly BreathRow[], keys: (keyof BreathRow)[], summaryBreaths?: SummaryBreaths,
+): { x: number[]; ys: (number | null)[][] } {
   const x = rows.map((r) => r.t_start_s);
   const ys = keys.map((k) => rows.map((r) => {
     const v = r[k] as number;
-    return r.status === 'ok' && Number.isFinite(v) ? v : null;
+    return usableForSummary(r, { summary_breaths: summaryBreaths }) && Number.isFinite(v) ? v : null;
   }));
   return { x, ys };
 }
@@ -70,6 +73,7 @@ export function createTrends(
   gas: () => readonly GasRow[],
   events: () => readonly EventRow[],
   onSelect: (index: number) => void,
+  summaryBreaths: () => SummaryBreaths | undefined = () => undefined,
 ): Trends {
   let syncing = false;
   const plots: uPlot[] = [];
@@ -153,7 +157,7 @@ export function createTrends(
     const rs = rows();
     for (const spec of TREND_SPECS) {
       const keys = spec.series.map(([k]) => k);
-      const { x, ys } = trendColumns(rs, keys);
+      const { x, ys } = trendColumns(rs, keys, summaryBreaths());
       const present = ys.map((col) => col.some((v) => v !== null));
       if (!present.some(Boolean) && !(spec.gas && gas().length)) continue;
       const wrap = host.appendChild(document.createElement('div'));
@@ -214,7 +218,7 @@ export function createTrends(
     update() {
       const rs = rows();
       plots.forEach((p, i) => {
-        const { x, ys } = trendColumns(rs, shown[i]!.series.map(([k]) => k));
+        const { x, ys } = trendColumns(rs, shown[i]!.series.map(([k]) => k), summaryBreaths());
         p.setData([x, ...ys] as uPlot.AlignedData, false);
         p.redraw();
       });

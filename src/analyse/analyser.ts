@@ -11,7 +11,7 @@ import { calibrate, type Calibration } from './calibrate.js';
 import { decomposeBreath, type BreathDecomposition, type BreathSignals } from './decompose.js';
 import { fitInspiratoryFall, lowerBound } from './fall-fit.js';
 import { inspirationReversalTime } from './flow-reversal.js';
-import { checkBreath, markOutliers, statusOf } from './quality.js';
+import { checkBreath, co2GridStep, markOutliers, statusOf } from './quality.js';
 import { createSegmenter, type BreathBounds, type Segmenter } from './segment.js';
 import { countFinite, median, medianPositiveStep } from './stats.js';
 
@@ -26,6 +26,9 @@ export interface AnalysisCore {
   median_dt_s: number;
   /** per-breath delay estimates (s), for the spread */
   breath_delays_s: number[];
+  /** recording-level cautions (e.g. a delay that cannot be trusted); listed in summary.json recording_cautions and
+   *  the terminal summary. None are set yet. */
+  recording_cautions?: { code: string; message: string }[];
 }
 
 export interface BreathEvent {
@@ -229,7 +232,10 @@ class StreamAnalyser implements Analyser {
       }
     }
     const flags = checkBreath(
-      { row: d.row, geometry: d.geometry, flags: d.flags, breath_delay_s: breathDelay, delay_s: c.delay_s, median_dt_s: this.medianDt },
+      {
+        row: d.row, geometry: d.geometry, flags: d.flags, breath_delay_s: breathDelay, delay_s: c.delay_s, median_dt_s: this.medianDt,
+        co2_grid_mmhg: co2GridStep(co2),
+      },
       cfg,
     );
     d.row.delay_measured_s = breathDelay;

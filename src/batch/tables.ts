@@ -8,16 +8,16 @@ import { closeSync, mkdirSync, openSync, readFileSync, renameSync, rmSync, write
 import { dirname, join } from 'node:path';
 import { writeFileAtomic } from '../node/atomic-write.js';
 import { csvCell, csvTable } from '../report/format.js';
+import { BREATHS_CSV_COLUMNS } from '../report/breaths-csv.js';
 import type { Summary } from '../report/summary.js';
 import { EVENT_COLUMNS, TREND_COLUMNS } from '../trends/index.js';
-import { BREATH_COLUMNS } from '../types.js';
 import type { ManifestEntry } from './manifest.js';
 import { recordingRow, RECORDING_COLUMNS } from './recordings-table.js';
 
 export const BATCH_BREATHS_FILE = 'breaths.csv';
 export const BATCH_RECORDINGS_FILE = 'recordings.csv';
 
-const BREATHS_HEADER = BREATH_COLUMNS.join(',');
+const BREATHS_HEADER = BREATHS_CSV_COLUMNS.join(',');
 
 /** Writes DIR/breaths.csv and DIR/recordings.csv from the entries (in the order given). */
 export function writeBatchTables(outDir: string, entries: readonly ManifestEntry[]): void {

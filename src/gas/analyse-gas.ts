@@ -1,4 +1,5 @@
 import { avdsf } from '../physiology/avdsf.js';
+import type { SummaryBreaths } from '../analyse/quality.js';
 import { enghoffDeadSpaceFraction } from '../physiology/enghoff-dead-space-fraction.js';
 import type { BreathRow } from '../types.js';
 import { estimatePaco2 } from './estimate-paco2.js';
@@ -21,7 +22,7 @@ function fmt(v: number, digits = 1): string {
  * into a shunt part and a dead-space / V/Q part; then estimates PaCO2 between samples (estimatePaco2).
  *
  * Per sample (primer 6, 10):
- * - window medians (ok breaths only, see selectWindowBreaths) of PETCO2, PĒCO2, VTe, VDaw and per-breath Bohr VD/VT;
+ * - window medians (ok and caution breaths, see selectWindowBreaths and usableForSummary) of PETCO2, PĒCO2, VTe, VDaw and per-breath Bohr VD/VT;
  * - gradient = PaCO2 - PETCO2; AVDSF = gradient / PaCO2;
  * - Enghoff VD/VT = (PaCO2 - median PĒCO2)/PaCO2. Because this is an affine function of PĒCO2 for a fixed PaCO2, it
  *   equals the median of the per-breath Enghoff values computed with the same PaCO2 (for odd and even counts);
@@ -29,8 +30,12 @@ function fmt(v: number, digits = 1): string {
  * - shunt fraction and gradient split, see shuntPart; gradient_rest = gradient - gradient_shunt;
  * - gradient change versus the previous sample with a gradient, flagged above the setting.
  * Missing inputs leave NaN cells and are named in missing_inputs; assumptions are named in notes and warnings.
+ * `use.summary_breaths` (analysis.summary_breaths) picks the breaths of the windows and estimates (usableForSummary).
  */
-export function analyseGas(breaths: readonly BreathRow[], samples: readonly GasSample[], opts: GasOptions): GasResult {
+export function analyseGas(
+  breaths: readonly BreathRow[], samples: readonly GasSample[], opts: GasOptions,
+  use: { summary_breaths?: SummaryBreaths } = {},
+): GasResult {
   const d = GAS_DEFAULTS;
   const windowS = opts.window_s ?? d.window_s.value;
   const gradientChangeMmhg = opts.gradient_change_mmhg ?? d.gradient_change_mmhg.value;
@@ -58,7 +63,7 @@ export function analyseGas(breaths: readonly BreathRow[], samples: readonly GasS
   ordered.forEach((sample, i) => {
     const number = i + 1;
     const label = `gas sample ${number} (line ${sample.line}, t = ${fmt(sample.time_s)} s)`;
-    const used = selectWindowBreaths(breaths, sample.time_s, windowS);
+    const used = selectWindowBreaths(breaths, sample.time_s, windowS, use.summary_breaths);
     const med = Object.fromEntries(BREATH_FIELDS.map((f) => [f, finiteMedian(used.map((b) => b[f]))])) as Record<
       (typeof BREATH_FIELDS)[number],
       number
@@ -152,7 +157,7 @@ export function analyseGas(breaths: readonly BreathRow[], samples: readonly GasS
 
   const settings: Record<string, unknown> = {
     window_s: windowS,
-    window_rule: 'ok breaths with t_start_s >= sample time - window_s and t_end_s <= sample time; medians',
+    window_rule: `${use.summary_breaths === 'ok_only' ? 'ok breaths' : 'ok and caution breaths'} with t_start_s >= sample time - window_s and t_end_s <= sample time; medians`,
     enghoff_rule: '(PaCO2 - median PECO2) / PaCO2 (equals the median of per-breath Enghoff with the same PaCO2)',
     vd_phys_rule: 'Enghoff VD/VT x median VTe; vd_alv = vd_phys - median VDaw',
     pb_mmhg: shuntSettings.pb_mmhg,
@@ -174,6 +179,6 @@ export function analyseGas(breaths: readonly BreathRow[], samples: readonly GasS
     given: Object.keys(opts).filter((k) => opts[k as keyof GasOptions] !== undefined).sort(),
   };
 
-  const estimates = estimatePaco2(breaths, rows, { single_gas_spread_mmhg: singleGasSpread });
+  const estimates = estimatePaco2(breaths, rows, { single_gas_spread_mmhg: singleGasSpread, summary_breaths: use.summary_breaths });
   return { rows, estimates, settings, warnings };
 }

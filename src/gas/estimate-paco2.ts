@@ -1,9 +1,10 @@
+import { usableForSummary, type SummaryBreaths } from '../analyse/quality.js';
 import type { BreathRow } from '../types.js';
 import { GAS_DEFAULTS } from './gas-defaults.js';
 import type { GasRow, Paco2Estimate } from './gas-types.js';
 
 /**
- * PaCO2 between blood gases: for each ok breath with a finite PETCO2 that starts at or after the first
+ * PaCO2 between blood gases: for each breath usable for a summary (usableForSummary) with a finite PETCO2 that starts at or after the first
  * gas sample with a gradient, estimated PaCO2 = PETCO2 + the most recent gradient (the last gas row with
  * time_s <= the breath's t_start_s and a finite gradient_mmhg).
  *
@@ -14,7 +15,7 @@ import type { GasRow, Paco2Estimate } from './gas-types.js';
 export function estimatePaco2(
   breaths: readonly BreathRow[],
   gasRows: readonly GasRow[],
-  opts: { single_gas_spread_mmhg?: number } = {},
+  opts: { single_gas_spread_mmhg?: number; summary_breaths?: SummaryBreaths } = {},
 ): Paco2Estimate[] {
   const spread = opts.single_gas_spread_mmhg ?? GAS_DEFAULTS.single_gas_spread_mmhg.value;
   const known = gasRows
@@ -24,7 +25,7 @@ export function estimatePaco2(
   if (known.length === 0) return out;
 
   for (const b of breaths) {
-    if (b.status !== 'ok' || !Number.isFinite(b.petco2_mmhg)) continue;
+    if (!usableForSummary(b, opts) || !Number.isFinite(b.petco2_mmhg)) continue;
     let n = 0;
     let lo = Infinity;
     let hi = -Infinity;

@@ -101,7 +101,12 @@ export const BREATH_METRICS = [
   n('t_start_s', 'Inspiration start', 's', 2, false, 'inspiration start (recording time)', DERIVED),
   n('t_exp_start_s', 'Expiration start', 's', 2, false, 'expiration start', DERIVED),
   n('t_end_s', 'Breath end', 's', 2, false, 'end of expiration (= next inspiration start)', DERIVED),
-  txt('status', 'Status', '`ok`, or the quality codes joined by `+`', DERIVED),
+  txt(
+    'status',
+    'Status',
+    '`ok`; `caution:` and the caution codes joined by `+`; or, for an excluded breath, all its quality codes joined by `+`. breaths.csv follows it with a `quality` column (`ok`, `caution` or `excluded`), the class of the status, derived when the file is written',
+    DERIVED,
+  ),
   n('rr_bpm', 'Respiratory rate', '/min', 1, true, '60 / breath duration', NO_SOURCE),
   n('ti_s', 'Inspiratory time', 's', 2, false, 'inspiratory time', NO_SOURCE),
   n('te_s', 'Expiratory time', 's', 2, false, 'expiratory time', NO_SOURCE),
@@ -142,7 +147,7 @@ type BreathSpec = (typeof BREATH_METRICS)[number];
 
 /** One analysed breath (one row of breaths.csv) plus its quality codes. NaN = not computable (an empty cell). */
 export type BreathRow = { [S in BreathSpec as S['key']]: S['kind'] extends 'text' ? string : number } & {
-  /** quality codes of the breath (status is 'ok' or these joined by '+') */
+  /** quality codes of the breath (cautions and exclusions; status is derived from them) */
   flags: string[];
 };
 export type BreathKey = BreathSpec['key'];

@@ -73,7 +73,7 @@ export function composeOutputs(
   let gasResult: GasResult | null = null;
   let summary: Summary;
   if (gas) {
-    gasResult = analyseGas(rows, gas.samples, gasOptions);
+    gasResult = analyseGas(rows, gas.samples, gasOptions, { summary_breaths: settings.analysis.summary_breaths });
     summary = summaryFor(reviewed, report, settings, given);
     summary.gas = jsonSafe({
       file: gas.file,
@@ -90,7 +90,7 @@ export function composeOutputs(
   }
   const note = exclusionNote(core.breaths, excluded);
   if (note) summary.notes.push(note);
-  const te = trendsAndEvents(rows, settings.events, gas ? gas.samples : []);
+  const te = trendsAndEvents(rows, { ...settings.events, summary_breaths: settings.analysis.summary_breaths }, gas ? gas.samples : []);
   summary.events = jsonSafe(te.events);
   return { rows, summary, gas: gasResult, trends: te.trends, events: te.events };
 }

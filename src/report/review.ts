@@ -2,8 +2,9 @@
 //
 // Choice (the CLI has no such notion): an excluded breath keeps every computed value; its status becomes
 // `excluded_by_user:<reason>` (or `<automatic status>+excluded_by_user:<reason>` when the analysis had already
-// flagged it), and the code `excluded_by_user` is added to its flags, so that the summary counts it under
-// breaths.excluded_by_reason.excluded_by_user and leaves it out of every median (summaries use ok breaths only).
+// flagged it; a caution breath drops its `caution:` prefix, as it is now excluded), and the code `excluded_by_user`
+// is added to its flags, so that the summary counts it under breaths.excluded_by_reason.excluded_by_user and
+// usableForSummary leaves it out of every median.
 // The summary also gets one note naming the excluded breaths (outputs.ts). With no exclusion nothing changes, so
 // the exports are byte-identical to the CLI's.
 
@@ -36,7 +37,8 @@ export function reasonSlug(text: string): string {
 /** Status of a breath the reviewer excluded. */
 export function excludedStatus(row: BreathRow, reason: string): string {
   const tag = `${USER_EXCLUDED}:${reasonSlug(reason)}`;
-  return row.status === 'ok' ? tag : `${row.status}+${tag}`;
+  if (row.status === 'ok') return tag;
+  return `${row.status.replace(/^caution:/, '')}+${tag}`;
 }
 
 /** Rows as exported: the analyser's rows, with copies for the excluded ones. */

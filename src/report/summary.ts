@@ -2,7 +2,7 @@
 
 import { detLog } from '../numeric/det-math.js';
 import type { AnalysisCore } from '../analyse/analyser.js';
-import { REASON_CODES } from '../analyse/quality.js';
+import { CAUTION_CODES, qualityOfStatus, REASON_CODES, usableForSummary, type SummaryBreaths } from '../analyse/quality.js';
 import { breathMetric, TERMINAL_SUMMARY_ROWS } from '../metrics/registry.js';
 import { quantileSorted } from '../analyse/stats.js';
 import { SETTING_GROUPS, type Settings } from '../settings.js';
@@ -31,11 +31,23 @@ export interface Summary {
   recording: { duration_s: number; samples: number; segments: number; median_sample_interval_s: number };
   breaths: {
     found: number;
+    /** no quality code */
     ok: number;
+    /** caution codes only (kept in the medians unless medians_over is 'ok_only') */
+    caution: number;
+    /** at least one excluding code */
     excluded: number;
     partial_not_analysed: number;
+    /** breaths the medians use (analysis.summary_breaths) */
+    medians_over: SummaryBreaths;
+    /** caution breaths by caution code (a breath with two cautions counts under both) */
+    caution_by_reason: Record<string, number>;
+    /** excluded breaths by excluding code (a breath with two codes counts under both) */
     excluded_by_reason: Record<string, number>;
   };
+  /** what the reader of the medians should know: caution codes carried by breaths in the medians (with their count),
+   *  and recording-level cautions from the analysis (AnalysisCore.recording_cautions, breaths null) */
+  recording_cautions: RecordingCaution[];
   delay_s: { value: number; origin: string; per_breath_p25: number | null; per_breath_p75: number | null; n: number };
   response_ms: { value: number; origin: string; rise_10_90_ms: number };
   flow_offset_lps: { value: number; origin: string };
@@ -43,6 +55,13 @@ export interface Summary {
   metrics: Record<string, MetricSummary>;
   notes: string[];
   [key: string]: unknown;
+}
+
+export interface RecordingCaution {
+  code: string;
+  message: string;
+  /** breaths in the medians that carry the code; null for a recording-level caution */
+  breaths: number | null;
 }
 
 export function summariseMetric(values: number[]): MetricSummary {
@@ -54,17 +73,33 @@ export function summariseMetric(values: number[]): MetricSummary {
   return { median: quantileSorted(v, 0.5), p25: quantileSorted(v, 0.25), p75: quantileSorted(v, 0.75), n: v.length };
 }
 
-export function metricSummaries(rows: readonly BreathRow[]): Record<string, MetricSummary> {
-  const ok = rows.filter((r) => r.status === 'ok');
+/** Median, p25, p75 and n of every summary metric over the breaths usableForSummary picks. */
+export function metricSummaries(
+  rows: readonly BreathRow[],
+  opts: { summary_breaths?: SummaryBreaths } = {},
+): Record<string, MetricSummary> {
+  const used = rows.filter((r) => usableForSummary(r, opts));
   const out: Record<string, MetricSummary> = {};
-  for (const key of SUMMARY_METRICS) out[key] = summariseMetric(ok.map((r) => r[key]));
+  for (const key of SUMMARY_METRICS) out[key] = summariseMetric(used.map((r) => r[key]));
   return out;
 }
 
+/** Excluded breaths counted by excluding code (every such code listed, zero when unused). */
 export function reasonCounts(rows: readonly BreathRow[]): Record<string, number> {
   const out: Record<string, number> = {};
-  for (const code of Object.keys(REASON_CODES)) out[code] = 0;
-  for (const r of rows) for (const f of r.flags) out[f] = (out[f] ?? 0) + 1;
+  for (const code of Object.keys(REASON_CODES)) if (!CAUTION_CODES.has(code)) out[code] = 0;
+  for (const r of rows) {
+    if (qualityOfStatus(r.status) !== 'excluded') continue;
+    for (const f of r.flags) if (!CAUTION_CODES.has(f)) out[f] = (out[f] ?? 0) + 1;
+  }
+  return out;
+}
+
+/** Caution breaths counted by caution code (every caution code listed, zero when unused). */
+export function cautionCounts(rows: readonly BreathRow[]): Record<string, number> {
+  const out: Record<string, number> = {};
+  for (const code of CAUTION_CODES) out[code] = 0;
+  for (const r of rows) if (qualityOfStatus(r.status) === 'caution') for (const f of r.flags) out[f] = (out[f] ?? 0) + 1;
   return out;
 }
 
@@ -103,6 +138,10 @@ export function recordSettings(
   return out;
 }
 
+function settingValue(record: Record<string, RecordedSetting>, key: string, fallback: unknown): unknown {
+  return record[key]?.value ?? fallback;
+}
+
 function round(x: number, digits: number): number {
   const f = 10 ** digits;
   return Math.round(x * f) / f;
@@ -115,7 +154,22 @@ export function buildSummary(
   notes: string[] = [],
 ): Summary {
   const rows = core.breaths;
-  const ok = rows.filter((r) => r.status === 'ok').length;
+  let ok = 0;
+  let caution = 0;
+  for (const r of rows) {
+    const q = qualityOfStatus(r.status);
+    if (q === 'ok') ok++;
+    else if (q === 'caution') caution++;
+  }
+  const mediansOver = settingValue(settingsRecord, 'analysis.summary_breaths', 'ok_and_caution') as SummaryBreaths;
+  const cautionByReason = cautionCounts(rows);
+  const recordingCautions: RecordingCaution[] = [];
+  if (mediansOver !== 'ok_only') {
+    for (const [code, n] of Object.entries(cautionByReason)) {
+      if (n > 0) recordingCautions.push({ code, message: REASON_CODES[code] ?? code, breaths: n });
+    }
+  }
+  for (const rc of core.recording_cautions ?? []) recordingCautions.push({ code: rc.code, message: rc.message, breaths: null });
   const c = core.calibration;
   const d = [...core.breath_delays_s].sort((a, b) => a - b);
   return {
@@ -133,10 +187,14 @@ export function buildSummary(
     breaths: {
       found: rows.length,
       ok,
-      excluded: rows.length - ok,
+      caution,
+      excluded: rows.length - ok - caution,
       partial_not_analysed: core.partial_breaths,
+      medians_over: mediansOver,
+      caution_by_reason: cautionByReason,
       excluded_by_reason: reasonCounts(rows),
     },
+    recording_cautions: recordingCautions,
     delay_s: {
       value: c.delay_s,
       origin: c.delay_origin,
@@ -147,7 +205,7 @@ export function buildSummary(
     response_ms: { value: c.response_ms, origin: c.response_origin, rise_10_90_ms: c.response_ms * detLog(9) },
     flow_offset_lps: { value: c.offset_lps, origin: c.offset_origin },
     expiration: { value: c.sign > 0 ? 'positive' : 'negative', origin: c.sign_origin },
-    metrics: metricSummaries(rows),
+    metrics: metricSummaries(rows, { summary_breaths: mediansOver }),
     notes: [...c.notes, ...notes],
   };
 }
@@ -162,14 +220,15 @@ export function formatSummaryText(s: Summary): string {
   lines.push(`phasewise ${s.version} — ${inp.file}`);
   lines.push(
     `rows ${inp.rows} (used ${inp.rows_used}, skipped ${inp.rows_skipped}) · ${fmt(s.recording.duration_s / 60, 1)} min · ` +
-      `breaths ${s.breaths.found} (ok ${s.breaths.ok}, excluded ${s.breaths.excluded}, partial ${s.breaths.partial_not_analysed})`,
+      `breaths ${s.breaths.found} (ok ${s.breaths.ok}, caution ${s.breaths.caution}, excluded ${s.breaths.excluded}, partial ${s.breaths.partial_not_analysed})`,
   );
   lines.push(
     `delay ${fmt(s.delay_s.value, 3)} s (${s.delay_s.origin}) · sensor response ${fmt(s.response_ms.value, 0)} ms ` +
       `(${s.response_ms.origin}; 10-90 % rise ${fmt(s.response_ms.rise_10_90_ms, 0)} ms) · expiration ${s.expiration.value} (${s.expiration.origin})`,
   );
   lines.push('');
-  lines.push(`${'metric (ok breaths)'.padEnd(38)}${'median'.padStart(10)}${'p25'.padStart(10)}${'p75'.padStart(10)}${'n'.padStart(7)}  unit`);
+  const over = s.breaths.medians_over === 'ok_only' ? 'metric (ok breaths)' : 'metric (ok + caution breaths)';
+  lines.push(`${over.padEnd(38)}${'median'.padStart(10)}${'p25'.padStart(10)}${'p75'.padStart(10)}${'n'.padStart(7)}  unit`);
   for (const key of TERMINAL_SUMMARY_ROWS) {
     const m = s.metrics[key];
     if (!m || m.n === 0) continue;
@@ -177,10 +236,22 @@ export function formatSummaryText(s: Summary): string {
     const d = TERMINAL_DECIMALS;
     lines.push(`${label.padEnd(38)}${fmt(m.median, d).padStart(10)}${fmt(m.p25, d).padStart(10)}${fmt(m.p75, d).padStart(10)}${String(m.n).padStart(7)}  ${unit}`);
   }
+  const cautions = Object.entries(s.breaths.caution_by_reason).filter(([, n]) => n > 0);
   const reasons = Object.entries(s.breaths.excluded_by_reason).filter(([, n]) => n > 0);
-  if (reasons.length) {
-    lines.push('');
-    lines.push(`excluded breaths by reason: ${reasons.map(([k, n]) => `${k} ${n}`).join(', ')}`);
+  if (cautions.length || reasons.length || s.recording_cautions.length) lines.push('');
+  if (cautions.length) {
+    const where = s.breaths.medians_over === 'ok_only' ? 'left out of the medians (analysis.summary_breaths ok_only)' : 'kept in the medians';
+    lines.push(`caution breaths by reason (${where}): ${cautions.map(([k, n]) => `${k} ${n}`).join(', ')}`);
+  }
+  if (reasons.length) lines.push(`excluded breaths by reason: ${reasons.map(([k, n]) => `${k} ${n}`).join(', ')}`);
+  const used = s.breaths.ok + (s.breaths.medians_over === 'ok_only' ? 0 : s.breaths.caution);
+  for (const rc of s.recording_cautions) {
+    const what = rc.message.replace(/^caution: /, '');
+    if (rc.breaths === null) lines.push(`caution: ${rc.code} (whole recording): ${what}`);
+    else {
+      const count = rc.breaths === used ? `every breath in the medians (${rc.breaths})` : `${rc.breaths} of ${used} breaths in the medians`;
+      lines.push(`caution: ${rc.code} in ${count}: ${what}`);
+    }
   }
   const skipped = Object.entries(inp.skipped_by_reason ?? {}).filter(([, n]) => n > 0);
   if (skipped.length) lines.push(`skipped rows by reason: ${skipped.map(([k, n]) => `${k} ${n}`).join(', ')}`);

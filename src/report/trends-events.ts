@@ -1,5 +1,6 @@
 // Trends per time bin and change events for one recording (browser-safe; used by analyse, batch and the viewer).
 import { computeTrends, detectEvents, EVENT_COLUMNS, TREND_COLUMNS, type EventRow, type TrendRow } from '../trends/index.js';
+import type { SummaryBreaths } from '../analyse/quality.js';
 import type { TrendSettings } from '../trends/settings.js';
 import type { BreathRow } from '../types.js';
 import { csvTable } from './format.js';
@@ -11,7 +12,7 @@ export interface TrendsAndEvents {
 
 export function trendsAndEvents(
   breaths: readonly BreathRow[],
-  opts: TrendSettings,
+  opts: TrendSettings & { summary_breaths?: SummaryBreaths },
   bloodGases: readonly { time_s: number; paco2_mmhg: number }[] = [],
 ): TrendsAndEvents {
   const trends = computeTrends(breaths, opts);

@@ -1,3 +1,4 @@
+import { usableForSummary, type SummaryBreaths } from '../analyse/quality.js';
 import { median } from '../analyse/stats.js';
 import type { BreathRow } from '../types.js';
 import type { TrendSettings } from './settings.js';
@@ -9,7 +10,10 @@ import type { TrendRow } from './trend-row.js';
  * last breath's bin gets a row, so gaps show as rows with breaths = 0. Formulas and the handling of excluded breaths:
  * see TrendRow (src/trends/trend-row.ts). Cost O(n log n) in the number of breaths (medians).
  */
-export function computeTrends(breaths: readonly BreathRow[], opts: Pick<TrendSettings, 'bin_s' | 'min_ok_breaths'>): TrendRow[] {
+export function computeTrends(
+  breaths: readonly BreathRow[],
+  opts: Pick<TrendSettings, 'bin_s' | 'min_ok_breaths'> & { summary_breaths?: SummaryBreaths },
+): TrendRow[] {
   const binS = opts.bin_s;
   if (!(binS > 0)) throw new RangeError('bin_s must be positive');
   const withTime = breaths.filter((b) => Number.isFinite(b.t_start_s));
@@ -23,11 +27,12 @@ export function computeTrends(breaths: readonly BreathRow[], opts: Pick<TrendSet
   }
   const groups: BreathRow[][] = Array.from({ length: last - first + 1 }, () => []);
   for (const b of withTime) groups[Math.floor(b.t_start_s / binS) - first]!.push(b);
-  return groups.map((g, j) => summariseBin((first + j) * binS, g, opts.min_ok_breaths));
+  return groups.map((g, j) => summariseBin((first + j) * binS, g, opts.min_ok_breaths, opts.summary_breaths));
 }
 
-function summariseBin(tS: number, all: BreathRow[], minOk: number): TrendRow {
-  const ok = all.filter((b) => b.status === 'ok');
+function summariseBin(tS: number, all: BreathRow[], minOk: number, summaryBreaths: SummaryBreaths | undefined): TrendRow {
+  // "ok" here means usable for a summary: ok breaths and, unless summary_breaths is 'ok_only', caution breaths
+  const ok = all.filter((b) => usableForSummary(b, { summary_breaths: summaryBreaths }));
   const row: TrendRow = {
     t_s: tS,
     vco2_ml_min: NaN,

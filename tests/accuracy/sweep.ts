@@ -2,6 +2,7 @@
 // the simulator's truth. Used by the accuracy test (tests/accuracy/sweep.test.ts) and printable as a table with
 // `npx tsx tests/accuracy/print-sweep.ts`.
 import { createAnalyser } from '../../src/analyse/analyser.js';
+import { usableForSummary } from '../../src/analyse/quality.js';
 import { quantile } from '../../src/analyse/stats.js';
 import { defaultSettings } from '../../src/settings.js';
 import { scenarioParams, simulateSignals, type SimParams } from '../../src/simulate/index.js';
@@ -105,8 +106,8 @@ export function runCombo(combo: Combo): ComboResult {
   const analyser = createAnalyser(settings);
   for (const b of blocks) analyser.push(b);
   const core = analyser.finish();
-  // rebreathing is itself a quality code; for accuracy, breaths whose only code is `rebreathing` count as usable
-  const used = core.breaths.filter((b) => b.flags.every((f) => f === 'rebreathing'));
+  // the breaths the summary's medians use (ok and caution breaths, e.g. rebreathing)
+  const used = core.breaths.filter((b) => usableForSummary(b));
   const measured: Record<string, number> = {};
   const truth: Record<string, number> = {};
   for (const [key, col, truthKey] of METRICS) {

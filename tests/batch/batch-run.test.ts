@@ -12,7 +12,7 @@ import { BATCH_EXIT_SOME_FAILED, runBatch, type BatchOptions } from '../../src/b
 import { analyseFile } from '../../src/node/analyse-file';
 import { breathsCsv } from '../../src/report/breaths-csv';
 import { summaryFor } from '../../src/report/summary-for';
-import { BREATH_COLUMNS } from '../../src/types';
+import { BREATHS_CSV_COLUMNS } from '../../src/report/breaths-csv';
 import { parseCsv, read, writeRecording } from './helpers';
 
 let dir = '';
@@ -65,7 +65,7 @@ describe('batch run (serial)', () => {
   it('DIR/breaths.csv holds every breath of every ok recording, in input order, behind a recording column', () => {
     const out = join(dir, 'out1');
     const all = read(out, 'breaths.csv');
-    expect(all.split('\n')[0]).toBe(['recording', ...BREATH_COLUMNS].join(','));
+    expect(all.split('\n')[0]).toBe(['recording', ...BREATHS_CSV_COLUMNS].join(','));
     const expected = m.inputs.filter((e) => e.status === 'ok').flatMap((e) =>
       read(out, e.outputs.breaths).trimEnd().split('\n').slice(1).map((l) => `${e.recording},${l}`));
     expect(all.trimEnd().split('\n').slice(1)).toEqual(expected);

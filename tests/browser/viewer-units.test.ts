@@ -22,6 +22,8 @@ import { SignalStore } from '../../web/signal-store';
 import { detExp, detLog } from '../../web/det-math';
 import { composeOutputs, exportRows } from '../../web/outputs';
 import { ROOT } from './harness';
+import { usableForSummary } from '../../src/analyse/quality';
+import { statusClass } from '../../web/palette';
 
 function analyseSample(name: string): { rows: BreathRow[]; geometry: BreathGeometry[] } {
   const settings = defaultSettings();
@@ -261,6 +263,14 @@ describe("reviewer's exclusions", () => {
     expect(excludedStatus({ ...rows[0]!, status: 'leak+outlier' }, 'artefact')).toBe('leak+outlier+excluded_by_user:artefact');
     expect(reasonSlug('  ')).toBe('other');
     expect(reasonSlug('a,b"c')).toBe('a_b_c');
+  });
+
+  it('a caution breath excluded by hand loses its caution: prefix and leaves the summaries', () => {
+    const st = excludedStatus({ ...rows[0]!, status: 'caution:leak' }, 'cough');
+    expect(st).toBe('leak+excluded_by_user:cough');
+    expect(usableForSummary({ status: st })).toBe(false);
+    expect(statusClass(st)).toBe('excluded');
+    expect([statusClass('ok'), statusClass('caution:leak'), statusClass('no_fowler+leak')]).toEqual(['ok', 'caution', 'flagged']);
   });
 });
 

@@ -20,7 +20,7 @@ import type { Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { formatNumber } from '../../src/report/format';
 import { CAUTION } from '../../src/report/caution';
-import { BREATH_COLUMNS } from '../../src/types';
+import { BREATHS_CSV_COLUMNS } from '../../src/report/breaths-csv';
 import { CHROMIUM, haveChromium, launchBrowser, ROOT, startViewer, type Browser, type Viewer } from './harness';
 
 const HAVE = haveChromium();
@@ -200,13 +200,16 @@ describe.skipIf(!HAVE)('review viewer in headless Chromium', () => {
     const refLines = refCsv.split('\n');
     const lines = csv.text.split('\n');
     expect(lines.length).toBe(refLines.length);
-    const statusCol = BREATH_COLUMNS.indexOf('status');
+    const statusCol = BREATHS_CSV_COLUMNS.indexOf('status');
+    const qualityCol = BREATHS_CSV_COLUMNS.indexOf('quality');
     lines.forEach((l, i) => {
       if (i !== 4) expect(l).toBe(refLines[i]);
     });
     const cells = lines[4]!.split(',');
     expect(cells[statusCol]).toBe('excluded_by_user:cough');
-    expect([...cells.slice(0, statusCol), ...cells.slice(statusCol + 1)]).toEqual(refLines[4]!.split(',').filter((_, j) => j !== statusCol));
+    expect(cells[qualityCol]).toBe('excluded');
+    const rest = (c: string[]) => c.filter((_, j) => j !== statusCol && j !== qualityCol);
+    expect(rest(cells)).toEqual(rest(refLines[4]!.split(',')));
     const sum = JSON.parse((await downloadText(page, '#export-summary')).text);
     expect(sum.breaths.ok).toBe(refSummary.breaths.ok - 1);
     expect(sum.breaths.excluded_by_reason.excluded_by_user).toBe(1);

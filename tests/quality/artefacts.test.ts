@@ -45,10 +45,17 @@ describe('quality codes on recordings with an artefact from 90 s', () => {
     expect(share(after(rows), 'rebreathing')).toBeGreaterThan(0.9);
   });
 
-  it('leak: 30 % of the tidal volume lost before the sensor', () => {
-    const rows = analyse(record({ events: [{ t_s: ONSET, param: 'leak_fraction', to: 0.3, ramp_s: 0 }] }));
+  it('leak: 20 % of the tidal volume lost before the sensor (a caution: the breaths stay usable)', () => {
+    const rows = analyse(record({ events: [{ t_s: ONSET, param: 'leak_fraction', to: 0.2, ramp_s: 0 }] }));
     expectCleanBefore(rows);
     expect(share(after(rows, 2), 'leak')).toBeGreaterThan(0.9);
+    expect(after(rows, 2).every((r) => r.status === 'caution:leak')).toBe(true);
+  });
+
+  it('large_leak: 35 % of the tidal volume lost before the sensor (excluded, above max_leak_fraction 0.3)', () => {
+    const rows = analyse(record({ events: [{ t_s: ONSET, param: 'leak_fraction', to: 0.35, ramp_s: 0 }] }));
+    expectCleanBefore(rows);
+    expect(share(after(rows, 2), 'large_leak')).toBeGreaterThan(0.9);
   });
 
   it('co2_clipped: the CO2 reading saturates at 30 mmHg', () => {

@@ -20,7 +20,7 @@ describe('computeTrends', () => {
       b(0, 4, 500, 14, 36),
       b(4, 4, 520, 15, 37),
       b(8, 5, 480, 13, 35),
-      b(13, 4, 900, 99, 10, { status: 'leak', flags: ['leak'], fico2_mmhg: 1 }),
+      b(13, 4, 900, 99, 10, { status: 'large_leak', flags: ['large_leak'], fico2_mmhg: 1 }),
     ];
     const [t] = computeTrends(rows, opts);
     // V'CO2 = (14 + 15 + 13) / ((4 + 4 + 5) / 60) = 42 / 0.216667 = 193.846 mL/min
