@@ -326,7 +326,19 @@ class StreamAnalyser implements Analyser {
     const rows = this.rows;
     markOutliers(rows, this.cfg);
     for (const r of rows) r.status = statusOf(r.flags);
+    const c = this.cal!;
+    const recordingCautions = c.delay_trusted
+      ? []
+      : [
+          {
+            code: 'delay_untrusted',
+            message:
+              `the breaths do not agree on one CO2 transport delay (${(100 * c.delay_agreement).toFixed(0)} % in the largest cluster); ` +
+              'volumes of the dead spaces depend on it: give --delay if it is known',
+          },
+        ];
     return {
+      recording_cautions: recordingCautions,
       breaths: rows,
       calibration: this.cal!,
       partial_breaths: this.partial,

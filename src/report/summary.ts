@@ -48,9 +48,31 @@ export interface Summary {
   /** what the reader of the medians should know: caution codes carried by breaths in the medians (with their count),
    *  and recording-level cautions from the analysis (AnalysisCore.recording_cautions, breaths null) */
   recording_cautions: RecordingCaution[];
-  delay_s: { value: number; origin: string; per_breath_p25: number | null; per_breath_p75: number | null; n: number };
+  delay_s: {
+    value: number;
+    origin: string;
+    /** standard error of the estimate from the calibration breaths, s (null when given or not estimable) */
+    uncertainty_s: number | null;
+    /** share of calibration breaths in the cluster the delay comes from */
+    agreement: number;
+    /** false: the breaths did not agree on one delay (a recording caution says so) */
+    trusted: boolean;
+    per_breath_p25: number | null;
+    per_breath_p75: number | null;
+    n: number;
+  };
   response_ms: { value: number; origin: string; rise_10_90_ms: number };
-  flow_offset_lps: { value: number; origin: string };
+  flow_offset_lps: {
+    value: number;
+    origin: string;
+    /** where the estimate came from: end_inspiratory_pause, end_expiratory_rest, given or none */
+    source: string;
+    /** standard error of the estimate, L/s (null when given or none found) */
+    uncertainty_lps: number | null;
+    /** median (inspired − expired) / inspired tidal volume over the summarised breaths, after the offset correction:
+     *  the leak that remains */
+    remaining_leak_fraction: number | null;
+  };
   expiration: { value: 'positive' | 'negative'; origin: string };
   metrics: Record<string, MetricSummary>;
   notes: string[];
@@ -198,16 +220,35 @@ export function buildSummary(
     delay_s: {
       value: c.delay_s,
       origin: c.delay_origin,
+      uncertainty_s: finiteOrNull(c.delay_uncertainty_s),
+      agreement: c.delay_agreement,
+      trusted: c.delay_trusted,
       per_breath_p25: d.length ? quantileSorted(d, 0.25) : null,
       per_breath_p75: d.length ? quantileSorted(d, 0.75) : null,
       n: d.length,
     },
     response_ms: { value: c.response_ms, origin: c.response_origin, rise_10_90_ms: c.response_ms * detLog(9) },
-    flow_offset_lps: { value: c.offset_lps, origin: c.offset_origin },
+    flow_offset_lps: {
+      value: c.offset_lps,
+      origin: c.offset_origin,
+      source: c.offset_source,
+      uncertainty_lps: finiteOrNull(c.offset_uncertainty_lps),
+      remaining_leak_fraction: finiteOrNull(remainingLeak(rows.filter((r) => usableForSummary(r, { summary_breaths: mediansOver })))),
+    },
     expiration: { value: c.sign > 0 ? 'positive' : 'negative', origin: c.sign_origin },
     metrics: metricSummaries(rows, { summary_breaths: mediansOver }),
     notes: [...c.notes, ...notes],
   };
+}
+
+function finiteOrNull(x: number): number | null {
+  return Number.isFinite(x) ? x : null;
+}
+
+/** Median of (inspired − expired) / inspired tidal volume (NaN without breaths). */
+function remainingLeak(rows: readonly BreathRow[]): number {
+  const fractions = rows.filter((r) => r.vt_insp_ml > 0).map((r) => (r.vt_insp_ml - r.vt_exp_ml) / r.vt_insp_ml);
+  return fractions.length ? quantileSorted(fractions.sort((a, b) => a - b), 0.5) : NaN;
 }
 
 /** Decimals of the terminal table's median and quartiles (one width for every metric, so the columns line up). */
@@ -223,7 +264,7 @@ export function formatSummaryText(s: Summary): string {
       `breaths ${s.breaths.found} (ok ${s.breaths.ok}, caution ${s.breaths.caution}, excluded ${s.breaths.excluded}, partial ${s.breaths.partial_not_analysed})`,
   );
   lines.push(
-    `delay ${fmt(s.delay_s.value, 3)} s (${s.delay_s.origin}) · sensor response ${fmt(s.response_ms.value, 0)} ms ` +
+    `delay ${fmt(s.delay_s.value, 3)}${s.delay_s.uncertainty_s !== null ? ` ± ${fmt(s.delay_s.uncertainty_s, 3)}` : ''} s (${s.delay_s.origin}) · sensor response ${fmt(s.response_ms.value, 0)} ms ` +
       `(${s.response_ms.origin}; 10-90 % rise ${fmt(s.response_ms.rise_10_90_ms, 0)} ms) · expiration ${s.expiration.value} (${s.expiration.origin})`,
   );
   lines.push('');
