@@ -9,6 +9,7 @@
 // half-sine rise the extrapolation error is below 0.5 % of the inspiratory time, derived here from sin x ≈ x − x³/6).
 
 import { lowerBound } from './fall-fit.js';
+import { fitLine } from './stats.js';
 
 /** Fractions of the peak inspiratory flow between which the rise is extrapolated. */
 const LOW_LEVEL = 0.15;
@@ -44,8 +45,50 @@ export function inspirationReversalTime(t: ArrayLike<number>, flow: ArrayLike<nu
   if (oscillatesBefore(t, flow, crossS, Math.abs(peak))) return extrapolated;
   // the zero crossing belongs to this rise when it lies within one rise time (at least one sample) before the
   // extrapolated reversal; otherwise the flow was already below zero before the inspiration began
-  if (crossS >= extrapolated - Math.max(rise, step) - step) return crossS;
-  return extrapolated;
+  if (crossS < extrapolated - Math.max(rise, step) - step) return extrapolated;
+  // a fast valve edge (from 15 % to 40 % of the peak within 15 ms): its smooth start is modelled
+  return rise <= FAST_EDGE_S ? risingEdgeOnset(t, flow, lowerBound(t, crossS - 2 * step), peak, crossS) : crossS;
+}
+
+/** A rise from 15 % to 40 % of the peak faster than this is a valve edge (ventilator), not a breath's own rise. */
+const FAST_EDGE_S = 0.015;
+
+/** Flow levels (fractions of the peak) between which the start of a clean rise is fitted. */
+const EDGE_FROM = 0.02;
+const EDGE_TO = 0.15;
+
+/**
+ * Start of a clean inspiratory rise. The segmenter's crossing is interpolated between the last sample near zero and
+ * the next, which puts it late when the flow leaves zero smoothly (a valve or a muscle does not step: the flow starts
+ * as c (t − s)², and the last "quiet" sample is already on the rise). Used for fast valve edges only (a breath's own
+ * slow rise keeps the segmenter's crossing): √|f| over the samples between 2 % and 15 % of the peak (with one sample
+ * there, that sample and the next) is fitted by a line and followed back to zero flow. With no sample in that band
+ * the rise is a step between two samples: its unbiased estimate is their midpoint.
+ * Method: derived here (the first terms of the flow's expansion at its start; the sampling of a step).
+ */
+function risingEdgeOnset(t: ArrayLike<number>, flow: ArrayLike<number>, from: number, peak: number, crossS: number): number {
+  const n = t.length;
+  let k = from;
+  while (k < n && flow[k]! > EDGE_TO * peak) k++;
+  if (k >= n || k === 0) return crossS;
+  let j = k;
+  while (j > from && flow[j - 1]! <= EDGE_FROM * peak) j--;
+  const m = k - j;
+  if (m === 0) return 0.5 * (t[k - 1]! + t[k]!);
+  // with a single sample in the band, the first sample above it is the second point of the smooth start
+  const last = m === 1 ? k : k - 1;
+  const xs: number[] = [];
+  for (let i = j; i <= last; i++) xs.push(t[i]!);
+  // a smooth valve edge starts as c (t - s)^2: √|f| is linear in t and its root is the start
+  const line = fitLine(
+    xs,
+    xs.map((_, q) => Math.sqrt(-flow[j + q]!)),
+  );
+  const at = line.slope > 0 ? -line.intercept / line.slope : NaN;
+  // the start lies before the first sample in the band, by at most twice the band's width (at least four samples)
+  const step = j > 0 ? t[j]! - t[j - 1]! : 0;
+  const lo = t[j]! - Math.max(4 * step, 2 * (t[k]! - t[j]!));
+  return Number.isFinite(at) ? Math.min(t[j]!, Math.max(lo, at)) : 0.5 * (t[j]! - step + t[j]!);
 }
 
 /**
