@@ -417,7 +417,7 @@ export function decomposeBreath(s: BreathSignals, ctx: BreathContext): BreathDec
   if (fit.rms > cfg.max_phase3_rms_mmhg || (cfg.min_phase3_r2 > 0 && fit.r2 < cfg.min_phase3_r2)) flags.push('poor_fit');
 
   // ---- end-tidal PCO2 (primer 5.4)
-  row.petco2_mmhg = endTidal(cfg, cv, cp, vte, base + fit.a + fit.b * vte);
+  row.petco2_mmhg = endTidal(cfg, cv, cp, PS, F, vte, base + fit.a + fit.b * vte);
   row.slope3_norm_per_l = row.slope3_mmhg_per_l / row.petco2_mmhg;
 
   // ---- Fowler airway dead space (primer 3.1), on CO2 above the inspired level
@@ -452,17 +452,33 @@ export function decomposeBreath(s: BreathSignals, ctx: BreathContext): BreathDec
   return { row, geometry, flags };
 }
 
-/** End-tidal PCO2 by the chosen definition. */
-function endTidal(cfg: AnalysisSettings, cv: Float64Array, cp: Float64Array, vte: number, lineEnd: number): number {
+/**
+ * End-tidal PCO2 by the chosen definition. 'last' and 'max' read the delay-aligned sensor reading (`sensor`, on the
+ * expiration's time base with `flow`) at the samples inside the expiration with expiratory flow (the first and last
+ * entries are the values interpolated at the flow reversals and are left out): the compensated signal falls a sample
+ * or two before the reversal and overshoots on noise, the sensor reading does neither (its lag only delays the fall
+ * past the reversal). 'mean_last' averages the compensated curve over the last part of the expired volume.
+ */
+function endTidal(
+  cfg: AnalysisSettings,
+  cv: Float64Array,
+  cp: Float64Array,
+  sensor: Float64Array,
+  flow: Float64Array,
+  vte: number,
+  lineEnd: number,
+): number {
   const M = cv.length;
+  const last = sensor.length - 1;
   switch (cfg.petco2_method) {
     case 'line_end':
       return lineEnd;
     case 'last':
-      return cp[M - 1]!;
+      for (let k = last - 1; k >= 1; k--) if (flow[k]! > 0) return sensor[k]!;
+      return NaN;
     case 'max': {
-      let mx = -Infinity;
-      for (let j = 0; j < M; j++) if (cp[j]! > mx) mx = cp[j]!;
+      let mx = NaN;
+      for (let k = 1; k < last; k++) if (flow[k]! > 0 && !(sensor[k]! <= mx)) mx = sensor[k]!;
       return mx;
     }
     case 'mean_last': {
