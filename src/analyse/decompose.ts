@@ -7,6 +7,8 @@
 
 import type { AnalysisSettings } from '../settings.js';
 import type { BreathRow } from '../types.js';
+import { enghoffDeadSpaceFraction } from '../physiology/enghoff-dead-space-fraction.js';
+import { patientDeadSpace, patientDeadSpaceMl } from '../physiology/patient-dead-space.js';
 import { fowlerDeadSpace } from './fowler.js';
 import { fitLineOls, fitPhase3 } from './phase3-fit.js';
 import type { BreathBounds } from './segment.js';
@@ -358,7 +360,7 @@ export function decomposeBreath(s: BreathSignals, ctx: BreathContext): BreathDec
     const d = den < 0 ? Math.max(-0.5, Math.min(0.5, (0.5 * (y0 - y2)) / den)) : 0;
     vInflection = (gmax + d) * h;
     row.slope2_mmhg_per_l = smax * 1000;
-    row.vd_inflection_ml = vInflection - cfg.apparatus_ml;
+    row.vd_inflection_ml = patientDeadSpaceMl(vInflection, cfg.apparatus_ml);
   }
 
   // ---- phase boundaries: phase II starts where CO2 leaves the baseline (5 % of the line); phase III starts where the
@@ -435,19 +437,24 @@ export function decomposeBreath(s: BreathSignals, ctx: BreathContext): BreathDec
   if (!(vStar > 0 && vStar < from)) {
     flags.push('no_fowler');
   } else {
-    row.vd_aw_ml = vStar - cfg.apparatus_ml;
+    row.vd_aw_ml = patientDeadSpaceMl(vStar, cfg.apparatus_ml);
     row.paeco2_mmhg = areaExp / (vte - vStar);
   }
 
-  // ---- alveolar PCO2 for Bohr (primer 5.6) and the dead-space family (primer 6)
+  // ---- alveolar PCO2 for Bohr (primer 5.6) and the dead-space family (primer 6). Dead spaces are measured at the
+  // sensor and reported for the patient (patientDeadSpace removes the apparatus volume); alveolar dead space is the
+  // difference of two dead spaces at the sensor, which the apparatus volume does not enter.
   row.alv_co2_mmhg = cfg.alveolar_method === 'phase3_mid' ? base + fit.a + fit.b * (0.5 * (v3 + vte)) : row.paeco2_mmhg;
   const inspired = cfg.bohr_inspired_term && Number.isFinite(fico2) ? fico2 : 0;
-  row.vdvt_bohr = (row.alv_co2_mmhg - peco2) / (row.alv_co2_mmhg - inspired);
-  row.vd_bohr_ml = row.vdvt_bohr * vte;
-  if (Number.isFinite(vStar) && vStar > 0) row.vd_alv_ml = row.vd_bohr_ml - vStar;
+  const bohrAtSensor = (row.alv_co2_mmhg - peco2) / (row.alv_co2_mmhg - inspired);
+  const bohr = patientDeadSpace(bohrAtSensor, vte, cfg.apparatus_ml);
+  row.vdvt_bohr = bohr.fraction;
+  row.vd_bohr_ml = bohr.volume_ml;
+  if (Number.isFinite(vStar) && vStar > 0) row.vd_alv_ml = bohrAtSensor * vte - vStar;
   if (cfg.paco2_mmhg !== null) {
-    row.vdvt_enghoff = (cfg.paco2_mmhg - peco2) / (cfg.paco2_mmhg - inspired);
-    row.vd_enghoff_ml = row.vdvt_enghoff * vte;
+    const enghoff = patientDeadSpace(enghoffDeadSpaceFraction(cfg.paco2_mmhg, peco2, inspired), vte, cfg.apparatus_ml);
+    row.vdvt_enghoff = enghoff.fraction;
+    row.vd_enghoff_ml = enghoff.volume_ml;
   }
   return { row, geometry, flags };
 }

@@ -1,5 +1,6 @@
 import { avdsf } from '../physiology/avdsf.js';
 import { enghoffDeadSpaceFraction } from '../physiology/enghoff-dead-space-fraction.js';
+import { patientDeadSpace } from '../physiology/patient-dead-space.js';
 import type { BreathRow } from '../types.js';
 import { estimatePaco2 } from './estimate-paco2.js';
 import { GAS_DEFAULTS } from './gas-defaults.js';
@@ -23,9 +24,11 @@ function fmt(v: number, digits = 1): string {
  * Per sample (primer 6, 10):
  * - window medians (ok breaths only, see selectWindowBreaths) of PETCO2, PĒCO2, VTe, VDaw and per-breath Bohr VD/VT;
  * - gradient = PaCO2 - PETCO2; AVDSF = gradient / PaCO2;
- * - Enghoff VD/VT = (PaCO2 - median PĒCO2)/PaCO2. Because this is an affine function of PĒCO2 for a fixed PaCO2, it
- *   equals the median of the per-breath Enghoff values computed with the same PaCO2 (for odd and even counts);
- * - VDphys = Enghoff VD/VT x median VTe; VDalv = VDphys - median VDaw; per kg on the chosen weight basis;
+ * - Enghoff at the sensor = (PaCO2 - median PĒCO2)/(PaCO2 - median PICO2), the per-breath function
+ *   (enghoffDeadSpaceFraction) with the inspired term when inspired_term is on (as bohr_inspired_term in the analysis);
+ * - VDphys = Enghoff at the sensor x median VTe - apparatus volume (patientDeadSpace, as per breath); Enghoff VD/VT =
+ *   VDphys / median VTe; VDalv = VDphys - median VDaw (both without the apparatus, so VDalv does not depend on it);
+ *   per kg on the chosen weight basis;
  * - shunt fraction and gradient split, see shuntPart; gradient_rest = gradient - gradient_shunt;
  * - gradient change versus the previous sample with a gradient, flagged above the setting.
  * Missing inputs leave NaN cells and are named in missing_inputs; assumptions are named in notes and warnings.
@@ -35,6 +38,8 @@ export function analyseGas(breaths: readonly BreathRow[], samples: readonly GasS
   const windowS = opts.window_s ?? d.window_s.value;
   const gradientChangeMmhg = opts.gradient_change_mmhg ?? d.gradient_change_mmhg.value;
   const singleGasSpread = opts.single_gas_spread_mmhg ?? d.single_gas_spread_mmhg.value;
+  const apparatusMl = opts.apparatus_ml ?? 0;
+  const inspiredTerm = opts.inspired_term ?? true;
   const shuntSettings: ShuntSettings = {
     pb_mmhg: opts.pb_mmhg,
     rq: opts.rq ?? d.rq.value,
@@ -74,8 +79,11 @@ export function analyseGas(breaths: readonly BreathRow[], samples: readonly GasS
 
     const paco2 = sample.paco2_mmhg;
     const gradient = paco2 - med.petco2_mmhg;
-    const enghoff = enghoffDeadSpaceFraction(paco2, med.peco2_mmhg);
-    const vdPhys = enghoff * med.vt_exp_ml;
+    const inspired = inspiredTerm ? finiteMedian(used.map((b) => b.fico2_mmhg)) : 0;
+    const enghoffAtSensor = enghoffDeadSpaceFraction(paco2, med.peco2_mmhg, Number.isFinite(inspired) ? inspired : 0);
+    const physiological = patientDeadSpace(enghoffAtSensor, med.vt_exp_ml, apparatusMl);
+    const enghoff = physiological.fraction;
+    const vdPhys = physiological.volume_ml;
     const vdAlv = vdPhys - med.vd_aw_ml;
     const perKg = (v: number) => v / weight.weight_kg;
     if (weight.basis === 'none') missing.push('weight_kg');
@@ -153,8 +161,12 @@ export function analyseGas(breaths: readonly BreathRow[], samples: readonly GasS
   const settings: Record<string, unknown> = {
     window_s: windowS,
     window_rule: 'ok breaths with t_start_s >= sample time - window_s and t_end_s <= sample time; medians',
-    enghoff_rule: '(PaCO2 - median PECO2) / PaCO2 (equals the median of per-breath Enghoff with the same PaCO2)',
-    vd_phys_rule: 'Enghoff VD/VT x median VTe; vd_alv = vd_phys - median VDaw',
+    enghoff_rule: inspiredTerm
+      ? '(PaCO2 - median PECO2) / (PaCO2 - median PICO2) x median VTe - apparatus, over median VTe'
+      : '(PaCO2 - median PECO2) / PaCO2 x median VTe - apparatus, over median VTe',
+    vd_phys_rule: 'Enghoff at the sensor x median VTe - apparatus; vd_alv = vd_phys - median VDaw',
+    apparatus_ml: apparatusMl,
+    inspired_term: inspiredTerm,
     pb_mmhg: shuntSettings.pb_mmhg,
     rq: shuntSettings.rq,
     hb_o2_capacity_ml_per_g: shuntSettings.hb_o2_capacity_ml_per_g,

@@ -61,6 +61,10 @@ export interface GasOptions {
   gradient_change_mmhg?: number;
   /** half-width of the PaCO2 estimate band while only one gas is known, mmHg (default 5) */
   single_gas_spread_mmhg?: number;
+  /** apparatus volume between sensor and patient, mL (default 0): removed from the dead spaces, as in the analysis */
+  apparatus_ml?: number;
+  /** Enghoff with the inspired-CO2 term (median inspired PCO2 of the window's breaths), as in the analysis (default true) */
+  inspired_term?: boolean;
 }
 
 export type ShuntMethod = 'contents' | 'saturations' | '';
