@@ -8,6 +8,7 @@
 import type { AnalysisSettings } from '../settings.js';
 import type { BreathRow } from '../types.js';
 import { enghoffDeadSpaceFraction } from '../physiology/enghoff-dead-space-fraction.js';
+import { meanAlveolarExpiredPco2 } from '../physiology/mean-alveolar-expired-pco2.js';
 import { patientDeadSpace, patientDeadSpaceMl } from '../physiology/patient-dead-space.js';
 import { fowlerDeadSpace } from './fowler.js';
 import { fitLineOls, fitPhase3 } from './phase3-fit.js';
@@ -434,18 +435,18 @@ export function decomposeBreath(s: BreathSignals, ctx: BreathContext): BreathDec
     areaToVx += 0.5 * (cp[j - 1]! - base + p1 - base) * (v1 - v0);
   }
   const vStar = fowlerDeadSpace(fit.a, fit.b, vx, areaToVx);
+  const inspired = cfg.bohr_inspired_term && Number.isFinite(fico2) ? fico2 : 0;
   if (!(vStar > 0 && vStar < from)) {
     flags.push('no_fowler');
   } else {
     row.vd_aw_ml = patientDeadSpaceMl(vStar, cfg.apparatus_ml);
-    row.paeco2_mmhg = areaExp / (vte - vStar);
+    row.paeco2_mmhg = meanAlveolarExpiredPco2(areaExp, vte, vStar, inspired);
   }
 
   // ---- alveolar PCO2 for Bohr (primer 5.6) and the dead-space family (primer 6). Dead spaces are measured at the
   // sensor and reported for the patient (patientDeadSpace removes the apparatus volume); alveolar dead space is the
   // difference of two dead spaces at the sensor, which the apparatus volume does not enter.
   row.alv_co2_mmhg = cfg.alveolar_method === 'phase3_mid' ? base + fit.a + fit.b * (0.5 * (v3 + vte)) : row.paeco2_mmhg;
-  const inspired = cfg.bohr_inspired_term && Number.isFinite(fico2) ? fico2 : 0;
   const bohrAtSensor = (row.alv_co2_mmhg - peco2) / (row.alv_co2_mmhg - inspired);
   const bohr = patientDeadSpace(bohrAtSensor, vte, cfg.apparatus_ml);
   row.vdvt_bohr = bohr.fraction;
