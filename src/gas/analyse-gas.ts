@@ -4,7 +4,7 @@ import { patientDeadSpace } from '../physiology/patient-dead-space.js';
 import type { BreathRow } from '../types.js';
 import { estimatePaco2 } from './estimate-paco2.js';
 import { GAS_DEFAULTS } from './gas-defaults.js';
-import type { GasOptions, GasResult, GasRow, GasSample } from './gas-types.js';
+import type { GasAnalysisSettings, GasOptions, GasResult, GasRow, GasSample } from './gas-types.js';
 import { median as finiteMedian } from '../analyse/stats.js';
 import { selectWindowBreaths } from './select-window-breaths.js';
 import { shuntPart, type ShuntSettings } from './shunt-part.js';
@@ -25,7 +25,7 @@ function fmt(v: number, digits = 1): string {
  * - window medians (ok breaths only, see selectWindowBreaths) of PETCO2, PĒCO2, VTe, VDaw and per-breath Bohr VD/VT;
  * - gradient = PaCO2 - PETCO2; AVDSF = gradient / PaCO2;
  * - Enghoff at the sensor = (PaCO2 - median PĒCO2)/(PaCO2 - median PICO2), the per-breath function
- *   (enghoffDeadSpaceFraction) with the inspired term when inspired_term is on (as bohr_inspired_term in the analysis);
+ *   (enghoffDeadSpaceFraction) with the inspired term when analysis.inspired_term is on (bohr_inspired_term of the breaths);
  * - VDphys = Enghoff at the sensor x median VTe - apparatus volume (patientDeadSpace, as per breath); Enghoff VD/VT =
  *   VDphys / median VTe; VDalv = VDphys - median VDaw (both without the apparatus, so VDalv does not depend on it);
  *   per kg on the chosen weight basis;
@@ -33,13 +33,18 @@ function fmt(v: number, digits = 1): string {
  * - gradient change versus the previous sample with a gradient, flagged above the setting.
  * Missing inputs leave NaN cells and are named in missing_inputs; assumptions are named in notes and warnings.
  */
-export function analyseGas(breaths: readonly BreathRow[], samples: readonly GasSample[], opts: GasOptions): GasResult {
+export function analyseGas(
+  breaths: readonly BreathRow[],
+  samples: readonly GasSample[],
+  opts: GasOptions,
+  analysis: GasAnalysisSettings = { apparatus_ml: 0, inspired_term: true },
+): GasResult {
   const d = GAS_DEFAULTS;
   const windowS = opts.window_s ?? d.window_s.value;
   const gradientChangeMmhg = opts.gradient_change_mmhg ?? d.gradient_change_mmhg.value;
   const singleGasSpread = opts.single_gas_spread_mmhg ?? d.single_gas_spread_mmhg.value;
-  const apparatusMl = opts.apparatus_ml ?? 0;
-  const inspiredTerm = opts.inspired_term ?? true;
+  const apparatusMl = analysis.apparatus_ml;
+  const inspiredTerm = analysis.inspired_term;
   const shuntSettings: ShuntSettings = {
     pb_mmhg: opts.pb_mmhg,
     rq: opts.rq ?? d.rq.value,

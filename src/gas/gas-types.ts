@@ -61,10 +61,14 @@ export interface GasOptions {
   gradient_change_mmhg?: number;
   /** half-width of the PaCO2 estimate band while only one gas is known, mmHg (default 5) */
   single_gas_spread_mmhg?: number;
-  /** apparatus volume between sensor and patient, mL (default 0): removed from the dead spaces, as in the analysis */
-  apparatus_ml?: number;
-  /** Enghoff with the inspired-CO2 term (median inspired PCO2 of the window's breaths), as in the analysis (default true) */
-  inspired_term?: boolean;
+}
+
+/** Settings of the breath analysis that the gas step follows, so that its dead spaces match the breaths' own. */
+export interface GasAnalysisSettings {
+  /** apparatus volume between sensor and patient, mL: removed from the dead spaces (analysis apparatus_ml) */
+  apparatus_ml: number;
+  /** Enghoff with the inspired-CO2 term, the window's median inspired PCO2 (analysis bohr_inspired_term) */
+  inspired_term: boolean;
 }
 
 export type ShuntMethod = 'contents' | 'saturations' | '';

@@ -73,8 +73,7 @@ export function composeOutputs(
   let gasResult: GasResult | null = null;
   let summary: Summary;
   if (gas) {
-    gasResult = analyseGas(rows, gas.samples, {
-      ...gasOptions,
+    gasResult = analyseGas(rows, gas.samples, gasOptions, {
       apparatus_ml: settings.analysis.apparatus_ml,
       inspired_term: settings.analysis.bohr_inspired_term,
     });

@@ -48,7 +48,7 @@ describe('apparatus volume in gas.csv and trends.csv', () => {
     makeBreath({ breath: i + 1, t_start_s: t, petco2_mmhg: 38, peco2_mmhg: 26, vt_exp_ml: 500, vd_aw_ml: 120, vdvt_bohr: 0.25, vtco2_ml: 14 }),
   );
   it('gas.csv: VDphys = Enghoff x VT - 30, VDalv = Enghoff x VT - 150 (PaCO2 40, PECO2 26: Enghoff at the sensor 0.35)', () => {
-    const row = analyseGas(breaths, [makeSample({ time_s: 100, paco2_mmhg: 40 })], { pb_mmhg: 760, apparatus_ml: 30 }).rows[0]!;
+    const row = analyseGas(breaths, [makeSample({ time_s: 100, paco2_mmhg: 40 })], { pb_mmhg: 760 }, { apparatus_ml: 30, inspired_term: true }).rows[0]!;
     expectClose(row.vd_phys_ml, 0.35 * 500 - 30, { abs: 1e-9 });
     expectClose(row.vd_alv_ml, 0.35 * 500 - 150, { abs: 1e-9 });
     expectClose(row.vdvt_enghoff, (0.35 * 500 - 30) / 500, { abs: 1e-12 });

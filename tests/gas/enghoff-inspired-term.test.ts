@@ -25,7 +25,7 @@ describe('Enghoff with inspired CO2: gas.csv and per breath agree', () => {
     for (const r of rows) expectClose(r.vdvt_enghoff, 14 / 36, { abs: 1e-12 });
   });
   it('without the inspired term both give 0.35', () => {
-    const row = analyseGas(breaths(), [sample], { pb_mmhg: 760, inspired_term: false }).rows[0]!;
+    const row = analyseGas(breaths(), [sample], { pb_mmhg: 760 }, { apparatus_ml: 0, inspired_term: false }).rows[0]!;
     expectClose(row.vdvt_enghoff, 0.35, { abs: 1e-12 });
     const rows = breaths();
     applyArterialPco2(rows, [makeSample({ time_s: 0, paco2_mmhg: 40 })], false, 0);
