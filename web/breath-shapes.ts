@@ -1,14 +1,14 @@
 // Shapes drawn on the breath view, in data units (volume mL, CO2 mmHg). Geometry only: every number comes from the
 // core (breath row + BreathGeometry); nothing here feeds a result.
 //
-// Fowler's equal-area construction (primer 3.1; Fowler 1948, from memory): with the phase III line L(V) and the
+// Fowler's equal-area construction (Fowler WS 1948, Am J Physiol 154:405-416): with the phase III line L(V) and the
 // inspired level b (the baseline the core integrates above),
 //   p = area between the curve and b, left of V*               (CO2 that came out "early")
 //   q = area between L (above) and the curve, from V* to V_x   (CO2 "missing" after the front)
-// and V* is where p = q. The core solves this in closed form (src/analyse/fowler.ts); here the two areas are only
-// outlined so the reader can see the balance.
+// and V* is where p = q. The core solves this in closed form (src/physiology/fowler-dead-space.ts); here the two
+// areas are only outlined so the reader can see the balance.
 //
-// Fletcher's areas with a PaCO2 line (primer 6.4; Fletcher et al. 1981, from memory):
+// Fletcher's areas with a PaCO2 line (Fletcher R, Jonson B, Cumming G, Brew J 1981, Br J Anaesth 53:77-88):
 //   X = under the curve (CO2 eliminated), Y = between PaCO2 and L right of V* (alveolar dead space),
 //   Z = the rest under PaCO2 (airway dead space; equals PaCO2 x V* after Fowler's balancing).
 

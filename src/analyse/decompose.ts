@@ -1,4 +1,6 @@
-// One breath -> its volumetric capnogram and every per-breath metric (primer sections 2-6).
+// One breath -> its volumetric capnogram and every per-breath metric (phases, phase III slope, end-tidal and mixed
+// PCO2, CO2 volumes, Fowler, Bohr and Enghoff dead spaces; review: Tusman G, Suarez-Sipmann F, Bohm SH 2012,
+// Anesth Analg 114:866-874). Every formula is a function of src/physiology/.
 //
 // Inputs are the breath's samples on the flow time base with two aligned CO2 signals (see align.ts):
 // `fast` (response-compensated) for areas, end-tidal values and phase II geometry, and `raw` (the sensor reading,
@@ -7,10 +9,15 @@
 
 import type { AnalysisSettings } from '../settings.js';
 import type { BreathRow } from '../types.js';
+import { alveolarDeadSpaceMl } from '../physiology/alveolar-dead-space.js';
+import { bohrDeadSpaceFraction } from '../physiology/bohr-dead-space-fraction.js';
 import { enghoffDeadSpaceFraction } from '../physiology/enghoff-dead-space-fraction.js';
+import { fowlerDeadSpace } from '../physiology/fowler-dead-space.js';
 import { meanAlveolarExpiredPco2 } from '../physiology/mean-alveolar-expired-pco2.js';
+import { mixedExpiredPco2 } from '../physiology/mixed-expired-pco2.js';
+import { normalisedPhase3Slope } from '../physiology/normalised-phase3-slope.js';
 import { patientDeadSpace, patientDeadSpaceMl } from '../physiology/patient-dead-space.js';
-import { fowlerDeadSpace } from './fowler.js';
+import { vtco2FromArea } from '../physiology/vtco2-from-area.js';
 import { fitLineOls, fitPhase3 } from './phase3-fit.js';
 import type { BreathBounds } from './segment.js';
 
@@ -85,11 +92,6 @@ let indexBuf = new Int32Array(256);
 function workIndex(n: number): Int32Array {
   if (indexBuf.length < n) indexBuf = new Int32Array(Math.max(n, 2 * indexBuf.length));
   return indexBuf;
-}
-
-/** mL STPD of CO2 per (mmHg x mL) of PCO2-volume area at body temperature (primer 5.1, ideal gas). */
-export function stpdFactor(bodyTempC: number): number {
-  return 273.15 / (273.15 + bodyTempC) / 760;
 }
 
 /**
@@ -217,12 +219,11 @@ export function decomposeBreath(s: BreathSignals, ctx: BreathContext): BreathDec
     cf[j] = F[k]!;
   }
 
-  // ---- CO2 volumes (primer 5.1), inspired level (5.3), mixed expired PCO2 (5.2)
-  const k = stpdFactor(cfg.body_temp_c);
-  const veco2 = k * areaExp;
-  const vico2 = k * areaInsp;
-  const fico2 = vti > 0 ? areaInsp / vti : NaN;
-  const peco2 = vte > 0 ? areaExp / vte : NaN;
+  // ---- CO2 volumes, mean inspired PCO2, mixed expired PCO2
+  const veco2 = vtco2FromArea(areaExp, cfg.body_temp_c);
+  const vico2 = vtco2FromArea(areaInsp, cfg.body_temp_c);
+  const fico2 = mixedExpiredPco2(areaInsp, vti);
+  const peco2 = mixedExpiredPco2(areaExp, vte);
   const base = Number.isFinite(fico2) ? Math.max(0, fico2) : 0;
 
   // clipping: the reading stuck at its maximum for several samples while gas is still flowing out
@@ -298,7 +299,7 @@ export function decomposeBreath(s: BreathSignals, ctx: BreathContext): BreathDec
 
   // ---- phase II: steepest point of the compensated curve (inflection). Slopes are taken on a uniform volume grid
   // (V_E / 400 per step, central differences over +-2 steps, [1 2 1] smoothing), not between raw samples: at low
-  // flow neighbouring samples are a fraction of a mL apart and noise / dV would dominate (primer 2.1 B).
+  // flow neighbouring samples are a fraction of a mL apart and noise / dV would dominate (derived here).
   const G = 400;
   const h = vte / G;
   const grid = work(6, G + 1);
@@ -365,7 +366,7 @@ export function decomposeBreath(s: BreathSignals, ctx: BreathContext): BreathDec
   }
 
   // ---- phase boundaries: phase II starts where CO2 leaves the baseline (5 % of the line); phase III starts where the
-  // slow signal first reaches phase3_level_fraction of the line after the inflection (primer 2.1 A)
+  // slow signal first reaches phase3_level_fraction of the line after the inflection (common practice, no source)
   const searchFrom = Number.isFinite(vInflection) ? vInflection : 0;
   let v3 = NaN;
   for (let j = 0; j < M; j++) {
@@ -386,7 +387,7 @@ export function decomposeBreath(s: BreathSignals, ctx: BreathContext): BreathDec
   }
   row.v_phase3_start_ml = v3;
 
-  // ---- phase III regression window (primer 4)
+  // ---- phase III regression window (the setting phase3_window; common practice, no source)
   let from = v3;
   let to = vte;
   if (cfg.phase3_window === 'middle_half') {
@@ -419,11 +420,11 @@ export function decomposeBreath(s: BreathSignals, ctx: BreathContext): BreathDec
   row.slope3_r2 = fit.r2;
   if (fit.rms > cfg.max_phase3_rms_mmhg || (cfg.min_phase3_r2 > 0 && fit.r2 < cfg.min_phase3_r2)) flags.push('poor_fit');
 
-  // ---- end-tidal PCO2 (primer 5.4)
+  // ---- end-tidal PCO2 (the setting petco2_method)
   row.petco2_mmhg = endTidal(cfg, cv, cp, PS, F, vte, base + fit.a + fit.b * vte);
-  row.slope3_norm_per_l = row.slope3_mmhg_per_l / row.petco2_mmhg;
+  row.slope3_norm_per_l = normalisedPhase3Slope(row.slope3_mmhg_per_l, row.petco2_mmhg);
 
-  // ---- Fowler airway dead space (primer 3.1), on CO2 above the inspired level
+  // ---- Fowler airway dead space (fowlerDeadSpace), on CO2 above the inspired level
   const vx = cfg.fowler_limit === 'end' ? vte : from;
   geometry.fowler_limit_ml = vx;
   let areaToVx = 0;
@@ -443,15 +444,15 @@ export function decomposeBreath(s: BreathSignals, ctx: BreathContext): BreathDec
     row.paeco2_mmhg = meanAlveolarExpiredPco2(areaExp, vte, vStar, inspired);
   }
 
-  // ---- alveolar PCO2 for Bohr (primer 5.6) and the dead-space family (primer 6). Dead spaces are measured at the
+  // ---- alveolar PCO2 for Bohr (the setting alveolar_method) and the dead-space family. Dead spaces are measured at the
   // sensor and reported for the patient (patientDeadSpace removes the apparatus volume); alveolar dead space is the
   // difference of two dead spaces at the sensor, which the apparatus volume does not enter.
   row.alv_co2_mmhg = cfg.alveolar_method === 'phase3_mid' ? base + fit.a + fit.b * (0.5 * (v3 + vte)) : row.paeco2_mmhg;
-  const bohrAtSensor = (row.alv_co2_mmhg - peco2) / (row.alv_co2_mmhg - inspired);
+  const bohrAtSensor = bohrDeadSpaceFraction(row.alv_co2_mmhg, peco2, inspired);
   const bohr = patientDeadSpace(bohrAtSensor, vte, cfg.apparatus_ml);
   row.vdvt_bohr = bohr.fraction;
   row.vd_bohr_ml = bohr.volume_ml;
-  if (Number.isFinite(vStar) && vStar > 0) row.vd_alv_ml = bohrAtSensor * vte - vStar;
+  if (Number.isFinite(vStar) && vStar > 0) row.vd_alv_ml = alveolarDeadSpaceMl(bohrAtSensor * vte, vStar);
   if (cfg.paco2_mmhg !== null) {
     const enghoff = patientDeadSpace(enghoffDeadSpaceFraction(cfg.paco2_mmhg, peco2, inspired), vte, cfg.apparatus_ml);
     row.vdvt_enghoff = enghoff.fraction;

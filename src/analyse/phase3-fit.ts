@@ -1,7 +1,7 @@
 // Phase III regression on the sensor's own (lagged) reading, with the sensor's first-order response built into the
 // model, so the slope is not bent by the sensor still catching up with phase II and the raw noise is not amplified.
 //
-// Model: inside the window the CO2 at the sampling point is the line x(V) = a + b V (primer 4). Through the sensor
+// Model: inside the window the CO2 at the sampling point is the line x(V) = a + b V. Through the sensor
 // y_k = beta_k y_{k-1} + alpha_k x(V̄_k)  (exact for a first-order sensor, V̄_k = volume at the centre of the
 // interval's exponential weights; see align.ts). Unrolled from the first window sample k0:
 //   y_k - E_k y_k0 = a (1 - E_k) + b G_k,   E_k = prod beta,   G_k = beta_k G_{k-1} + alpha_k V̄_k,  G_k0 = 0

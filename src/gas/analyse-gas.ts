@@ -1,3 +1,4 @@
+import { alveolarDeadSpaceMl } from '../physiology/alveolar-dead-space.js';
 import { avdsf } from '../physiology/avdsf.js';
 import { enghoffDeadSpaceFraction } from '../physiology/enghoff-dead-space-fraction.js';
 import { patientDeadSpace } from '../physiology/patient-dead-space.js';
@@ -17,11 +18,11 @@ function fmt(v: number, digits = 1): string {
 }
 
 /**
- * Blood-gas analysis (issue 4): matches each blood-gas sample with the ok breaths of the window before it and derives
+ * Blood-gas analysis: matches each blood-gas sample with the ok breaths of the window before it and derives
  * the arterial-end-tidal gradient, dead-space fractions and volumes, venous admixture and the split of the gradient
  * into a shunt part and a dead-space / V/Q part; then estimates PaCO2 between samples (estimatePaco2).
  *
- * Per sample (primer 6, 10):
+ * Per sample:
  * - window medians (ok breaths only, see selectWindowBreaths) of PETCO2, PĒCO2, VTe, VDaw and per-breath Bohr VD/VT;
  * - gradient = PaCO2 - PETCO2; AVDSF = gradient / PaCO2;
  * - Enghoff at the sensor = (PaCO2 - median PĒCO2)/(PaCO2 - median PICO2), the per-breath function
@@ -89,7 +90,7 @@ export function analyseGas(
     const physiological = patientDeadSpace(enghoffAtSensor, med.vt_exp_ml, apparatusMl);
     const enghoff = physiological.fraction;
     const vdPhys = physiological.volume_ml;
-    const vdAlv = vdPhys - med.vd_aw_ml;
+    const vdAlv = alveolarDeadSpaceMl(vdPhys, med.vd_aw_ml);
     const perKg = (v: number) => v / weight.weight_kg;
     if (weight.basis === 'none') missing.push('weight_kg');
 

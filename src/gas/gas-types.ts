@@ -1,4 +1,4 @@
-// Data shapes of the blood-gas analysis (issue 4). Units in every field name; NaN = not given / not computable.
+// Data shapes of the blood-gas analysis. Units in every field name; NaN = not given / not computable.
 import type { Sex } from '../physiology/predicted-body-weight.js';
 
 /** One blood-gas sample (one valid row of the gas CSV). Optional inputs that were not given are NaN. */

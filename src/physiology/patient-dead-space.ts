@@ -22,6 +22,16 @@ export function patientDeadSpaceMl(deadSpaceAtSensorMl: number, apparatusMl: num
 }
 
 /**
+ * Inverse of patientDeadSpaceMl: the dead space at the sensor from the patient's, VD_sensor = VD_patient +
+ * V_apparatus, mL (for drawing on the curve measured at the sensor). Source: derived here.
+ *
+ * NaN propagates.
+ */
+export function deadSpaceAtSensorMl(patientDeadSpaceMlValue: number, apparatusMl: number): number {
+  return patientDeadSpaceMlValue + apparatusMl;
+}
+
+/**
  * Patient dead space (volume and VD/VT) from a dead-space fraction measured at the sensor (Bohr or Enghoff).
  *
  * Formula: VD_patient = patientDeadSpaceMl(VD/VT_sensor x VT, V_apparatus); VD/VT_patient = VD_patient / VT, with VT
