@@ -158,7 +158,13 @@ function breathGas(inspiration: InspirationIntegrals, expiration: ExpirationInte
 }
 
 /** The row's timing, volume and CO2 fields, known before any phase is found. */
-function volumeRow(s: BreathSignals, ctx: BreathContext, inspiredMl: number, expiredMl: number, gas: BreathGas): BreathRowRecord {
+function volumeRow(
+  s: BreathSignals,
+  ctx: BreathContext,
+  inspiredMl: number,
+  expiredMl: number,
+  gas: BreathGas,
+): BreathRowRecord {
   const row = new BreathRowRecord();
   row.breath = ctx.breath;
   row.t_start_s = s.t_insp_s;
@@ -178,7 +184,13 @@ function volumeRow(s: BreathSignals, ctx: BreathContext, inspiredMl: number, exp
   return row;
 }
 
-function initialGeometry(curve: MonotoneCurve, base: number, peakFlowLps: number, maxDtS: number, range: SensorRange): BreathGeometry {
+function initialGeometry(
+  curve: MonotoneCurve,
+  base: number,
+  peakFlowLps: number,
+  maxDtS: number,
+  range: SensorRange,
+): BreathGeometry {
   return {
     v_ml: curve.volume_ml,
     co2_mmhg: curve.compensated_mmhg,
@@ -214,7 +226,8 @@ export function decomposeBreath(s: BreathSignals, ctx: BreathContext): BreathDec
   const row = volumeRow(s, ctx, inspiration.volume_ml, vte, gas);
   row.flags = flags;
   const maxDt = expiration.max_dt_s > inspiration.max_dt_s ? expiration.max_dt_s : inspiration.max_dt_s;
-  const geometry = initialGeometry(curve, base, expiration.peak_flow_lps, maxDt, sensorRange(s, expiration.peak_flow_lps));
+  const range = sensorRange(s, expiration.peak_flow_lps);
+  const geometry = initialGeometry(curve, base, expiration.peak_flow_lps, maxDt, range);
   const stop = (flag: string): BreathDecomposition => (flags.push(flag), { row, geometry, flags });
   if (!(vte > 0) || curve.volume_ml.length < 6 || row.te_s < settings.min_phase_s) return stop('short_exp');
 
@@ -235,11 +248,12 @@ export function decomposeBreath(s: BreathSignals, ctx: BreathContext): BreathDec
   row.v_phase3_start_ml = phase3Start;
 
   const window = phase3Window(settings.phase3_window, phase3Start, vte, inflectionMl);
-  const { time_s, sensor_mmhg, flow_lps } = samples;
-  const fit = fitPhase3(time_s, expiration.volume_ml, sensor_mmhg, flow_lps, window.from_ml, window.to_ml, ctx.tau_s, lowFlow, base);
+  const { time_s: time, sensor_mmhg: sensor, flow_lps: flow } = samples;
+  const fit = fitPhase3(time, expiration.volume_ml, sensor, flow, window.from_ml, window.to_ml, ctx.tau_s, lowFlow, base);
   if (!fit || !phase3Acceptable(fit, window, phase3Start, vte, row.slope2_mmhg_per_l, settings)) return stop('no_phase3');
   recordPhase3(row, geometry, fit, base, window);
-  if (fit.rms > settings.max_phase3_rms_mmhg || (settings.min_phase3_r2 > 0 && fit.r2 < settings.min_phase3_r2)) flags.push('poor_fit');
+  const poorR2 = settings.min_phase3_r2 > 0 && fit.r2 < settings.min_phase3_r2;
+  if (fit.rms > settings.max_phase3_rms_mmhg || poorR2) flags.push('poor_fit');
   row.petco2_mmhg = endTidalPco2(settings, curve, samples, vte, base + fit.a + fit.b * vte);
   row.slope3_norm_per_l = normalisedPhase3Slope(row.slope3_mmhg_per_l, row.petco2_mmhg);
 
@@ -248,7 +262,8 @@ export function decomposeBreath(s: BreathSignals, ctx: BreathContext): BreathDec
   geometry.fowler_limit_ml = fowlerLimit;
   const fowlerMl = fowlerDeadSpace(fit.a, fit.b, fowlerLimit, areaAboveBase(curve, base, fowlerLimit));
   const alveolarLineMmhg = base + fit.a + fit.b * (0.5 * (phase3Start + vte));
-  recordDeadSpaces(row, flags, settings, { fowlerMl, windowFromMl: window.from_ml, expiredAreaMmhgMl: expiration.co2_area_mmhg_ml, alveolarLineMmhg });
+  const expiredAreaMmhgMl = expiration.co2_area_mmhg_ml;
+  recordDeadSpaces(row, flags, settings, { fowlerMl, windowFromMl: window.from_ml, expiredAreaMmhgMl, alveolarLineMmhg });
   return { row, geometry, flags };
 }
 
@@ -266,13 +281,18 @@ function phase3Acceptable(
   settings: AnalysisSettings,
 ): boolean {
   const minSpan = Math.max(settings.min_phase3_ml, settings.min_phase3_fraction * tidalVolumeMl);
-  if (fit.n < settings.min_phase3_points || window.to_ml - window.from_ml < 0.5 * minSpan || tidalVolumeMl - phase3StartMl < minSpan) {
-    return false;
-  }
+  if (fit.n < settings.min_phase3_points) return false;
+  if (window.to_ml - window.from_ml < 0.5 * minSpan || tidalVolumeMl - phase3StartMl < minSpan) return false;
   return !(Number.isFinite(phase2SlopeMmhgPerL) && fit.b * 1000 > 0.5 * phase2SlopeMmhgPerL);
 }
 
-function recordPhase3(row: BreathRow, geometry: BreathGeometry, fit: Phase3Fit, base: number, window: { from_ml: number; to_ml: number }): void {
+function recordPhase3(
+  row: BreathRow,
+  geometry: BreathGeometry,
+  fit: Phase3Fit,
+  base: number,
+  window: { from_ml: number; to_ml: number },
+): void {
   geometry.line_intercept_mmhg = base + fit.a;
   geometry.line_slope_mmhg_per_ml = fit.b;
   geometry.fit_from_ml = window.from_ml;
@@ -311,7 +331,8 @@ function recordDeadSpaces(
   row.vd_bohr_ml = bohr.volume_ml;
   if (Number.isFinite(fowler) && fowler > 0) row.vd_alv_ml = alveolarDeadSpaceMl(bohrAtSensor * vte, fowler);
   if (settings.paco2_mmhg !== null) {
-    const enghoff = patientDeadSpace(enghoffDeadSpaceFraction(settings.paco2_mmhg, row.peco2_mmhg, inspired), vte, settings.apparatus_ml);
+    const enghoffAtSensor = enghoffDeadSpaceFraction(settings.paco2_mmhg, row.peco2_mmhg, inspired);
+    const enghoff = patientDeadSpace(enghoffAtSensor, vte, settings.apparatus_ml);
     row.vdvt_enghoff = enghoff.fraction;
     row.vd_enghoff_ml = enghoff.volume_ml;
   }

@@ -57,6 +57,10 @@ export function patientDeadSpace(fractionAtSensor: number, tidalVolumeMl: number
  *
  * NaN propagates.
  */
-export function alveolarTidalVolumeMl(tidalVolumeMl: number, patientAirwayDeadSpaceMl: number, apparatusMl: number): number {
+export function alveolarTidalVolumeMl(
+  tidalVolumeMl: number,
+  patientAirwayDeadSpaceMl: number,
+  apparatusMl: number,
+): number {
   return tidalVolumeMl - patientAirwayDeadSpaceMl - apparatusMl;
 }
