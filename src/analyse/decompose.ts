@@ -228,7 +228,10 @@ export function decomposeBreath(s: BreathSignals, ctx: BreathContext): BreathDec
   const maxDt = expiration.max_dt_s > inspiration.max_dt_s ? expiration.max_dt_s : inspiration.max_dt_s;
   const range = sensorRange(s, expiration.peak_flow_lps);
   const geometry = initialGeometry(curve, base, expiration.peak_flow_lps, maxDt, range);
-  const stop = (flag: string): BreathDecomposition => (flags.push(flag), { row, geometry, flags });
+  const stop = (flag: string): BreathDecomposition => {
+    flags.push(flag);
+    return { row, geometry, flags };
+  };
   if (!(vte > 0) || curve.volume_ml.length < 6 || row.te_s < settings.min_phase_s) return stop('short_exp');
 
   // preliminary phase III line on the sensor reading over the second half of the expirate: the level reference

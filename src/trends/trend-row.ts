@@ -10,9 +10,9 @@
  *           time: this equals scaling by the ok share of the bin's time, and a bin that holds 13 or 15 breath starts
  *           is not biased by the bin edge)
  *   V'E   = sum(VTe) / 1000 / (sum(duration) / 60)     L/min (volume conditions as the flow sensor reports them)
- *   V'A   = sum(VTe - VDaw) / 1000 / (sum(duration) / 60)   L/min: alveolar ventilation as "ventilation reaching
- *           alveoli", RR x (VT - VDaw), the second form in primer 6.3 (not the gas-exchange-effective form
- *           RR x (VT - VDphys))
+ *   V'A   = sum(VTe - VDaw - apparatus) / 1000 / (sum(duration) / 60)   L/min: alveolar ventilation as "ventilation
+ *           reaching alveoli", RR x (VT - VDaw), with VDaw the patient's airway plus the apparatus volume (neither
+ *           reaches alveoli); not the gas-exchange-effective form RR x (VT - VDphys)
  *   RR    = 60 x n / sum(duration)                     breaths/min
  */
 export interface TrendRow {
