@@ -160,7 +160,7 @@ export function analyseGas(
   if (defaultPvco2Samples.length > 0) {
     warnings.push(
       `PvCO2 was not measured for gas sample(s) ${defaultPvco2Samples.join(', ')}: the shunt part of the gradient assumes ` +
-        `PvCO2 - PaCO2 = ${shuntSettings.default_pv_a_co2_mmhg} mmHg (textbook value, from memory); measure venous PCO2 for a patient-specific split`,
+        `PvCO2 - PaCO2 = ${shuntSettings.default_pv_a_co2_mmhg} mmHg (textbook value; common practice, no source); measure venous PCO2 for a patient-specific split`,
     );
   }
 

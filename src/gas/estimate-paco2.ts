@@ -3,7 +3,7 @@ import { GAS_DEFAULTS } from './gas-defaults.js';
 import type { GasRow, Paco2Estimate } from './gas-types.js';
 
 /**
- * PaCO2 between blood gases (issue 4): for each ok breath with a finite PETCO2 that starts at or after the first
+ * PaCO2 between blood gases: for each ok breath with a finite PETCO2 that starts at or after the first
  * gas sample with a gradient, estimated PaCO2 = PETCO2 + the most recent gradient (the last gas row with
  * time_s <= the breath's t_start_s and a finite gradient_mmhg).
  *

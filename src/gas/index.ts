@@ -1,4 +1,4 @@
-// Blood-gas analysis (issue 4): pure, browser-safe.
+// Blood-gas analysis: pure, browser-safe.
 export type {
   GasSample,
   GasParseResult,

@@ -35,7 +35,7 @@ const HOW = 'the blood-gas file needs a header with time_s (or clock plus the re
 class RowError extends Error {}
 
 /**
- * Reads a blood-gas CSV (issue 4) with papaparse.
+ * Reads a blood-gas CSV with papaparse.
  *
  * Columns (header row, names case-insensitive): time_s (seconds from recording start) or clock (HH:MM:SS or ISO
  * date-time, needs opts.start), paco2_mmhg; optional pao2_mmhg, sao2_pct, svo2_pct, pvco2_mmhg, pvo2_mmhg, hb_g_dl,

@@ -11,10 +11,10 @@ export interface WeightChoice {
 }
 
 /**
- * Body weight used for per-kg dead-space values (primer 12): predicted body weight (ARDSNet, cm form) for adults
+ * Body weight used for per-kg dead-space values: predicted body weight (ARDSNet, cm form) for adults
  * when height and sex are given, otherwise actual weight, otherwise none.
  * PBW formula: men 50 + 0.91 (height_cm - 152.4), women 45.5 + 0.91 (height_cm - 152.4) kg
- * [published: ARDSNet 2000 NEJM and Devine 1974 as restated in multiple secondary sources]. The formula is for
+ * (The Acute Respiratory Distress Syndrome Network 2000, N Engl J Med 342:1301-1308). The formula is for
  * adults and unsuitable for small stature [published: Martin & Richards 2017 BMC Pulm Med]: below 152.4 cm it is
  * not used (actual weight instead, with a warning).
  */

@@ -5,7 +5,7 @@
  * value uses the bin's ok breaths only (status 'ok'); with fewer than `min_ok_breaths` ok breaths it is NaN.
  *
  * Rates are computed over the time the ok breaths cover, not over the bin length:
- *   V'CO2 = sum(VTCO2) / (sum(breath duration) / 60)   mL/min STPD   (primer 5.1: sum of net VTCO2 over a window /
+ *   V'CO2 = sum(VTCO2) / (sum(breath duration) / 60)   mL/min STPD   (sum of net VTCO2 over a window /
  *           window length in minutes; the window is the ok breaths' own time, so excluded breaths neither add CO2 nor
  *           time: this equals scaling by the ok share of the bin's time, and a bin that holds 13 or 15 breath starts
  *           is not biased by the bin edge)
