@@ -65,7 +65,8 @@ export interface AnalysisSettings {
   alveolar_method: 'phase3_mid' | 'mean_alveolar';
   /** Bohr with the inspired CO2 term (common practice, no source) */
   bohr_inspired_term: boolean;
-  /** apparatus volume between sensor and patient to subtract from airway dead space, mL */
+  /** apparatus volume between sensor and patient, mL: removed from every dead space measured at the sensor (Fowler,
+   *  Bohr, Enghoff; VD/VT too), so dead spaces are the patient's; alveolar dead space does not change */
   apparatus_ml: number;
   /** arterial PCO2 for Enghoff, mmHg */
   paco2_mmhg: number | null;

@@ -5,10 +5,10 @@
 // inspired level b (the baseline the core integrates above),
 //   p = area between the curve and b, left of V*               (CO2 that came out "early")
 //   q = area between L (above) and the curve, from V* to V_x   (CO2 "missing" after the front)
-// and V* is where p = q. The core solves this in closed form (src/analyse/fowler.ts); here the two areas are only
-// outlined so the reader can see the balance.
+// and V* is where p = q. The core solves this in closed form (src/physiology/fowler-dead-space.ts); here the two
+// areas are only outlined so the reader can see the balance.
 //
-// Fletcher's areas with a PaCO2 line (Fletcher R et al. 1981, Br J Anaesth 53:77-88):
+// Fletcher's areas with a PaCO2 line (Fletcher R, Jonson B, Cumming G, Brew J 1981, Br J Anaesth 53:77-88):
 //   X = under the curve (CO2 eliminated), Y = between PaCO2 and L right of V* (alveolar dead space),
 //   Z = the rest under PaCO2 (airway dead space; equals PaCO2 x V* after Fowler's balancing).
 

@@ -5,6 +5,7 @@
 // of it stands on its own.
 
 import uPlot from 'uplot';
+import { deadSpaceAtSensorMl } from '../src/physiology/patient-dead-space';
 import type { BreathRow } from '../src/types';
 import { fletcherRegions, fowlerAreas, lineAt, type Polygon } from './breath-shapes';
 import type { BreathCurve } from './geometry-store';
@@ -32,7 +33,7 @@ export interface BreathView {
 
 /** V* in the curve's coordinates (volume from the start of expiration): the row's VDaw plus the apparatus volume. */
 export function fowlerVolume(scene: Pick<BreathScene, 'row' | 'apparatus_ml'>): number {
-  return scene.row.vd_aw_ml + scene.apparatus_ml;
+  return deadSpaceAtSensorMl(scene.row.vd_aw_ml, scene.apparatus_ml);
 }
 
 function yRange(s: BreathScene): [number, number] {

@@ -8,6 +8,7 @@ import type { Settings } from '../settings.js';
 import type { BreathRow, SampleBlock } from '../types.js';
 import { deconvolveFirstOrder, interpolateAt, scratchFor, type DeconvolveScratch } from './align.js';
 import { calibrate, type Calibration } from './calibrate.js';
+import { createBreathWorkspace } from './breath-workspace.js';
 import { decomposeBreath, type BreathDecomposition, type BreathSignals } from './decompose.js';
 import { fitInspiratoryFall, lowerBound } from './fall-fit.js';
 import { inspirationReversalTime } from './flow-reversal.js';
@@ -115,6 +116,7 @@ class StreamAnalyser implements Analyser {
   private scratch: DeconvolveScratch | null = null;
   private fastBuf = new Float64Array(0);
   private rawBuf = new Float64Array(0);
+  private readonly workspace = createBreathWorkspace();
   /** ripple floor: min_volume_fraction x running median tidal volume (updated per breath) */
   private minVolumeMl = 0;
 
@@ -223,7 +225,7 @@ class StreamAnalyser implements Analyser {
       exp_abrupt: b.exp_abrupt,
     };
     const rows = this.rows;
-    const d = decomposeBreath(signals, { breath: rows.length + 1, delay_s: c.delay_s, tau_s: tau, settings: cfg, keep_geometry: this.onBreath !== null });
+    const d = decomposeBreath(signals, { breath: rows.length + 1, delay_s: c.delay_s, tau_s: tau, settings: cfg, workspace: this.workspace, keep_geometry: this.onBreath !== null });
     // NaN in the aligned CO2 inside the breath means the CO2 channel was missing there
     for (let i = signals.i_insp; i < signals.i_end; i++) {
       if (!(fast[i]! === fast[i]!)) {

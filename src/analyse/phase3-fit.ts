@@ -1,7 +1,7 @@
 // Phase III regression on the sensor's own (lagged) reading, with the sensor's first-order response built into the
 // model, so the slope is not bent by the sensor still catching up with phase II and the raw noise is not amplified.
 //
-// Model: inside the window the CO2 at the sampling point is the line x(V) = a + b V (primer 4). Through the sensor
+// Model: inside the window the CO2 at the sampling point is the line x(V) = a + b V. Through the sensor
 // y_k = beta_k y_{k-1} + alpha_k x(V̄_k)  (exact for a first-order sensor, V̄_k = volume at the centre of the
 // interval's exponential weights; see align.ts). Unrolled from the first window sample k0:
 //   y_k - E_k y_k0 = a (1 - E_k) + b G_k,   E_k = prod beta,   G_k = beta_k G_{k-1} + alpha_k V̄_k,  G_k0 = 0
@@ -18,6 +18,7 @@ export interface Phase3Fit {
   /** line intercept at V = 0 and slope, on CO2 above `base` (mmHg, mmHg/mL) */
   a: number;
   b: number;
+  /** share of the variance of the readings in the window that the fitted line (through the sensor model) explains */
   r2: number;
   rms: number;
   n: number;
@@ -48,14 +49,16 @@ export function fitPhase3(
   }
   if (k0 < 0 || k1 - k0 < 3) return null;
   const y0 = Y[k0]! - base;
-  // accumulate the normal equations of y' = a u + b g  (u = 1 - E, g = G) and the sums for r² / RMS
+  // accumulate the normal equations of y' = a u + b g  (u = 1 - E, g = G, y' = y - E y0), the sum of y'^2 for the
+  // residuals and the sums of the readings y themselves for their variance (R²)
   let suu = 0;
   let sug = 0;
   let sgg = 0;
   let suy = 0;
   let sgy = 0;
   let syy = 0;
-  let sy = 0;
+  let sumReading = 0;
+  let sumReadingSq = 0;
   let count = 0;
   let gmin = Infinity;
   let gmax = -Infinity;
@@ -85,7 +88,8 @@ export function fitPhase3(
     suy += u * yy;
     sgy += G * yy;
     syy += yy * yy;
-    sy += yy;
+    sumReading += y;
+    sumReadingSq += y * y;
     count++;
     if (G < gmin) gmin = G;
     if (G > gmax) gmax = G;
@@ -95,9 +99,11 @@ export function fitPhase3(
   if (!(Math.abs(det) > 0)) return null;
   const a = (suy * sgg - sgy * sug) / det;
   const b = (sgy * suu - suy * sug) / det;
-  // residual sum of squares from the sums (exact for the least-squares solution)
+  // residual sum of squares from the sums (exact for the least-squares solution); the residual of a reading is the
+  // same in y' and in y (the E y0 term is known), so R² compares it with the spread of the readings themselves, not of
+  // the transformed y' (whose start near 0 the a u term "explains" even on a flat plateau)
   const sse = Math.max(0, syy - a * suy - b * sgy);
-  const sst = syy - (sy * sy) / count;
+  const sst = sumReadingSq - (sumReading * sumReading) / count;
   const rms = Math.sqrt(sse / count);
   const r2 = sst > 0 ? 1 - sse / sst : NaN;
   return { a, b, r2, rms, n: count };

@@ -32,7 +32,7 @@ export function addInputOptions(cmd: Command): Command {
     .option('--delay <s>', 'CO2-to-flow transport delay in seconds (default: estimate)', number('--delay'))
     .option('--response-ms <ms>', 'CO2 sensor time constant in ms (default: estimate)', number('--response-ms'))
     .option('--paco2 <mmhg>', 'arterial PCO2 for Enghoff dead space, mmHg', number('--paco2'))
-    .option('--apparatus-ml <ml>', 'apparatus volume between sensor and patient to subtract from airway dead space', number('--apparatus-ml'))
+    .option('--apparatus-ml <ml>', 'apparatus volume (mL) between sensor and patient, removed from every dead space (airway, Bohr, Enghoff, VD/VT)', number('--apparatus-ml'))
     .addOption(new Option('--petco2 <method>', 'end-tidal definition').choices(['line_end', 'last', 'max', 'mean_last']));
 }
 

@@ -1,10 +1,11 @@
+import { alveolarDeadSpaceMl } from '../physiology/alveolar-dead-space.js';
 import { avdsf } from '../physiology/avdsf.js';
-import type { SummaryBreaths } from '../analyse/quality.js';
 import { enghoffDeadSpaceFraction } from '../physiology/enghoff-dead-space-fraction.js';
+import { patientDeadSpace } from '../physiology/patient-dead-space.js';
 import type { BreathRow } from '../types.js';
 import { estimatePaco2 } from './estimate-paco2.js';
 import { GAS_DEFAULTS } from './gas-defaults.js';
-import type { GasOptions, GasResult, GasRow, GasSample } from './gas-types.js';
+import type { GasAnalysisSettings, GasOptions, GasResult, GasRow, GasSample } from './gas-types.js';
 import { median as finiteMedian } from '../analyse/stats.js';
 import { selectWindowBreaths } from './select-window-breaths.js';
 import { shuntPart, type ShuntSettings } from './shunt-part.js';
@@ -17,29 +18,35 @@ function fmt(v: number, digits = 1): string {
 }
 
 /**
- * Blood-gas analysis (issue 4): matches each blood-gas sample with the ok breaths of the window before it and derives
+ * Blood-gas analysis: matches each blood-gas sample with the ok breaths of the window before it and derives
  * the arterial-end-tidal gradient, dead-space fractions and volumes, venous admixture and the split of the gradient
  * into a shunt part and a dead-space / V/Q part; then estimates PaCO2 between samples (estimatePaco2).
  *
- * Per sample (primer 6, 10):
+ * Per sample:
  * - window medians (ok and caution breaths, see selectWindowBreaths and usableForSummary) of PETCO2, PĒCO2, VTe, VDaw and per-breath Bohr VD/VT;
  * - gradient = PaCO2 - PETCO2; AVDSF = gradient / PaCO2;
- * - Enghoff VD/VT = (PaCO2 - median PĒCO2)/PaCO2. Because this is an affine function of PĒCO2 for a fixed PaCO2, it
- *   equals the median of the per-breath Enghoff values computed with the same PaCO2 (for odd and even counts);
- * - VDphys = Enghoff VD/VT x median VTe; VDalv = VDphys - median VDaw; per kg on the chosen weight basis;
+ * - Enghoff at the sensor = (PaCO2 - median PĒCO2)/(PaCO2 - median PICO2), the per-breath function
+ *   (enghoffDeadSpaceFraction) with the inspired term when analysis.inspired_term is on (bohr_inspired_term of the breaths);
+ * - VDphys = Enghoff at the sensor x median VTe - apparatus volume (patientDeadSpace, as per breath); Enghoff VD/VT =
+ *   VDphys / median VTe; VDalv = VDphys - median VDaw (both without the apparatus, so VDalv does not depend on it);
+ *   per kg on the chosen weight basis;
  * - shunt fraction and gradient split, see shuntPart; gradient_rest = gradient - gradient_shunt;
  * - gradient change versus the previous sample with a gradient, flagged above the setting.
  * Missing inputs leave NaN cells and are named in missing_inputs; assumptions are named in notes and warnings.
- * `use.summary_breaths` (analysis.summary_breaths) picks the breaths of the windows and estimates (usableForSummary).
+ * `analysis.summary_breaths` (analysis.summary_breaths) picks the breaths of the windows and estimates (usableForSummary).
  */
 export function analyseGas(
-  breaths: readonly BreathRow[], samples: readonly GasSample[], opts: GasOptions,
-  use: { summary_breaths?: SummaryBreaths } = {},
+  breaths: readonly BreathRow[],
+  samples: readonly GasSample[],
+  opts: GasOptions,
+  analysis: GasAnalysisSettings = { apparatus_ml: 0, inspired_term: true },
 ): GasResult {
   const d = GAS_DEFAULTS;
   const windowS = opts.window_s ?? d.window_s.value;
   const gradientChangeMmhg = opts.gradient_change_mmhg ?? d.gradient_change_mmhg.value;
   const singleGasSpread = opts.single_gas_spread_mmhg ?? d.single_gas_spread_mmhg.value;
+  const apparatusMl = analysis.apparatus_ml;
+  const inspiredTerm = analysis.inspired_term;
   const shuntSettings: ShuntSettings = {
     pb_mmhg: opts.pb_mmhg,
     rq: opts.rq ?? d.rq.value,
@@ -63,7 +70,7 @@ export function analyseGas(
   ordered.forEach((sample, i) => {
     const number = i + 1;
     const label = `gas sample ${number} (line ${sample.line}, t = ${fmt(sample.time_s)} s)`;
-    const used = selectWindowBreaths(breaths, sample.time_s, windowS, use.summary_breaths);
+    const used = selectWindowBreaths(breaths, sample.time_s, windowS, analysis.summary_breaths);
     const med = Object.fromEntries(BREATH_FIELDS.map((f) => [f, finiteMedian(used.map((b) => b[f]))])) as Record<
       (typeof BREATH_FIELDS)[number],
       number
@@ -79,9 +86,12 @@ export function analyseGas(
 
     const paco2 = sample.paco2_mmhg;
     const gradient = paco2 - med.petco2_mmhg;
-    const enghoff = enghoffDeadSpaceFraction(paco2, med.peco2_mmhg);
-    const vdPhys = enghoff * med.vt_exp_ml;
-    const vdAlv = vdPhys - med.vd_aw_ml;
+    const inspired = inspiredTerm ? finiteMedian(used.map((b) => b.fico2_mmhg)) : 0;
+    const enghoffAtSensor = enghoffDeadSpaceFraction(paco2, med.peco2_mmhg, Number.isFinite(inspired) ? inspired : 0);
+    const physiological = patientDeadSpace(enghoffAtSensor, med.vt_exp_ml, apparatusMl);
+    const enghoff = physiological.fraction;
+    const vdPhys = physiological.volume_ml;
+    const vdAlv = alveolarDeadSpaceMl(vdPhys, med.vd_aw_ml);
     const perKg = (v: number) => v / weight.weight_kg;
     if (weight.basis === 'none') missing.push('weight_kg');
 
@@ -151,15 +161,19 @@ export function analyseGas(
   if (defaultPvco2Samples.length > 0) {
     warnings.push(
       `PvCO2 was not measured for gas sample(s) ${defaultPvco2Samples.join(', ')}: the shunt part of the gradient assumes ` +
-        `PvCO2 - PaCO2 = ${shuntSettings.default_pv_a_co2_mmhg} mmHg (textbook value, from memory); measure venous PCO2 for a patient-specific split`,
+        `PvCO2 - PaCO2 = ${shuntSettings.default_pv_a_co2_mmhg} mmHg (textbook value; common practice, no source); measure venous PCO2 for a patient-specific split`,
     );
   }
 
   const settings: Record<string, unknown> = {
     window_s: windowS,
-    window_rule: `${use.summary_breaths === 'ok_only' ? 'ok breaths' : 'ok and caution breaths'} with t_start_s >= sample time - window_s and t_end_s <= sample time; medians`,
-    enghoff_rule: '(PaCO2 - median PECO2) / PaCO2 (equals the median of per-breath Enghoff with the same PaCO2)',
-    vd_phys_rule: 'Enghoff VD/VT x median VTe; vd_alv = vd_phys - median VDaw',
+    window_rule: `${analysis.summary_breaths === 'ok_only' ? 'ok breaths' : 'ok and caution breaths'} with t_start_s >= sample time - window_s and t_end_s <= sample time; medians`,
+    enghoff_rule: inspiredTerm
+      ? '(PaCO2 - median PECO2) / (PaCO2 - median PICO2) x median VTe - apparatus, over median VTe'
+      : '(PaCO2 - median PECO2) / PaCO2 x median VTe - apparatus, over median VTe',
+    vd_phys_rule: 'Enghoff at the sensor x median VTe - apparatus; vd_alv = vd_phys - median VDaw',
+    apparatus_ml: apparatusMl,
+    inspired_term: inspiredTerm,
     pb_mmhg: shuntSettings.pb_mmhg,
     rq: shuntSettings.rq,
     hb_o2_capacity_ml_per_g: shuntSettings.hb_o2_capacity_ml_per_g,
@@ -179,6 +193,6 @@ export function analyseGas(
     given: Object.keys(opts).filter((k) => opts[k as keyof GasOptions] !== undefined).sort(),
   };
 
-  const estimates = estimatePaco2(breaths, rows, { single_gas_spread_mmhg: singleGasSpread, summary_breaths: use.summary_breaths });
+  const estimates = estimatePaco2(breaths, rows, { single_gas_spread_mmhg: singleGasSpread, summary_breaths: analysis.summary_breaths });
   return { rows, estimates, settings, warnings };
 }

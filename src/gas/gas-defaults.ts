@@ -20,7 +20,7 @@ export const GAS_DEFAULTS = {
     source: 'common practice, no source: 0.003 and 0.0031 mL/dL/mmHg are in use; the choice is a setting',
   },
   end_capillary_saturation: { value: 'one' as 'one' | 'odc', source: "common practice, no source: Sc'O2 taken as 1.0 when PAO2 is high" },
-  alveolar_gas_form: { value: 'full' as 'full' | 'simplified', source: 'common practice, no source: alveolar gas equation' },
+  alveolar_gas_form: { value: 'full' as 'full' | 'simplified', source: 'Riley RL, Cournand A 1949, J Appl Physiol 1:825-847 (alveolar gas equation)' },
   default_pv_a_co2_mmhg: {
     value: 6,
     source: 'common practice, no source: normal venous-arterial PCO2 difference about 6 mmHg, normally below about 1 kPa',

@@ -1,3 +1,4 @@
+import type { SummaryBreaths } from '../analyse/quality.js';
 // Data shapes of the blood-gas analysis. Units in every field name; NaN = not given / not computable.
 import type { Sex } from '../physiology/predicted-body-weight.js';
 
@@ -61,6 +62,16 @@ export interface GasOptions {
   gradient_change_mmhg?: number;
   /** half-width of the PaCO2 estimate band while only one gas is known, mmHg (default 5) */
   single_gas_spread_mmhg?: number;
+}
+
+/** Settings of the breath analysis that the gas step follows, so that its dead spaces match the breaths' own. */
+export interface GasAnalysisSettings {
+  /** apparatus volume between sensor and patient, mL: removed from the dead spaces (analysis apparatus_ml) */
+  apparatus_ml: number;
+  /** Enghoff with the inspired-CO2 term, the window's median inspired PCO2 (analysis bohr_inspired_term) */
+  inspired_term: boolean;
+  /** which breaths the windows and estimates use (analysis.summary_breaths; default ok and caution breaths) */
+  summary_breaths?: SummaryBreaths;
 }
 
 export type ShuntMethod = 'contents' | 'saturations' | '';

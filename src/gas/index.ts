@@ -2,6 +2,7 @@
 export type {
   GasSample,
   GasParseResult,
+  GasAnalysisSettings,
   GasOptions,
   GasRow,
   GasResult,

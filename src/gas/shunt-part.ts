@@ -30,16 +30,16 @@ const has = (v: number) => Number.isFinite(v);
 /**
  * Venous admixture of one blood-gas sample and the part of the CO2 gradient it explains.
  *
- * Shunt fraction (shunt equation from oxygen contents; common practice, no source):
+ * Shunt fraction (Berggren 1942, see shuntFractionFromContents):
  * - 'contents' when PaO2, SaO2, SvO2, Hb and FiO2 are present: Qs/Qt = (Cc'O2 - CaO2)/(Cc'O2 - CvO2), contents
  *   k_Hb * Hb * S + c * PO2; PAO2 from the alveolar gas equation (full or simplified, R setting); Sc'O2 = 1.0 or
  *   Severinghaus(PAO2); venous PO2 from pvo2_mmhg, else from SvO2 by inverting the Severinghaus curve.
  * - 'saturations' when SaO2 and SvO2 are present but a content input is missing (PO2 terms neglected):
  *   Qs/Qt ~ (Sc'O2 - SaO2)/(Sc'O2 - SvO2) with Sc'O2 = 1.0 (or Severinghaus(PAO2) when the ODC option is on and
  *   PAO2 can be computed).
- * Shunt part of the gradient (linear content mixing, derived here: docs/methods.md, Derivations), PaCO2 - Pc'CO2 ~ s/(1 - s) * (PvCO2 - PaCO2), with PvCO2 measured;
+ * Shunt part of the gradient (shuntCo2Effect), PaCO2 - Pc'CO2 ~ s/(1 - s) * (PvCO2 - PaCO2), with PvCO2 measured;
  * else, when a cardiac output is given, the Fick route s * V'CO2 / (k * Q' * (1 - s)) with V'CO2 from the breaths;
- * else PvCO2 = PaCO2 + the default P(v-a)CO2 [common practice, no source].
+ * else PvCO2 = PaCO2 + the default P(v-a)CO2 (textbook value; common practice, no source).
  *
  * @param vco2MlPerMin CO2 elimination from the window breaths (for the Fick route), NaN if unknown
  */

@@ -2,24 +2,20 @@
 // a declared unit fits the values, and the conversion factors to internal units (s, L/s, mmHg).
 // Factors are computed ONCE at module load with mathjs units, never per value.
 import { unit } from 'mathjs';
+import { MMHG_PER_KPA, PH2O_37C_MMHG } from '../physiology/constants';
+import { mmhgPerPercent } from '../physiology/percent-to-mmhg';
 import type { IngestSettings } from '../settings';
 
 export type TimeUnit = 's' | 'ms' | 'clock';
 export type FlowUnit = NonNullable<IngestSettings['flow_unit']>;
 export type Co2Unit = NonNullable<IngestSettings['co2_unit']>;
 
-/**
- * mmHg per kPa, from mathjs (mathjs defines 1 mmHg = 133.322 Pa; the SI value is 133.322387415 Pa,
- * a relative difference of 2.9e-6, far below any clinical resolution).
- * 1 kPa = 7.50062 mmHg (NIST SP 811, 2008, Appendix B: 1 mmHg = 133.3224 Pa).
- */
-export const MMHG_PER_KPA: number = unit(1, 'kPa').toNumber('mmHg');
+// mmHg per kPa and the water vapour pressure at 37 C are the physiology constants (src/physiology/constants.ts).
+export { MMHG_PER_KPA, PH2O_37C_MMHG };
 /** L/s per L/min (mathjs): 1/60. */
 export const LPS_PER_LPM: number = unit(1, 'L/min').toNumber('L/s');
 /** L/s per mL/s (mathjs): 1/1000. */
 export const LPS_PER_MLPS: number = unit(1, 'mL/s').toNumber('L/s');
-/** Saturated water vapour pressure at 37 C, mmHg (`[common practice, no source]`). */
-export const PH2O_37C_MMHG = 47;
 
 /** Factor that turns a flow in `u` into L/s. */
 export function flowFactorToLps(u: FlowUnit): number {
@@ -31,12 +27,12 @@ export function flowFactorToLps(u: FlowUnit): number {
 /**
  * Factor that turns a CO2 reading in `u` into mmHg.
  * '%': PCO2 = F x PB ('ambient', the fraction of the actual gas) or F x (PB - 47) ('dry', fraction of dry gas),
- * `[common practice, no source]`; F = value / 100.
- * @example co2FactorToMmhg('%', 760, 'dry') * 5 // => 35.65 (0.05 x 713)
+ * F = value / 100 (mmhgPerPercent; common practice, no source).
+ * @example co2FactorToMmhg('%', 760, 'dry') * 5 // => 35.65
  */
 export function co2FactorToMmhg(u: Co2Unit, pbMmhg: number, convention: IngestSettings['co2_percent']): number {
   if (u === 'kPa') return MMHG_PER_KPA;
-  if (u === '%') return (convention === 'dry' ? pbMmhg - PH2O_37C_MMHG : pbMmhg) / 100;
+  if (u === '%') return mmhgPerPercent(pbMmhg, convention);
   return 1;
 }
 

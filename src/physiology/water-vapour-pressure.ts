@@ -1,15 +1,14 @@
 import { detExp } from '../numeric/det-math.js';
-/** hPa per mmHg (1 mmHg = 133.322 Pa). */
-const HPA_PER_MMHG = 1.33322;
+import { HPA_PER_MMHG } from './constants.js';
 
 /**
  * Saturated water vapour pressure over liquid water, mmHg.
  *
  * Formula (Buck 1981, the "e_w" form for water): e [hPa] = 6.1121 * exp(17.502 * T / (240.97 + T)), T in deg C;
- * divided by 1.33322 hPa/mmHg. Stated equation for the primer's "Buck-type vapour-pressure equation" (primer 7.3).
- * Source: [from memory: Buck AL 1981 J Appl Meteorol 20:1527-1532, "New equations for computing vapor pressure and
- * enhancement factor"; not re-verified]. Gives 47.10 mmHg at 37 C (conventional rounded value 47 mmHg
- * [common practice, no source], primer 7.2) and 17.5 mmHg at 20 C.
+ * divided by 1.33322 hPa/mmHg.
+ * Source: Buck AL 1981, J Appl Meteorol 20:1527-1532, "New equations for computing vapor pressure and enhancement
+ * factor". Gives 47.10 mmHg at 37 C (conventional rounded value 47 mmHg, common practice, no source) and 17.5 mmHg
+ * at 20 C.
  *
  * Valid for about 0-50 C; NaN propagates.
  */

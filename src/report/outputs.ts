@@ -52,7 +52,7 @@ export function exportRows(
   const rows = reviewedRows(core.breaths, excluded);
   if (!gas || settings.analysis.paco2_mmhg !== null) return rows;
   const copies = rows.map((r) => ({ ...r, flags: [...r.flags] }));
-  applyArterialPco2(copies, gas.samples, settings.analysis.bohr_inspired_term);
+  applyArterialPco2(copies, gas.samples, settings.analysis.bohr_inspired_term, settings.analysis.apparatus_ml);
   return copies;
 }
 
@@ -73,7 +73,11 @@ export function composeOutputs(
   let gasResult: GasResult | null = null;
   let summary: Summary;
   if (gas) {
-    gasResult = analyseGas(rows, gas.samples, gasOptions, { summary_breaths: settings.analysis.summary_breaths });
+    gasResult = analyseGas(rows, gas.samples, gasOptions, {
+      apparatus_ml: settings.analysis.apparatus_ml,
+      inspired_term: settings.analysis.bohr_inspired_term,
+      summary_breaths: settings.analysis.summary_breaths,
+    });
     summary = summaryFor(reviewed, report, settings, given);
     summary.gas = jsonSafe({
       file: gas.file,
@@ -90,7 +94,7 @@ export function composeOutputs(
   }
   const note = exclusionNote(core.breaths, excluded);
   if (note) summary.notes.push(note);
-  const te = trendsAndEvents(rows, { ...settings.events, summary_breaths: settings.analysis.summary_breaths }, gas ? gas.samples : []);
+  const te = trendsAndEvents(rows, { ...settings.events, summary_breaths: settings.analysis.summary_breaths }, gas ? gas.samples : [], settings.analysis.apparatus_ml);
   summary.events = jsonSafe(te.events);
   return { rows, summary, gas: gasResult, trends: te.trends, events: te.events };
 }

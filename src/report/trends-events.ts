@@ -14,8 +14,9 @@ export function trendsAndEvents(
   breaths: readonly BreathRow[],
   opts: TrendSettings & { summary_breaths?: SummaryBreaths },
   bloodGases: readonly { time_s: number; paco2_mmhg: number }[] = [],
+  apparatusMl = 0,
 ): TrendsAndEvents {
-  const trends = computeTrends(breaths, opts);
+  const trends = computeTrends(breaths, opts, apparatusMl);
   const events = detectEvents(trends, opts, { blood_gases: bloodGases });
   return { trends, events };
 }

@@ -1,7 +1,9 @@
 import { unit } from 'mathjs';
 
 /**
- * Physical constants of the simulator, each computed once.
+ * Physical constants of the simulator, each computed once. The simulator keeps its own copies of these values on
+ * purpose and does not import src/physiology/constants.ts: it is the independent truth the analysis is checked
+ * against, so a wrong constant in the analysis must not silently move the truth with it.
  *
  * MMHG_PER_KPA: from mathjs units (mathjs defines 1 mmHg = 133.322 Pa exactly, so 7.500638 mmHg/kPa; the standard
  * factor 7.50062 differs by 2.9e-6 relative) [NIST SP 811 (2008), Appendix B: 1 mmHg = 133.3224 Pa]. The analyser

@@ -1,5 +1,6 @@
 import { usableForSummary, type SummaryBreaths } from '../analyse/quality.js';
 import { median } from '../analyse/stats.js';
+import { alveolarTidalVolumeMl } from '../physiology/patient-dead-space.js';
 import type { BreathRow } from '../types.js';
 import type { TrendSettings } from './settings.js';
 import type { TrendRow } from './trend-row.js';
@@ -8,11 +9,14 @@ import type { TrendRow } from './trend-row.js';
  * Summarises breath rows into fixed time bins of `opts.bin_s` seconds, aligned to recording time 0 (bin i covers
  * [i bin_s, (i+1) bin_s)). A breath belongs to the bin holding its start. Every bin from the first breath's bin to the
  * last breath's bin gets a row, so gaps show as rows with breaths = 0. Formulas and the handling of excluded breaths:
- * see TrendRow (src/trends/trend-row.ts). Cost O(n log n) in the number of breaths (medians).
+ * see TrendRow (src/trends/trend-row.ts). `apparatusMl`: the apparatus volume between sensor and patient, which the
+ * breath rows' airway dead space excludes but which no more reaches alveoli than the airway does (alveolar
+ * ventilation). Cost O(n log n) in the number of breaths (medians).
  */
 export function computeTrends(
   breaths: readonly BreathRow[],
   opts: Pick<TrendSettings, 'bin_s' | 'min_ok_breaths'> & { summary_breaths?: SummaryBreaths },
+  apparatusMl = 0,
 ): TrendRow[] {
   const binS = opts.bin_s;
   if (!(binS > 0)) throw new RangeError('bin_s must be positive');
@@ -27,10 +31,10 @@ export function computeTrends(
   }
   const groups: BreathRow[][] = Array.from({ length: last - first + 1 }, () => []);
   for (const b of withTime) groups[Math.floor(b.t_start_s / binS) - first]!.push(b);
-  return groups.map((g, j) => summariseBin((first + j) * binS, g, opts.min_ok_breaths, opts.summary_breaths));
+  return groups.map((g, j) => summariseBin((first + j) * binS, g, opts.min_ok_breaths, opts.summary_breaths, apparatusMl));
 }
 
-function summariseBin(tS: number, all: BreathRow[], minOk: number, summaryBreaths: SummaryBreaths | undefined): TrendRow {
+function summariseBin(tS: number, all: BreathRow[], minOk: number, summaryBreaths: SummaryBreaths | undefined, apparatusMl: number): TrendRow {
   // "ok" here means usable for a summary: ok breaths and, unless summary_breaths is 'ok_only', caution breaths
   const ok = all.filter((b) => usableForSummary(b, { summary_breaths: summaryBreaths }));
   const row: TrendRow = {
@@ -52,7 +56,7 @@ function summariseBin(tS: number, all: BreathRow[], minOk: number, summaryBreath
   if (ok.length < minOk || ok.length === 0) return row;
   row.vco2_ml_min = ratePerMinute(ok, (b) => b.vtco2_ml);
   row.ve_l_min = ratePerMinute(ok, (b) => b.vt_exp_ml / 1000);
-  row.va_l_min = ratePerMinute(ok, (b) => (b.vt_exp_ml - b.vd_aw_ml) / 1000);
+  row.va_l_min = ratePerMinute(ok, (b) => alveolarTidalVolumeMl(b.vt_exp_ml, b.vd_aw_ml, apparatusMl) / 1000);
   row.rr_bpm = ratePerMinute(ok, () => 1);
   row.vte_ml = median(ok.map((b) => b.vt_exp_ml));
   row.petco2_mmhg = median(ok.map((b) => b.petco2_mmhg));

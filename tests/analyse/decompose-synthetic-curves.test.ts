@@ -1,9 +1,12 @@
-// The per-breath decomposition against the analytic synthetic expirograms A, B and C. Source of every expected value:
-// worked by hand from the curve's definition (derived here: docs/methods.md, Derivations). The curves are laid out in time at a
-// constant expiratory flow so that V = flow x t exactly; both CO2 signals (fast and slow) carry the same curve.
+// The per-breath decomposition against three analytic expirograms whose answers follow from geometry (derived here):
+// curve A (flat plateau at 40 mmHg after a straight rise from 100 to 200 mL), curve B (rise to 36 mmHg, then the line
+// 34 + 0.01 V) and curve C (a logistic front centred on 150 mL). Areas, Fowler volumes and dead-space fractions are
+// worked out by hand in the test names. The curves are laid out in time at a constant expiratory flow so that
+// V = flow x t exactly; both CO2 signals (compensated and sensor reading) carry the same curve.
 import { describe, expect, it } from 'vitest';
-import { decomposeBreath, stpdFactor, type BreathSignals } from '../../src/analyse/decompose.js';
-import { fowlerDeadSpace } from '../../src/analyse/fowler.js';
+import { decomposeBreath, type BreathSignals } from '../../src/analyse/decompose.js';
+import { fowlerDeadSpace } from '../../src/physiology/fowler-dead-space.js';
+import { vtco2FromArea } from '../../src/physiology/vtco2-from-area.js';
 import { defaultSettings } from '../../src/settings.js';
 import { expectClose } from '../helpers/expect-close.js';
 
@@ -41,11 +44,11 @@ const settings = () => {
   return s;
 };
 
-describe('Fowler closed form (derived here: algebraic restatement)', () => {
-  it('curve A, flat plateau: area 14000 mmHg·mL under a line at 40 mmHg to 500 mL gives 150 mL', () => {
+describe('Fowler closed form (Fowler 1948 Am J Physiol; closed form derived here)', () => {
+  it('flat plateau: area 14000 mmHg·mL under a line at 40 mmHg to 500 mL gives 150 mL', () => {
     expectClose(fowlerDeadSpace(40, 0, 500, 14000), 150, { abs: 1e-9 });
   });
-  it('curve B, sloped plateau: line 34 + 0.01 V, area 13050 mmHg·mL to 500 mL gives 149.648 mL', () => {
+  it('sloped plateau: line 34 + 0.01 V, area 13050 mmHg·mL to 500 mL gives 149.648 mL', () => {
     expectClose(fowlerDeadSpace(34, 0.01, 500, 13050), 149.648, { abs: 5e-4 });
   });
   it('refuses a non-positive intercept', () => {
@@ -53,7 +56,7 @@ describe('Fowler closed form (derived here: algebraic restatement)', () => {
   });
 });
 
-describe('decomposeBreath on synthetic curve A (flat plateau)', () => {
+describe('decomposeBreath on analytic curve A (flat plateau)', () => {
   const curveA = (v: number) => (v < 100 ? 0 : v < 200 ? (40 * (v - 100)) / 100 : 40);
   const d = decomposeBreath(breathFromCurve(curveA), { breath: 1, delay_s: 0, tau_s: 0, settings: settings() });
   it('has no quality flags', () => expect(d.flags).toEqual([]));
@@ -65,10 +68,11 @@ describe('decomposeBreath on synthetic curve A (flat plateau)', () => {
   });
   it('Bohr VD/VT with PACO2 40 = 0.300', () => expectClose(d.row.vdvt_bohr, 0.3, { abs: 5e-4 }));
   it('VTCO2 = 16.22 mL STPD', () => expectClose(d.row.vtco2_ml, 16.22, { abs: 0.02 }));
-  it('STPD factor at 37 C is 1.1588e-3 mL per mmHg·mL (derived here: 273.15 / (310.15 x 760))', () => expectClose(stpdFactor(37), 1.1588e-3, { rel: 1e-4 }));
+  it('STPD factor at 37 C is 273.15 / 310.15 / 760 = 1.1588e-3 mL per mmHg·mL (ideal-gas law; common practice, no source)', () =>
+    expectClose(vtco2FromArea(1, 37), 1.1588e-3, { rel: 1e-4 }));
 });
 
-describe('decomposeBreath on synthetic curve B (sloped plateau, PaCO2 40)', () => {
+describe('decomposeBreath on analytic curve B (sloped plateau, PaCO2 40)', () => {
   const curveB = (v: number) => (v < 100 ? 0 : v < 200 ? (36 * (v - 100)) / 100 : 34 + 0.01 * v);
   const d = decomposeBreath(breathFromCurve(curveB), { breath: 1, delay_s: 0, tau_s: 0, settings: settings() });
   it('Fowler VDaw (V_x = V_E) = 149.648 mL', () => expectClose(d.row.vd_aw_ml, 149.648, { abs: 0.1 }));
@@ -88,14 +92,14 @@ describe('decomposeBreath on synthetic curve B (sloped plateau, PaCO2 40)', () =
   });
 });
 
-describe('decomposeBreath on synthetic curve C (smooth symmetric front)', () => {
+describe('decomposeBreath on analytic curve C (smooth symmetric front)', () => {
   const curveC = (v: number) => 40 / (1 + Math.exp(-(v - 150) / 10));
   const d = decomposeBreath(breathFromCurve(curveC), { breath: 1, delay_s: 0, tau_s: 0, settings: settings() });
   it('Fowler VDaw = 150.00 mL', () => expectClose(d.row.vd_aw_ml, 150, { abs: 0.05 }));
   it('inflection (max slope) VDaw = 150.00 mL', () => expectClose(d.row.vd_inflection_ml, 150, { abs: 0.05 }));
 });
 
-describe('decomposeBreath quality codes on synthetic breaths (common practice, no source)', () => {
+describe('decomposeBreath quality codes on analytic breaths (common practice, no source)', () => {
   it('no_phase3 when the expiration ends inside phase II (curve A cut at 180 mL)', () => {
     const curve = (v: number) => (v < 100 ? 0 : v < 200 ? (40 * (v - 100)) / 100 : 40);
     const d = decomposeBreath(breathFromCurve(curve, 180), { breath: 1, delay_s: 0, tau_s: 0, settings: settings() });

@@ -30,7 +30,7 @@ describe('metricsMarkdown', () => {
     expect(md[0]).toBe('| column | unit | meaning | in summary | source |');
     expect(md.filter((l) => l.startsWith('| `')).length).toBe(BREATH_METRICS.length);
     const vdvt = md.find((l) => l.startsWith('| `vdvt_bohr` |'))!;
-    expect(vdvt.split(' | ').slice(1)).toEqual(['–', 'Bohr: VD/VT = (PACO2 − PĒCO2)/(PACO2 − PICO2)', 'yes', 'Bohr 1891 |']);
+    expect(vdvt.split(' | ').slice(1)).toEqual(['–', 'Bohr: (PACO2 − PĒCO2)/(PACO2 − PICO2) × V_E minus `apparatus_ml`, over V_E (the published equation when `apparatus_ml` is 0)', 'yes', 'Bohr 1891 |']);
     expect(md).toContain(`- Bohr 1891: ${REFERENCES['Bohr 1891']}.`);
     expect(metricsMarkdown('trends').split('\n')[0]).toBe('| column | unit | meaning | source |');
   });
