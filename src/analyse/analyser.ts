@@ -221,7 +221,7 @@ class StreamAnalyser implements Analyser {
     const d = decomposeBreath(signals, { breath: rows.length + 1, delay_s: c.delay_s, tau_s: tau, settings: cfg, keep_geometry: this.onBreath !== null });
     // NaN in the aligned CO2 inside the breath means the CO2 channel was missing there
     for (let i = signals.i_insp; i < signals.i_end; i++) {
-      if (!(fast[i]! === fast[i]!)) {
+      if (Number.isNaN(fast[i]!)) {
         if (!d.flags.includes('gap')) d.flags.push('gap');
         break;
       }
@@ -246,7 +246,7 @@ class StreamAnalyser implements Analyser {
   private feed(t: number, fFile: number, co2: number): void {
     const c = this.cal!;
     const f = c.sign * (fFile - c.offset_lps);
-    if (!(f === f) || !(co2 === co2)) {
+    if (Number.isNaN(f) || Number.isNaN(co2)) {
       this.endSegment();
       this.absNext++;
       return;
@@ -297,7 +297,7 @@ class StreamAnalyser implements Analyser {
     const n = block.n;
     this.totalSamples += n;
     if (n > 0) {
-      if (!(this.firstT === this.firstT)) this.firstT = block.t_s[0]!;
+      if (Number.isNaN(this.firstT)) this.firstT = block.t_s[0]!;
       this.lastT = block.t_s[n - 1]!;
     }
     let i = 0;

@@ -62,7 +62,7 @@ export function estimateFlowOffset(
     let ok = true;
     for (let i = s0; i < s0 + w; i++) {
       const f = flow[i]!;
-      if (!(f === f) || Math.abs(f) > 0.1 * peak) {
+      if (Number.isNaN(f) || Math.abs(f) > 0.1 * peak) {
         ok = false;
         break;
       }
@@ -130,7 +130,7 @@ export function signAndLagFromEdges(
   for (let i = 1; i < co2.length; i++) {
     const a = co2[i - 1]!;
     const b = co2[i]!;
-    if (!(a === a) || !(b === b)) continue;
+    if (Number.isNaN(a) || Number.isNaN(b)) continue;
     if (b > mid + band) {
       if (state === -1) rises.push(crossTime(t, co2, i, mid, true));
       state = 1;
@@ -207,7 +207,7 @@ function lagByInspiredCo2(flow: Float64Array, co2: Float64Array, dt: number, thr
     for (let i = 0; i + k < n; i++) {
       const f = sign * flow[i]!;
       const c = co2[i + k]! - base;
-      if (!(c === c) || !(f === f)) continue;
+      if (Number.isNaN(c) || Number.isNaN(f)) continue;
       const cc = c > 0 ? c : 0;
       if (f > thr) exp += cc * f;
       else if (f < -thr) insp -= cc * f;
@@ -225,7 +225,7 @@ export function breathBounds(t: ArrayLike<number>, flow: ArrayLike<number>, thr:
   let seg = null as ReturnType<typeof createSegmenter> | null;
   for (let i = 0; i < flow.length; i++) {
     const f = flow[i]!;
-    if (!(f === f) || !(t[i]! === t[i]!)) {
+    if (Number.isNaN(f) || Number.isNaN(t[i]!)) {
       seg = null;
       continue;
     }
@@ -374,7 +374,7 @@ function typicalTidalVolume(t: Float64Array, flow: Float64Array, thr: number): n
   for (let i = 1; i < flow.length; i++) {
     const f0 = flow[i - 1]!;
     const f1 = flow[i]!;
-    if (!(f0 === f0) || !(f1 === f1)) {
+    if (Number.isNaN(f0) || Number.isNaN(f1)) {
       dir = 0;
       v = 0;
       continue;

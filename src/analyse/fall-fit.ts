@@ -35,7 +35,7 @@ export function fitInspiratoryFall(
   min_drop_mmhg = 5,
 ): FallFit | null {
   const n = t.length;
-  let i0 = lowerBound(t, from_s);
+  const i0 = lowerBound(t, from_s);
   const i1 = Math.min(n - 1, lowerBound(t, to_s));
   if (i1 - i0 < 3) return null;
   // steepest one-sample fall
@@ -43,7 +43,7 @@ export function fitInspiratoryFall(
   let steepest = 0;
   for (let i = i0; i < i1; i++) {
     const d = co2[i + 1]! - co2[i]!;
-    if (!(d === d)) return null;
+    if (Number.isNaN(d)) return null;
     if (d < steepest) {
       steepest = d;
       j = i;

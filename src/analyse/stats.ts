@@ -157,6 +157,6 @@ export function medianPositiveStep(t: ArrayLike<number>, max: number): number {
 /** Number of values that are not NaN. */
 export function countFinite(x: ArrayLike<number>): number {
   let n = 0;
-  for (let i = 0; i < x.length; i++) if (x[i]! === x[i]!) n++;
+  for (let i = 0; i < x.length; i++) if (!Number.isNaN(x[i]!)) n++;
   return n;
 }

@@ -231,7 +231,7 @@ export class LineScanner {
         else if (role === ROLE_CO2) this.cv = v;
         else {
           this.tv = v;
-          if (v !== v && this.badCol === 0) this.timeBlank = true;
+          if (Number.isNaN(v) && this.badCol === 0) this.timeBlank = true;
         }
       }
       field++;
@@ -256,7 +256,7 @@ export class LineScanner {
       const t = text.trim();
       if (t === '') return NaN;
       const v = this.clock!.read(t);
-      if (v === v) return v;
+      if (!Number.isNaN(v)) return v;
     } else {
       const v = parseNumberCell(text, this.decimal);
       if (typeof v === 'number') return v;
@@ -316,7 +316,7 @@ export class LineScanner {
       else if (role === ROLE_CO2) this.cv = v;
       else {
         this.tv = v;
-        if (v !== v && this.badCol === 0) this.timeBlank = true;
+        if (Number.isNaN(v) && this.badCol === 0) this.timeBlank = true;
       }
     }
     const n = fields.length;

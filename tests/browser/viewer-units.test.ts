@@ -200,7 +200,7 @@ describe('overview decimation', () => {
       let hi = -Infinity;
       for (let i = a; i < b; i++) {
         const v = Math.fround(f[i]!);
-        if (v === v) {
+        if (!Number.isNaN(v)) {
           lo = Math.min(lo, v);
           hi = Math.max(hi, v);
         }
