@@ -2,7 +2,7 @@
 // `phasewise batch merge SHARD_DIR... --out DIR`. Exit codes: 0 all recordings analysed; 4 some failed (the rest are
 // complete and the manifest names each failure); 2 usage (bad options, no inputs, shards that do not fit together).
 import { availableParallelism } from 'node:os';
-import { Command, InvalidArgumentError } from 'commander';
+import { type Command, InvalidArgumentError } from 'commander';
 import { EXIT_CODES } from '../ingest/errors.js';
 import { settingsPlan } from '../batch/file-settings.js';
 import { mergeShards, MergeError } from '../batch/merge.js';

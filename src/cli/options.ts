@@ -1,6 +1,6 @@
 // Options shared by `analyse` and `batch`: every one maps to a setting in src/settings.ts.
 import { readFileSync, existsSync } from 'node:fs';
-import { Command, InvalidArgumentError, Option } from 'commander';
+import { type Command, InvalidArgumentError, Option } from 'commander';
 import { defaultSettings, type Settings } from '../settings.js';
 import { applySettings, parseSettingsFile, SettingsError, type SettingsFile } from '../settings-file.js';
 
