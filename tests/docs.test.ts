@@ -3,8 +3,7 @@
 import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
 import { REASON_CODES } from '../src/analyse/quality.js';
-import { DEFAULT_ANALYSIS, DEFAULT_INGEST } from '../src/settings.js';
-import { DEFAULT_TRENDS } from '../src/trends/settings.js';
+import { DEFAULT_ANALYSIS, DEFAULT_INGEST, DEFAULT_TRENDS } from '../src/settings.js';
 
 const readme = readFileSync(new URL('../README.md', import.meta.url), 'utf8');
 

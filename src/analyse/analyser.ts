@@ -12,7 +12,7 @@ import { decomposeBreath, type BreathDecomposition, type BreathSignals } from '.
 import { fitInspiratoryFall, lowerBound } from './fall-fit.js';
 import { checkBreath, markOutliers, statusOf } from './quality.js';
 import { createSegmenter, type BreathBounds, type Segmenter } from './segment.js';
-import { countFinite, median, medianPositiveStep } from './stats.js';
+import { countFinite, median, medianPositiveStep } from '../numeric/stats.js';
 
 export interface AnalysisCore {
   breaths: BreathRow[];

@@ -4,7 +4,7 @@
 import type { Settings } from '../settings.js';
 import type { SettingOrigin } from '../types.js';
 import { fitInspiratoryFall, type FallFit } from './fall-fit.js';
-import { median, medianStep, quantile } from './stats.js';
+import { median, medianStep, quantile } from '../numeric/stats.js';
 import { createSegmenter, type BreathBounds } from './segment.js';
 
 export interface Calibration {

@@ -9,7 +9,7 @@
 // breath is t0 - t_reversal. Method: common practice, no source (least-squares fit of the first-order step response).
 
 import { detLog } from '../numeric/det-math.js';
-import { fitLine, median } from './stats.js';
+import { fitLine, median } from '../numeric/stats.js';
 
 export interface FallFit {
   /** time the (delayed) step starts at the sensor, s */

@@ -4,7 +4,7 @@
 import type { AnalysisSettings } from '../settings.js';
 import type { BreathRow } from '../types.js';
 import type { BreathGeometry } from './decompose.js';
-import { quantileSorted } from './stats.js';
+import { quantileSorted } from '../numeric/stats.js';
 
 /** Every reason code with its meaning (the README table is generated from this list). */
 export const REASON_CODES: Record<string, string> = {

@@ -4,7 +4,7 @@ import type { BreathRow } from '../types.js';
 import { estimatePaco2 } from './estimate-paco2.js';
 import { GAS_DEFAULTS } from './gas-defaults.js';
 import type { GasOptions, GasResult, GasRow, GasSample } from './gas-types.js';
-import { median as finiteMedian } from '../analyse/stats.js';
+import { median as finiteMedian } from '../numeric/stats.js';
 import { selectWindowBreaths } from './select-window-breaths.js';
 import { shuntPart, type ShuntSettings } from './shunt-part.js';
 import { chooseWeight } from './weight-basis.js';

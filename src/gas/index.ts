@@ -18,5 +18,5 @@ export { analyseGas } from './analyse-gas.js';
 export { estimatePaco2 } from './estimate-paco2.js';
 export { GAS_DEFAULTS } from './gas-defaults.js';
 export { GAS_COLUMNS, PACO2_ESTIMATE_COLUMNS } from './gas-columns.js';
-export { median as finiteMedian } from '../analyse/stats.js';
+export { median as finiteMedian } from '../numeric/stats.js';
 export { applyArterialPco2 } from './apply-paco2.js';

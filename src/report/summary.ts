@@ -3,7 +3,7 @@
 import { detLog } from '../numeric/det-math.js';
 import type { AnalysisCore } from '../analyse/analyser.js';
 import { REASON_CODES } from '../analyse/quality.js';
-import { quantileSorted } from '../analyse/stats.js';
+import { quantileSorted } from '../numeric/stats.js';
 import { SETTING_GROUPS, type Settings } from '../settings.js';
 import { SUMMARY_METRICS, type BreathRow, type MetricSummary, type RecordedSetting } from '../types.js';
 import { VERSION } from '../version.js';

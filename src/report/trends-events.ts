@@ -1,6 +1,6 @@
 // Trends per time bin and change events for one recording (browser-safe; used by analyse, batch and the viewer).
 import { computeTrends, detectEvents, EVENT_COLUMNS, TREND_COLUMNS, type EventRow, type TrendRow } from '../trends/index.js';
-import type { TrendSettings } from '../trends/settings.js';
+import type { TrendSettings } from '../settings.js';
 import type { BreathRow } from '../types.js';
 import { csvTable } from './format.js';
 

@@ -1,4 +1,4 @@
-import type { TrendSettings } from './settings.js';
+import type { TrendSettings } from '../settings.js';
 import type { TrendRow } from './trend-row.js';
 
 /** An arterial blood gas: time (recording time, s) and PaCO2 (mmHg). */

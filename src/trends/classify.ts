@@ -1,5 +1,5 @@
 import type { GasComparison } from './blood-gas.js';
-import type { TrendSettings } from './settings.js';
+import type { TrendSettings } from '../settings.js';
 import { SIGNAL_LABEL, type TrendSignal } from './signals.js';
 
 /** Event kinds: patterns in the data, not diagnoses (src/trends/RULES.md). */

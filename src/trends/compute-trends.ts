@@ -1,6 +1,6 @@
-import { median } from '../analyse/stats.js';
+import { median } from '../numeric/stats.js';
 import type { BreathRow } from '../types.js';
-import type { TrendSettings } from './settings.js';
+import type { TrendSettings } from '../settings.js';
 import type { TrendRow } from './trend-row.js';
 
 /**

@@ -1,7 +1,7 @@
-import { mad, median } from '../analyse/stats.js';
+import { mad, median } from '../numeric/stats.js';
 import { decisionInterval } from './arl.js';
 import { cusumStart, cusumStep, type CusumSide, type CusumState } from './cusum.js';
-import type { TrendSettings } from './settings.js';
+import type { TrendSettings } from '../settings.js';
 import { minChange, type TrendSignal } from './signals.js';
 
 /** A confirmed sustained change of one signal. Indices refer to the trend rows. */

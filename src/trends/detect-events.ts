@@ -1,7 +1,7 @@
 import { compareGases, type BloodGasPoint } from './blood-gas.js';
 import { classifyPattern, signalDelta, type ChangePattern, type EventKind } from './classify.js';
 import { chartArlBins, detectSignalChanges, medianBack, medianWindow, sustainedBins, type SignalChange } from './detect-changes.js';
-import type { TrendSettings } from './settings.js';
+import type { TrendSettings } from '../settings.js';
 import { signalValues, TREND_SIGNALS, type TrendSignal } from './signals.js';
 import type { TrendRow } from './trend-row.js';
 

@@ -1,6 +1,7 @@
 // Trends (per-bin summaries of the breath rows) and events (sustained changes, classified by pattern). Pure and
 // browser-safe. Rules: src/trends/RULES.md.
-export { DEFAULT_TRENDS, trendSettings, trendSettingsSchema, type TrendSettings, type FallWithoutGas } from './settings.js';
+export { DEFAULT_TRENDS, type TrendSettings, type FallWithoutGas } from '../settings.js';
+export { trendSettings, trendSettingsSchema } from './settings.js';
 export { TREND_COLUMNS, type TrendRow } from './trend-row.js';
 export { computeTrends } from './compute-trends.js';
 export { detectEvents, EVENT_COLUMNS, type EventRow, type EventContext } from './detect-events.js';

@@ -1,4 +1,4 @@
-import type { TrendSettings } from './settings.js';
+import type { TrendSettings } from '../settings.js';
 import type { TrendRow } from './trend-row.js';
 
 /** Trend columns watched for changes. */

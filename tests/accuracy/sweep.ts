@@ -2,7 +2,7 @@
 // the simulator's truth. Used by the accuracy test (tests/accuracy/sweep.test.ts) and printable as a table with
 // `npx tsx tests/accuracy/print-sweep.ts`.
 import { createAnalyser } from '../../src/analyse/analyser.js';
-import { quantile } from '../../src/analyse/stats.js';
+import { quantile } from '../../src/numeric/stats.js';
 import { defaultSettings } from '../../src/settings.js';
 import { scenarioParams, simulateSignals, type SimParams } from '../../src/simulate/index.js';
 import type { BreathRow } from '../../src/types.js';

@@ -7,7 +7,7 @@
 // Limits (ours): shunt fraction ±0.02, gradient and its parts ±0.6 mmHg.
 import { describe, expect, it } from 'vitest';
 import { createAnalyser } from '../../src/analyse/analyser.js';
-import { quantile } from '../../src/analyse/stats.js';
+import { quantile } from '../../src/numeric/stats.js';
 import { analyseGas, type GasSample } from '../../src/gas/index.js';
 import { alveolarGasPao2, oxygenContent, severinghausPo2, severinghausSaturation } from '../../src/physiology/index.js';
 import { defaultSettings } from '../../src/settings.js';

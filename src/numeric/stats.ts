@@ -9,7 +9,7 @@ let work = new Float64Array(64);
 /**
  * Quantile by linear interpolation between order statistics (R type 7, numpy's default). NaN when empty.
  * The two order statistics are found by selection (Hoare 1961, "Algorithm 65: FIND") on a copy, O(n) instead of a
- * full sort; the result is the same number a sort gives, sign of zero included (tests/analyse/stats.test.ts).
+ * full sort; the result is the same number a sort gives, sign of zero included (tests/numeric/stats.test.ts).
  */
 export function quantile(values: ArrayLike<number>, q: number): number {
   // Straight-line on purpose: every statement runs on every call. V8 compiles code that has not run yet into a
