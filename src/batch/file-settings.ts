@@ -4,7 +4,7 @@
 // for `analyse` ("options given here win").
 import { defaultSettings, type Settings } from '../settings.js';
 import { applySettings, type SettingsFile } from '../settings-file.js';
-import { resolveSettings } from '../cli/options.js';
+import { resolveSettings } from '../node/resolve-settings.js';
 import { sha256Json } from './hash.js';
 import { patternMatches } from './glob.js';
 
