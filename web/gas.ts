@@ -5,9 +5,7 @@
 // The PaCO2 drawn for a breath is the one its per-breath Enghoff values use: the analysis setting paco2_mmhg when
 // given, else the most recent gas sample at or before the breath's start (src/gas/apply-paco2.ts), else none.
 
-import type { GasParseResult, GasResult, GasSample } from '../src/gas/index';
-import type { Settings } from '../src/settings';
-import type { BreathRow } from '../src/types';
+import type { GasParseResult, GasResult, GasSample, Settings, BreathRow } from '../src/index';
 import { h } from './dom';
 import { fixed } from './metrics-table';
 import { clockLabel } from './overview-chart';

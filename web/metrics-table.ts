@@ -2,9 +2,7 @@
 // breaths.csv), its quality codes explained, and Fletcher's areas (src/physiology/fletcher-areas.ts) when a PaCO2 is
 // known.
 
-import { REASON_CODES } from '../src/analyse/quality';
-import { fletcherAreas } from '../src/physiology/fletcher-areas';
-import type { BreathRow } from '../src/types';
+import { REASON_CODES, fletcherAreas, type BreathRow } from '../src/index';
 import { h } from './dom';
 
 type Key = keyof BreathRow;

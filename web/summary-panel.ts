@@ -1,8 +1,7 @@
 // The recording summary (the same Summary object that summary.json holds): breath counts, exclusions by reason,
 // the delay / sensor-response / sign the analysis used, and median (p25-p75) of the main metrics over ok breaths.
 
-import type { Summary } from '../src/report/summary';
-import { formatNumber } from '../src/report/format';
+import { type Summary, formatNumber } from '../src/index';
 import { h } from './dom';
 import { fixed } from './metrics-table';
 
