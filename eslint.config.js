@@ -33,4 +33,17 @@ export default tseslint.config(
       '@typescript-eslint/no-non-null-assertion': 'off',
     },
   },
+  {
+    // The analysis core computes exp and log with src/numeric/det-math.ts, so the viewer's numbers match the CLI's
+    // bit for bit (engines may round Math.exp / Math.log differently). The simulator is not part of that parity.
+    files: ['src/**/*.ts'],
+    ignores: ['src/simulate/**', 'src/numeric/det-math.ts'],
+    rules: {
+      'no-restricted-properties': [
+        'error',
+        { object: 'Math', property: 'exp', message: 'use detExp from src/numeric/det-math.ts (same bits in every engine)' },
+        { object: 'Math', property: 'log', message: 'use detLog from src/numeric/det-math.ts (same bits in every engine)' },
+      ],
+    },
+  },
 );

@@ -6,7 +6,6 @@
 
 import { createAnalyser, parseGasCsv, sniffTable, type AnalysisCore, type IngestReport, type Settings, composeOutputs, type ComposedOutputs } from '../src/index';
 import { splitFields } from '../src/ingest/split-fields';
-import { installDeterministicMath } from './det-math';
 import { GeometryWriter, transferables } from './geometry-store';
 import { packRows, rowTransferables } from './row-columns';
 import type { FromWorker, ReaderIn, ReaderOut, ToWorker } from './protocol';
@@ -14,10 +13,6 @@ import { readHead, readRecording, type ReadCallbacks } from './read-file';
 import { SignalStore } from './signal-store';
 
 declare const self: DedicatedWorkerGlobalScope;
-
-// Same exp/log as the CLI on Node 20, bit for bit (det-math.ts explains why). Imports above only define functions
-// (no module computes with Math.exp/log when it loads), so installing here comes before any use.
-installDeterministicMath();
 
 /** Data rows shown in the mapping step. */
 const PREVIEW_ROWS = 12;

@@ -137,9 +137,3 @@ export function detLog(x: number): number {
   }
   return k === 0 ? f - s * (f - r) : k * LN2_HI - ((s * (f - r) - k * LN2_LO) - f);
 }
-
-/** Replaces Math.exp and Math.log of this global scope (the viewer's worker calls it first, for the libraries too). */
-export function installDeterministicMath(): void {
-  Math.exp = detExp;
-  Math.log = detLog;
-}
