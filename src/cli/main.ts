@@ -1,6 +1,5 @@
 // phasewise command line. Errors end in one line on stderr and a documented exit code, never a stack trace
 // (set PHASEWISE_DEBUG=1 to see one).
-import './prestart.js';
 import { Command, CommanderError } from 'commander';
 import { AnalysisInputError } from '../analyse/analyser.js';
 import { EXIT_CODES, exitCodeFor, isInputError } from '../ingest/errors.js';

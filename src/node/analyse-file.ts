@@ -6,7 +6,7 @@ import type { IngestReport } from '../ingest/index.js';
 import type { Settings } from '../settings.js';
 import type { SampleBlock } from '../types.js';
 import { readRecordingFile } from './read-recording.js';
-import { ReaderThread, readWorkerFile, takePrestartedReader } from './reader-thread.js';
+import { ReaderThread, readWorkerFile } from './reader-thread.js';
 
 export { readWorkerFile } from './reader-thread.js';
 
@@ -37,9 +37,8 @@ export async function analyseFile(path: string, settings: Settings, options: Ana
   let read = options.read ?? 'here';
   let own: ReaderThread | null = null;
   if (read === 'thread') {
-    const early = takePrestartedReader();
-    const file = early ? null : readWorkerFile();
-    read = early || file ? (own = new ReaderThread(early ?? file!)) : 'here';
+    const file = readWorkerFile();
+    read = file ? (own = new ReaderThread(file)) : 'here';
   }
   try {
     if (read === 'here') {
