@@ -78,8 +78,6 @@ export function createAnalyser(settings: Settings, onBreath?: (e: BreathEvent) =
   return new StreamAnalyser(settings, onBreath ?? null);
 }
 
-// A class rather than closures: a batch makes one analyser per recording, and methods on one prototype keep their
-// optimised code across recordings (closures made per recording were re-optimised for each file).
 class StreamAnalyser implements Analyser {
   private readonly cfg: Settings['analysis'];
   // calibration window
@@ -262,9 +260,6 @@ class StreamAnalyser implements Analyser {
     if (pending.length && t >= this.needUntil(pending[0]!)) this.flushPending(false);
   }
 
-  // Hot loops live in small methods of their own (feedRange, collect) and helpers (medianPositiveStep,
-  // countFinite): V8 then optimises each loop once for all recordings, instead of compiling the once-per-recording
-  // callers mid-loop (on-stack replacement) and throwing that code away at their next, not yet seen, statement.
   private startStreaming(): void {
     const t = this.calT.view();
     const f = this.calF.view();

@@ -319,8 +319,7 @@ export function calibrate(
   };
 }
 
-// Helpers holding calibrate's loops: calibrate runs once per recording, and V8 recompiles a function as a whole when
-// one of its loops bails out; small loop functions are compiled once for all recordings.
+// Small array helpers used by calibrate.
 
 function shifted(x: Float64Array, offset: number): Float64Array {
   const out = new Float64Array(x.length);
