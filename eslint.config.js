@@ -31,6 +31,11 @@ export default tseslint.config(
       '@typescript-eslint/no-unused-vars': ['error', { argsIgnorePattern: '^_', varsIgnorePattern: '^_', caughtErrors: 'none' }],
       '@typescript-eslint/consistent-type-imports': ['error', { fixStyle: 'inline-type-imports' }],
       '@typescript-eslint/no-non-null-assertion': 'off',
+      // one import style: relative imports without an extension (node scripts/fix-import-style.mjs rewrites them)
+      'no-restricted-imports': [
+        'error',
+        { patterns: [{ regex: '^\\.{1,2}/.*\\.js$', message: 'write relative imports without .js (run node scripts/fix-import-style.mjs)' }] },
+      ],
     },
   },
   {
