@@ -125,7 +125,7 @@ async function main(): Promise<void> {
   try {
     const load = () => loadavg().map((x) => x.toFixed(2)).join(' ');
     log(`phasewise bench — ${cpus()[0]?.model ?? 'cpu'} x${availableParallelism()}, Node ${process.version}; best of ${REPEAT} runs; load average ${load()}; folder ${dir}`);
-    let t = Date.now();
+    const t = Date.now();
     const big = join(dir, 'adult-24h.csv');
     const bigBytes = generate(big, 'adult-stable-long', 1440, 1);
     const mid = join(dir, 'adult-6h.csv');

@@ -3,7 +3,7 @@
 // are. Usage: npx tsx scripts/metrics-docs.ts [--check]   (--check: change nothing, exit 1 when a table is stale)
 import { existsSync, readdirSync, readFileSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
-import { updateMetricsBlocks } from '../src/metrics/markdown.js';
+import { updateMetricsBlocks } from '../src/metrics/markdown';
 
 const root = join(import.meta.dirname, '..');
 const check = process.argv.includes('--check');

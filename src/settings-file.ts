@@ -5,8 +5,8 @@
 //     "files": [ { "pattern": "**/site-b/*.csv", "ingest": { "decimal": ",", "delimiter": ";" } } ] }
 
 import { z } from 'zod';
-import { SETTING_GROUPS, type Settings } from './settings.js';
-import { trendSettingsSchema } from './trends/settings.js';
+import { SETTING_GROUPS, type Settings } from './settings';
+import { trendSettingsSchema } from './trends/settings';
 
 const num = z.number().finite();
 const pos = num.positive();

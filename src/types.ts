@@ -34,7 +34,7 @@ export interface RecordedSetting {
 
 // One analysed breath (one row of breaths.csv): the type is derived from the metric registry, which also gives the
 // column order and the metrics that summary.json summarises.
-export { BREATH_COLUMNS, SUMMARY_METRICS, type BreathRow } from './metrics/registry.js';
+export { BREATH_COLUMNS, SUMMARY_METRICS, type BreathRow } from './metrics/registry';
 
 export interface MetricSummary {
   median: number | null;

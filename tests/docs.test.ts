@@ -2,9 +2,8 @@
 // common practice, no source), the README stays a short front page that links to docs/, and its links resolve.
 import { existsSync, readFileSync, statSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
-import { REASON_CODES } from '../src/analyse/quality.js';
-import { DEFAULT_ANALYSIS, DEFAULT_INGEST } from '../src/settings.js';
-import { DEFAULT_TRENDS } from '../src/trends/settings.js';
+import { REASON_CODES } from '../src/analyse/quality';
+import { DEFAULT_ANALYSIS, DEFAULT_INGEST, DEFAULT_TRENDS } from '../src/settings';
 
 const root = new URL('../', import.meta.url);
 const read = (path: string): string => readFileSync(new URL(path, root), 'utf8');

@@ -2,7 +2,7 @@
 // String(Number(x.toPrecision(6))) (common practice, no source: six significant digits, shortest round-trip text).
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
-import { formatNumber } from '../src/report/format.js';
+import { formatNumber } from '../src/report/format';
 
 const plain = (x: number) => (Number.isInteger(x) ? String(x) : String(Number(x.toPrecision(6)) === 0 ? 0 : Number(x.toPrecision(6))));
 

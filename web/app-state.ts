@@ -1,13 +1,9 @@
 // The page's state, shared by app.ts (flows: open, analyse, review, export) and review-screen.ts (charts), and the
 // small helpers every screen uses (body state for tests, screens, the error box).
 
-import type { AnalysisCore } from '../src/analyse/analyser';
-import type { GasParseResult } from '../src/gas/index';
-import { defaultSettings, type Settings } from '../src/settings';
-import type { BreathRow } from '../src/types';
+import { type AnalysisCore, type GasParseResult, defaultSettings, type Settings, type BreathRow, type GasInput, type Outputs } from '../src/index';
 import { byId, h } from './dom';
 import type { HeartbeatStats } from './heartbeat';
-import type { GasInput, Outputs } from './outputs';
 import type { Done, Preview } from './protocol';
 
 export type Screen = 'open' | 'map' | 'progress' | 'review' | 'settings';

@@ -1,20 +1,16 @@
 // phasewise review: page flows (loaded by main.ts). Open a file -> mapping step -> analyse (in worker.ts) -> review
 // -> exclude / load blood gases (outputs recomputed in the worker) -> export. The page never parses the recording.
 
-import type { GasOptions } from '../src/gas/index';
+import { type GasOptions, type AnalysisCore, CAUTION, exportRows, outputFile, type ComposedOutputs, EXCLUSION_REASONS } from '../src/index';
 import 'uplot/dist/uPlot.min.css';
 import './style.css';
-import type { AnalysisCore } from '../src/analyse/analyser';
-import { CAUTION } from '../src/report/caution';
 import { clearError, fail, onScreen, setBodyState, show, state } from './app-state';
 import { byId, download, h } from './dom';
 import { startHeartbeat, type HeartbeatStats } from './heartbeat';
 import { bindReviewKeys } from './keys';
 import { renderMappingFields, renderPreview } from './mapping-step';
-import { exportRows, outputFile, type ComposedOutputs } from './outputs';
 import { breathPng } from './png';
 import type { Done, FromWorker } from './protocol';
-import { EXCLUSION_REASONS } from './review';
 import {
   breathCanvas, buildReview, currentScene, overviewChart, renderBreath, resizeCharts, select, setExportsEnabled, showComposed,
   showTrends, step, teardownReview,

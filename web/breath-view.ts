@@ -5,8 +5,7 @@
 // of it stands on its own.
 
 import uPlot from 'uplot';
-import { deadSpaceAtSensorMl } from '../src/physiology/patient-dead-space';
-import type { BreathRow } from '../src/types';
+import { deadSpaceAtSensorMl, type BreathRow } from '../src/index';
 import { fletcherRegions, fowlerAreas, lineAt, type Polygon } from './breath-shapes';
 import type { BreathCurve } from './geometry-store';
 import { COLOURS } from './palette';

@@ -1,6 +1,6 @@
 // Events found in the trends (src/trends: sustained changes, classified by pattern), listed with their caution.
 
-import { EVENT_CAUTION, formatEventLine, type EventRow } from '../src/trends/index';
+import { EVENT_CAUTION, formatEventLine, type EventRow } from '../src/index';
 import { h } from './dom';
 
 export function renderEvents(host: HTMLElement, events: readonly EventRow[]): void {

@@ -5,10 +5,7 @@
 // The PaCO2 drawn for a breath is the one its per-breath Enghoff values use: the analysis setting paco2_mmhg when
 // given, else the most recent gas sample at or before the breath's start (src/gas/apply-paco2.ts), else none.
 
-import type { GasParseResult, GasResult, GasSample } from '../src/gas/index';
-import { gasMetric, type NumericGasKey } from '../src/metrics/registry';
-import type { Settings } from '../src/settings';
-import type { BreathRow } from '../src/types';
+import { gasMetric, type GasParseResult, type GasResult, type GasSample, type NumericGasKey, type Settings, type BreathRow } from '../src/index';
 import { h } from './dom';
 import { fixed } from './metrics-table';
 import { clockLabel } from './overview-chart';

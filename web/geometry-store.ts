@@ -3,7 +3,7 @@
 // transferable buffers (no copy). Curves are stored as Float32 (display only; every number shown comes from the
 // breath rows, which keep full precision).
 
-import type { BreathGeometry } from '../src/analyse/decompose';
+import type { BreathGeometry } from '../src/index';
 
 /** Scalar fields kept per breath, in this order. */
 export const GEOMETRY_SCALARS = [

@@ -2,7 +2,7 @@
 // ingest settings that steer it (columns, units, delimiter, decimal mark, expiration sign, sampling rate).
 // "auto" (null) keeps the detection, so untouched choices stay out of the `given` set.
 
-import type { Settings } from '../src/settings';
+import type { Settings } from '../src/index';
 import { h } from './dom';
 import type { Preview } from './protocol';
 import { fieldControl, fieldSpecs, type FieldSpec } from './settings-form';

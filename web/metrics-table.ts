@@ -3,10 +3,7 @@
 // known. Which metrics, in which groups, with their labels, units and decimals: the metric registry
 // (src/metrics/registry.ts, VIEWER_BREATH_GROUPS).
 
-import { REASON_CODES } from '../src/analyse/quality';
-import { breathMetric, VIEWER_BREATH_GROUPS } from '../src/metrics/registry';
-import { fletcherAreas } from '../src/physiology/fletcher-areas';
-import type { BreathRow } from '../src/types';
+import { REASON_CODES, breathMetric, fletcherAreas, VIEWER_BREATH_GROUPS, type BreathRow } from '../src/index';
 import { h } from './dom';
 import { statusClass } from './palette';
 

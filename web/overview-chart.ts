@@ -4,7 +4,7 @@
 // (colour = ok / flagged / excluded by hand) and, when they are wide enough, the breath and expiration boundaries.
 
 import uPlot from 'uplot';
-import type { BreathRow } from '../src/types';
+import type { BreathRow } from '../src/index';
 import { COLOURS, statusColour } from './palette';
 import type { SignalWindow } from './signal-store';
 

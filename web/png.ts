@@ -1,7 +1,7 @@
 // PNG of the breath view: the chart canvas with a title line above and a key and the caution line below, so the
 // picture carries what it shows and its limits. Encoded locally with canvas.toDataURL.
 
-import { CAUTION } from '../src/report/caution';
+import { CAUTION } from '../src/index';
 import type { BreathScene } from './breath-view';
 import { COLOURS } from './palette';
 

@@ -1,12 +1,7 @@
 // Messages between the page (main.ts) and the analysis worker (worker.ts).
 
-import type { AnalysisCore } from '../src/analyse/analyser';
-import type { GasParseResult } from '../src/gas/index';
-import type { IngestReport, TableLayout } from '../src/ingest/index';
-import type { Settings } from '../src/settings';
-import type { SampleBlock } from '../src/types';
+import type { AnalysisCore, GasParseResult, IngestReport, TableLayout, Settings, SampleBlock, ComposedOutputs, GasInput } from '../src/index';
 import type { PackedGeometry } from './geometry-store';
-import type { ComposedOutputs, GasInput } from './outputs';
 import type { PackedRows } from './row-columns';
 import type { SignalWindow } from './signal-store';
 

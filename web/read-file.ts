@@ -3,12 +3,7 @@
 // notes, so the blocks (and the breaths) are the ones the CLI sees.
 
 import { CHUNK_BYTES, firstInvalidUtf8, notTextError, openDecoder, readRecordingBytes } from '../src/ingest/bytes';
-import { InputError } from '../src/ingest/errors';
-import { SNIFF_CHARS } from '../src/ingest/read-text';
-import type { IngestReport } from '../src/ingest/report';
-import type { TableLayout } from '../src/ingest/layout';
-import type { IngestSettings } from '../src/settings';
-import type { SampleBlock } from '../src/types';
+import { InputError, SNIFF_CHARS, type IngestReport, type TableLayout, type IngestSettings, type SampleBlock } from '../src/index';
 
 export { CHUNK_BYTES };
 

@@ -4,13 +4,10 @@
 // (there) run on two cores, as the command line does. Backpressure: at most MAX_IN_FLIGHT blocks wait in the analysis
 // worker; the next chunk of the file is read only after it has acknowledged enough of them.
 
-import { installDeterministicMath } from './det-math';
 import { readRecording } from './read-file';
 import type { ReaderIn, ReaderOut } from './protocol';
 
 declare const self: DedicatedWorkerGlobalScope;
-
-installDeterministicMath();
 
 const MAX_IN_FLIGHT = 4;
 let inFlight = 0;

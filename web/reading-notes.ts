@@ -1,8 +1,7 @@
 // "Reading notes": how the file was read (columns, units, rows used and skipped, gaps) and every note of the
 // analysis, taken from the ingest report and the summary (the same text summary.json carries).
 
-import type { IngestReport } from '../src/ingest/index';
-import type { Summary } from '../src/report/summary';
+import type { IngestReport, Summary } from '../src/index';
 import { h } from './dom';
 
 export function renderReadingNotes(host: HTMLElement, s: Summary, r: IngestReport): void {

@@ -1,7 +1,7 @@
 // The review screen: recording overview, breath view with its metrics, trends, sidebar (summary, events, export
 // state). Draws from the shared state (app-state.ts); app.ts decides when.
 
-import type { ComposedOutputs } from './outputs';
+import type { ComposedOutputs } from '../src/index';
 import { state } from './app-state';
 import { createBreathView, fowlerVolume, type BreathScene, type BreathView, type Shading } from './breath-view';
 import { byId, h } from './dom';

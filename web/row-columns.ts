@@ -4,7 +4,7 @@
 // objects are rebuilt in a few tens of milliseconds. Generic over the row's own keys, so new BreathRow fields travel
 // without changes here.
 
-import type { BreathRow } from '../src/types';
+import type { BreathRow } from '../src/index';
 
 /** Separator of packed string lists (flag codes never contain it). */
 const SEP = '\u001f';

@@ -4,8 +4,7 @@
 // that-file.json` records the same origins as the viewer and writes the same summary.json.
 
 import { z } from 'zod';
-import { defaultSettings, SETTING_GROUPS, type Settings } from '../src/settings';
-import { applySettings, parseSettingsFile, settingsFileSchema, type SettingsFile } from '../src/settings-file';
+import { defaultSettings, SETTING_GROUPS, type Settings, applySettings, parseSettingsFile, settingsFileSchema, type SettingsFile } from '../src/index';
 import { h } from './dom';
 
 export type Group = (typeof SETTING_GROUPS)[number];

@@ -1,6 +1,6 @@
 // The settings screen: every setting as a form (settings-form.ts), save / load / reset, and "analyse again".
 
-import { defaultSettings } from '../src/settings';
+import { defaultSettings } from '../src/index';
 import { fail, show, state } from './app-state';
 import { byId, download } from './dom';
 import { fieldControl, fieldSpecs, settingsFileText, settingsFromFile, settingsProblem, withSetting } from './settings-form';

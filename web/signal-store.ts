@@ -159,8 +159,8 @@ export class SignalStore {
     const i1 = Math.min(this.length, this.lowerBound(t1) + 1);
     const n = i1 - i0;
     const cols = Math.max(16, Math.floor(columns));
-    const flow = (v: number) => (v === v ? sign * (v - offsetLps) : null);
-    const co2 = (v: number) => (v === v ? v : null);
+    const flow = (v: number) => (!Number.isNaN(v) ? sign * (v - offsetLps) : null);
+    const co2 = (v: number) => (!Number.isNaN(v) ? v : null);
     if (n <= 3 * cols) {
       for (let i = i0; i < i1; i++) {
         out.t_s.push(this.t[i]!);

@@ -3,9 +3,7 @@
 // breaths usableForSummary picks (ok and caution breaths unless analysis.summary_breaths is ok_only).
 // (which metrics, their labels, units and decimals: the metric registry, src/metrics/registry.ts).
 
-import { breathMetric, VIEWER_SUMMARY_ROWS } from '../src/metrics/registry';
-import type { Summary } from '../src/report/summary';
-import { formatNumber } from '../src/report/format';
+import { breathMetric, formatNumber, VIEWER_SUMMARY_ROWS, type Summary } from '../src/index';
 import { h } from './dom';
 import { fixed } from './metrics-table';
 

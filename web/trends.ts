@@ -4,10 +4,7 @@
 // physiological dead space and Enghoff VD/VT from the gas table).
 
 import uPlot from 'uplot';
-import { usableForSummary, type SummaryBreaths } from '../src/analyse/quality';
-import type { GasRow } from '../src/gas/index';
-import type { EventRow } from '../src/trends/index';
-import type { BreathRow } from '../src/types';
+import { usableForSummary, type BreathRow, type EventRow, type GasRow, type SummaryBreaths } from '../src/index';
 import { clockLabel } from './overview-chart';
 import { COLOURS, TREND_COLOURS } from './palette';
 

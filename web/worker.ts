@@ -4,26 +4,15 @@
 // overview chart and the per-breath geometry for the breath view, and posts progress and results. The page never
 // parses the recording.
 
-import { createAnalyser } from '../src/analyse/analyser';
-import { parseGasCsv } from '../src/gas/index';
+import { createAnalyser, parseGasCsv, sniffTable, type AnalysisCore, type IngestReport, type Settings, composeOutputs, type ComposedOutputs } from '../src/index';
 import { splitFields } from '../src/ingest/split-fields';
-import { sniffTable } from '../src/ingest/sniff-table';
-import type { AnalysisCore } from '../src/analyse/analyser';
-import type { IngestReport } from '../src/ingest/index';
-import type { Settings } from '../src/settings';
-import { installDeterministicMath } from './det-math';
 import { GeometryWriter, transferables } from './geometry-store';
-import { composeOutputs, type ComposedOutputs } from './outputs';
 import { packRows, rowTransferables } from './row-columns';
 import type { FromWorker, ReaderIn, ReaderOut, ToWorker } from './protocol';
 import { readHead, readRecording, type ReadCallbacks } from './read-file';
 import { SignalStore } from './signal-store';
 
 declare const self: DedicatedWorkerGlobalScope;
-
-// Same exp/log as the CLI on Node 20, bit for bit (det-math.ts explains why). Imports above only define functions
-// (no module computes with Math.exp/log when it loads), so installing here comes before any use.
-installDeterministicMath();
 
 /** Data rows shown in the mapping step. */
 const PREVIEW_ROWS = 12;

@@ -13,7 +13,7 @@
 //   slow: the raw reading shifted by delay + tau (a first-order lag delays a ramp by exactly tau), which keeps the
 //         raw noise level and is used for the phase III regression.
 
-import { detExp } from '../numeric/det-math.js';
+import { detExp } from '../numeric/det-math';
 /** Compensated series and the time each compensated value belongs to. */
 /** Reusable buffers for deconvolveFirstOrder (the analyser calls it once per breath). */
 export interface DeconvolveScratch {

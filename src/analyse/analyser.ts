@@ -4,17 +4,17 @@
 // Stages (each its own module): calibrate (offset, sign, delay, response) -> segment (breaths from flow) ->
 // align (delay, response compensation) -> decompose (capnogram metrics) -> quality (reason codes) -> summary.
 
-import type { Settings } from '../settings.js';
-import type { BreathRow, SampleBlock } from '../types.js';
-import { deconvolveFirstOrder, interpolateAt, scratchFor, type DeconvolveScratch } from './align.js';
-import { calibrate, type Calibration } from './calibrate.js';
-import { createBreathWorkspace } from './breath-workspace.js';
-import { decomposeBreath, type BreathDecomposition, type BreathSignals } from './decompose.js';
-import { fitInspiratoryFall, lowerBound } from './fall-fit.js';
-import { inspirationReversalTime } from './flow-reversal.js';
-import { checkBreath, co2GridStep, markOutliers, statusOf } from './quality.js';
-import { createSegmenter, type BreathBounds, type Segmenter } from './segment.js';
-import { countFinite, median, medianPositiveStep } from './stats.js';
+import type { Settings } from '../settings';
+import type { BreathRow, SampleBlock } from '../types';
+import { deconvolveFirstOrder, interpolateAt, scratchFor, type DeconvolveScratch } from './align';
+import { calibrate, type Calibration } from './calibrate';
+import { createBreathWorkspace } from './breath-workspace';
+import { decomposeBreath, type BreathDecomposition, type BreathSignals } from './decompose';
+import { fitInspiratoryFall, lowerBound } from './fall-fit';
+import { inspirationReversalTime } from './flow-reversal';
+import { checkBreath, co2GridStep, markOutliers, statusOf } from './quality';
+import { createSegmenter, type BreathBounds, type Segmenter } from './segment';
+import { countFinite, median, medianPositiveStep } from '../numeric/stats';
 
 export interface AnalysisCore {
   breaths: BreathRow[];
@@ -83,8 +83,6 @@ export function createAnalyser(settings: Settings, onBreath?: (e: BreathEvent) =
   return new StreamAnalyser(settings, onBreath ?? null);
 }
 
-// A class rather than closures: a batch makes one analyser per recording, and methods on one prototype keep their
-// optimised code across recordings (closures made per recording were re-optimised for each file).
 class StreamAnalyser implements Analyser {
   private readonly cfg: Settings['analysis'];
   // calibration window
@@ -228,7 +226,7 @@ class StreamAnalyser implements Analyser {
     const d = decomposeBreath(signals, { breath: rows.length + 1, delay_s: c.delay_s, tau_s: tau, settings: cfg, workspace: this.workspace, keep_geometry: this.onBreath !== null });
     // NaN in the aligned CO2 inside the breath means the CO2 channel was missing there
     for (let i = signals.i_insp; i < signals.i_end; i++) {
-      if (!(fast[i]! === fast[i]!)) {
+      if (Number.isNaN(fast[i]!)) {
         if (!d.flags.includes('gap')) d.flags.push('gap');
         break;
       }
@@ -256,7 +254,7 @@ class StreamAnalyser implements Analyser {
   private feed(t: number, fFile: number, co2: number): void {
     const c = this.cal!;
     const f = c.sign * (fFile - c.offset_lps);
-    if (!(f === f) || !(co2 === co2)) {
+    if (Number.isNaN(f) || Number.isNaN(co2)) {
       this.endSegment();
       this.absNext++;
       return;
@@ -272,9 +270,6 @@ class StreamAnalyser implements Analyser {
     if (pending.length && t >= this.needUntil(pending[0]!)) this.flushPending(false);
   }
 
-  // Hot loops live in small methods of their own (feedRange, collect) and helpers (medianPositiveStep,
-  // countFinite): V8 then optimises each loop once for all recordings, instead of compiling the once-per-recording
-  // callers mid-loop (on-stack replacement) and throwing that code away at their next, not yet seen, statement.
   private startStreaming(): void {
     const t = this.calT.view();
     const f = this.calF.view();
@@ -307,7 +302,7 @@ class StreamAnalyser implements Analyser {
     const n = block.n;
     this.totalSamples += n;
     if (n > 0) {
-      if (!(this.firstT === this.firstT)) this.firstT = block.t_s[0]!;
+      if (Number.isNaN(this.firstT)) this.firstT = block.t_s[0]!;
       this.lastT = block.t_s[n - 1]!;
     }
     let i = 0;

@@ -2,8 +2,8 @@
 // zero flow), the expiration's samples and expired volume, the monotone volumetric curve and the sensor's range.
 // Flows are L/s (expiration positive), volumes mL (500 = 1000 mL/L x 1/2 of the trapezoid), CO2 mmHg.
 
-import { workArray, workIndices, type BreathWorkspace } from './breath-workspace.js';
-import type { BreathSignals } from './decompose.js';
+import { workArray, workIndices, type BreathWorkspace } from './breath-workspace';
+import type { BreathSignals } from './decompose';
 
 export interface InspirationIntegrals {
   volume_ml: number;

@@ -1,13 +1,14 @@
 // Calibration from the first minutes of a recording: flow offset, sign of expiration, transport delay and the CO2
 // sensor's response time constant. All four can be given instead (then they are only checked, not estimated).
 
-import type { Settings } from '../settings.js';
-import type { SettingOrigin } from '../types.js';
-import { fitInspiratoryFall, type FallFit } from './fall-fit.js';
-import { median, medianStep, quantile } from './stats.js';
-import { createSegmenter, type BreathBounds } from './segment.js';
-import { inspirationReversalTime } from './flow-reversal.js';
-import { robustDelay } from './robust-delay.js';
+import { detExp } from '../numeric/det-math';
+import type { Settings } from '../settings';
+import type { SettingOrigin } from '../types';
+import { fitInspiratoryFall, type FallFit } from './fall-fit';
+import { median, medianStep, quantile } from '../numeric/stats';
+import { createSegmenter, type BreathBounds } from './segment';
+import { inspirationReversalTime } from './flow-reversal';
+import { robustDelay } from './robust-delay';
 
 export interface Calibration {
   /** multiply (file flow - offset) by this to get expiration positive */
@@ -152,7 +153,7 @@ function decayFitAt(t: ArrayLike<number>, flow: ArrayLike<number>, from: number,
   let sy = 0;
   let suy = 0;
   for (let i = from; i < to; i++) {
-    const u = Math.exp(-(t[i]! - t0) / tau);
+    const u = detExp(-(t[i]! - t0) / tau);
     const y = flow[i]!;
     su += u;
     suu += u * u;
@@ -164,8 +165,8 @@ function decayFitAt(t: ArrayLike<number>, flow: ArrayLike<number>, from: number,
   const amp = (m * suy - su * sy) / det;
   const level = (sy - amp * su) / m;
   let sse = 0;
-  for (let i = from; i < to; i++) sse += (flow[i]! - level - amp * Math.exp(-(t[i]! - t0) / tau)) ** 2;
-  return { level, tailEnd: amp * Math.exp(-(t[to - 1]! - t0) / tau), sse };
+  for (let i = from; i < to; i++) sse += (flow[i]! - level - amp * detExp(-(t[i]! - t0) / tau)) ** 2;
+  return { level, tailEnd: amp * detExp(-(t[to - 1]! - t0) / tau), sse };
 }
 
 function absValues(a: ArrayLike<number>): Float64Array {
@@ -204,7 +205,7 @@ export function signAndLagFromEdges(
   for (let i = 1; i < co2.length; i++) {
     const a = co2[i - 1]!;
     const b = co2[i]!;
-    if (!(a === a) || !(b === b)) continue;
+    if (Number.isNaN(a) || Number.isNaN(b)) continue;
     if (b > mid + band) {
       if (state === -1) rises.push(crossTime(t, co2, i, mid, true));
       state = 1;
@@ -281,7 +282,7 @@ function lagByInspiredCo2(flow: Float64Array, co2: Float64Array, dt: number, thr
     for (let i = 0; i + k < n; i++) {
       const f = sign * flow[i]!;
       const c = co2[i + k]! - base;
-      if (!(c === c) || !(f === f)) continue;
+      if (Number.isNaN(c) || Number.isNaN(f)) continue;
       const cc = c > 0 ? c : 0;
       if (f > thr) exp += cc * f;
       else if (f < -thr) insp -= cc * f;
@@ -299,7 +300,7 @@ export function breathBounds(t: ArrayLike<number>, flow: ArrayLike<number>, thr:
   let seg = null as ReturnType<typeof createSegmenter> | null;
   for (let i = 0; i < flow.length; i++) {
     const f = flow[i]!;
-    if (!(f === f) || !(t[i]! === t[i]!)) {
+    if (Number.isNaN(f) || Number.isNaN(t[i]!)) {
       seg = null;
       continue;
     }
@@ -417,8 +418,7 @@ export function calibrate(
   };
 }
 
-// Helpers holding calibrate's loops: calibrate runs once per recording, and V8 recompiles a function as a whole when
-// one of its loops bails out; small loop functions are compiled once for all recordings.
+// Small array helpers used by calibrate.
 
 function shifted(x: Float64Array, offset: number): Float64Array {
   const out = new Float64Array(x.length);
@@ -490,7 +490,7 @@ function typicalTidalVolume(t: Float64Array, flow: Float64Array, thr: number): n
   for (let i = 1; i < flow.length; i++) {
     const f0 = flow[i - 1]!;
     const f1 = flow[i]!;
-    if (!(f0 === f0) || !(f1 === f1)) {
+    if (Number.isNaN(f0) || Number.isNaN(f1)) {
       dir = 0;
       v = 0;
       continue;

@@ -10,17 +10,17 @@
 // (breath-integrals.ts), inflection, phase boundaries, window, Fowler area and end-tidal value (phase-geometry.ts),
 // the phase III fit (phase3-fit.ts) and the dead-space family (below).
 
-import { alveolarDeadSpaceMl } from '../physiology/alveolar-dead-space.js';
-import { bohrDeadSpaceFraction } from '../physiology/bohr-dead-space-fraction.js';
-import { enghoffDeadSpaceFraction } from '../physiology/enghoff-dead-space-fraction.js';
-import { fowlerDeadSpace } from '../physiology/fowler-dead-space.js';
-import { meanAlveolarExpiredPco2 } from '../physiology/mean-alveolar-expired-pco2.js';
-import { mixedExpiredPco2 } from '../physiology/mixed-expired-pco2.js';
-import { normalisedPhase3Slope } from '../physiology/normalised-phase3-slope.js';
-import { patientDeadSpace, patientDeadSpaceMl } from '../physiology/patient-dead-space.js';
-import { vtco2FromArea } from '../physiology/vtco2-from-area.js';
-import type { AnalysisSettings } from '../settings.js';
-import type { BreathRow } from '../types.js';
+import { alveolarDeadSpaceMl } from '../physiology/alveolar-dead-space';
+import { bohrDeadSpaceFraction } from '../physiology/bohr-dead-space-fraction';
+import { enghoffDeadSpaceFraction } from '../physiology/enghoff-dead-space-fraction';
+import { fowlerDeadSpace } from '../physiology/fowler-dead-space';
+import { meanAlveolarExpiredPco2 } from '../physiology/mean-alveolar-expired-pco2';
+import { mixedExpiredPco2 } from '../physiology/mixed-expired-pco2';
+import { normalisedPhase3Slope } from '../physiology/normalised-phase3-slope';
+import { patientDeadSpace, patientDeadSpaceMl } from '../physiology/patient-dead-space';
+import { vtco2FromArea } from '../physiology/vtco2-from-area';
+import type { AnalysisSettings } from '../settings';
+import type { BreathRow } from '../types';
 import {
   expirationSamples,
   integrateExpiration,
@@ -31,11 +31,11 @@ import {
   type InspirationIntegrals,
   type MonotoneCurve,
   type SensorRange,
-} from './breath-integrals.js';
-import { createBreathWorkspace, type BreathWorkspace } from './breath-workspace.js';
-import { fitLineOls, fitPhase3, type Phase3Fit } from './phase3-fit.js';
-import { areaAboveBase, endTidalPco2, findInflection, phase3Window, phaseBoundaries } from './phase-geometry.js';
-import type { BreathBounds } from './segment.js';
+} from './breath-integrals';
+import { createBreathWorkspace, type BreathWorkspace } from './breath-workspace';
+import { fitLineOls, fitPhase3, type Phase3Fit } from './phase3-fit';
+import { areaAboveBase, endTidalPco2, findInflection, phase3Window, phaseBoundaries } from './phase-geometry';
+import type { BreathBounds } from './segment';
 
 /** The breath's samples on the flow time base with its boundaries (local indices of the first sample at/after each
  *  boundary, interpolated times, and whether a phase started with a step in flow; see segment.ts). */

@@ -8,8 +8,8 @@
 // fit of ln q over the falling samples (q between 0.85 and 0.12) gives both tau and t0; the transport delay of this
 // breath is t0 - t_reversal. Method: common practice, no source (least-squares fit of the first-order step response).
 
-import { detLog } from '../numeric/det-math.js';
-import { fitLine, median } from './stats.js';
+import { detLog } from '../numeric/det-math';
+import { fitLine, median } from '../numeric/stats';
 
 export interface FallFit {
   /** time the (delayed) step starts at the sensor, s */
@@ -35,7 +35,7 @@ export function fitInspiratoryFall(
   min_drop_mmhg = 5,
 ): FallFit | null {
   const n = t.length;
-  let i0 = lowerBound(t, from_s);
+  const i0 = lowerBound(t, from_s);
   const i1 = Math.min(n - 1, lowerBound(t, to_s));
   if (i1 - i0 < 3) return null;
   // steepest one-sample fall
@@ -43,7 +43,7 @@ export function fitInspiratoryFall(
   let steepest = 0;
   for (let i = i0; i < i1; i++) {
     const d = co2[i + 1]! - co2[i]!;
-    if (!(d === d)) return null;
+    if (Number.isNaN(d)) return null;
     if (d < steepest) {
       steepest = d;
       j = i;

@@ -8,8 +8,8 @@
 // Method: common practice, no source (linear extrapolation of the flow rise between 15 % and 40 % of its peak; for a
 // half-sine rise the extrapolation error is below 0.5 % of the inspiratory time, derived here from sin x ≈ x − x³/6).
 
-import { lowerBound } from './fall-fit.js';
-import { fitLine } from './stats.js';
+import { lowerBound } from './fall-fit';
+import { fitLine } from '../numeric/stats';
 
 /** Fractions of the peak inspiratory flow between which the rise is extrapolated. */
 const LOW_LEVEL = 0.15;

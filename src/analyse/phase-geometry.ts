@@ -2,9 +2,9 @@
 // phase boundaries, the phase III regression window, the CO2 area up to the Fowler limit and the end-tidal value.
 // Volumes mL from the start of expiration, CO2 mmHg; `line` is the preliminary phase III line on CO2 above `base`.
 
-import type { AnalysisSettings } from '../settings.js';
-import type { ExpirationSamples, MonotoneCurve } from './breath-integrals.js';
-import { workArray, type BreathWorkspace } from './breath-workspace.js';
+import type { AnalysisSettings } from '../settings';
+import type { ExpirationSamples, MonotoneCurve } from './breath-integrals';
+import { workArray, type BreathWorkspace } from './breath-workspace';
 
 /** A line P = a + b V on CO2 above the inspired level (mmHg; V in mL). */
 export interface Line {

@@ -12,7 +12,7 @@
 // Method: common practice, no source (linear least squares on the discretised first-order sensor model).
 
 import { SimpleLinearRegression } from 'ml-regression';
-import { detExp } from '../numeric/det-math.js';
+import { detExp } from '../numeric/det-math';
 
 export interface Phase3Fit {
   /** line intercept at V = 0 and slope, on CO2 above `base` (mmHg, mmHg/mL) */

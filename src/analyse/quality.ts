@@ -4,10 +4,10 @@
 // apply, and excluded otherwise (status = its codes joined with '+'). Every consumer decides with one predicate,
 // usableForSummary. Codes are our own short names; thresholds are settings (src/settings.ts).
 
-import type { AnalysisSettings } from '../settings.js';
-import type { BreathRow } from '../types.js';
-import type { BreathGeometry } from './decompose.js';
-import { quantileSorted } from './stats.js';
+import type { AnalysisSettings } from '../settings';
+import type { BreathRow } from '../types';
+import type { BreathGeometry } from './decompose';
+import { quantileSorted } from '../numeric/stats';
 
 /** Every reason code with its meaning (the README table is generated from this list). */
 export const REASON_CODES: Record<string, string> = {

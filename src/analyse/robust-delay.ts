@@ -7,7 +7,7 @@
 // that cluster holds at least `min_share` of the breaths. Method: common practice, no source (mode-seeking location
 // estimate with a MAD-scaled acceptance band; robust statistics).
 
-import { median } from './stats.js';
+import { median } from '../numeric/stats';
 
 export interface DelayEstimate {
   delay_s: number;

@@ -84,8 +84,6 @@ export function createSegmenter(opts: SegmenterOptions): Segmenter {
   return new StreamSegmenter(opts);
 }
 
-// A class rather than closures: every recording makes a new segmenter, and methods on one prototype keep the
-// optimised code of the per-sample step across recordings (closures made per recording were re-optimised each time).
 class StreamSegmenter implements Segmenter {
   private readonly bounds: Boundary[] = [];
   private phase: 'none' | 'insp' | 'exp' = 'none';

@@ -6,7 +6,7 @@
 // earlier results as recordings.
 import { closeSync, existsSync, openSync, readdirSync, readSync, realpathSync, statSync } from 'node:fs';
 import { isAbsolute, join, relative, resolve, sep } from 'node:path';
-import { globToRegExp, hasGlobChars, toPosix } from './glob.js';
+import { globToRegExp, hasGlobChars, toPosix } from './glob';
 
 /** Extensions taken when a folder is searched (case-insensitive). */
 export const RECORDING_EXTENSIONS = ['.csv', '.tsv', '.txt'] as const;

@@ -2,11 +2,11 @@
 // Precedence for one recording (later wins): defaults < settings file (top level) < each `files` entry whose pattern
 // matches the recording, in file order < command-line options. Command-line options win everywhere, as they do
 // for `analyse` ("options given here win").
-import { defaultSettings, type Settings } from '../settings.js';
-import { applySettings, type SettingsFile } from '../settings-file.js';
-import { resolveSettings } from '../cli/options.js';
-import { sha256Json } from './hash.js';
-import { patternMatches } from './glob.js';
+import { defaultSettings, type Settings } from '../settings';
+import { applySettings, type SettingsFile } from '../settings-file';
+import { resolveSettings } from '../node/resolve-settings';
+import { sha256Json } from './hash';
+import { patternMatches } from './glob';
 
 type Patch = { ingest?: Partial<Settings['ingest']>; analysis?: Partial<Settings['analysis']>; events?: Partial<Settings['events']> };
 export type FilePattern = NonNullable<SettingsFile['files']>[number];

@@ -3,9 +3,9 @@
 // between two runs of the same inputs and settings.
 import { existsSync, readFileSync } from 'node:fs';
 import { join } from 'node:path';
-import type { Settings } from '../settings.js';
-import type { FilePattern } from './file-settings.js';
-import type { Shard } from './shard.js';
+import type { Settings } from '../settings';
+import type { FilePattern } from './file-settings';
+import type { Shard } from './shard';
 
 export const MANIFEST_FILE = 'manifest.json';
 export const MANIFEST_FORMAT = 'phasewise-batch-manifest/1';

@@ -4,10 +4,10 @@
 // missing or repeated shards, and shards still holding unfinished inputs.
 import { copyFileSync, existsSync, mkdirSync } from 'node:fs';
 import { dirname, join, resolve } from 'node:path';
-import { writeFileAtomic } from '../node/atomic-write.js';
-import { countEntries, manifestJson, MANIFEST_FILE, readManifest, type Manifest, type ManifestEntry } from './manifest.js';
-import { BATCH_EXIT_SOME_FAILED } from './run-batch.js';
-import { writeBatchTables } from './tables.js';
+import { writeFileAtomic } from '../node/atomic-write';
+import { countEntries, manifestJson, MANIFEST_FILE, readManifest, type Manifest, type ManifestEntry } from './manifest';
+import { BATCH_EXIT_SOME_FAILED } from './run-batch';
+import { writeBatchTables } from './tables';
 
 export class MergeError extends Error {}
 

@@ -17,8 +17,8 @@
 import { existsSync } from 'node:fs';
 import { join } from 'node:path';
 import { Worker } from 'node:worker_threads';
-import { ReaderThread, readWorkerFile } from '../node/reader-thread.js';
-import { processRecording, type RecordingResult, type RecordingTask } from './process-recording.js';
+import { ReaderThread, readWorkerFile } from '../node/reader-thread';
+import { processRecording, type RecordingResult, type RecordingTask } from './process-recording';
 
 export const WORKER_BUNDLE = 'batch-worker.cjs';
 

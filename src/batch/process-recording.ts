@@ -3,14 +3,14 @@
 // Runs in a worker thread or in the main thread (--jobs 1); never throws, so one bad file cannot stop a batch.
 import { existsSync, rmSync } from 'node:fs';
 import { join } from 'node:path';
-import { AnalysisInputError } from '../analyse/analyser.js';
-import { isInputError } from '../ingest/errors.js';
-import { analyseFile } from '../node/analyse-file.js';
-import type { ReaderThread } from '../node/reader-thread.js';
-import { writeFileAtomic } from '../node/atomic-write.js';
-import { composeOutputs, outputFile, outputNames } from '../report/outputs.js';
-import type { Settings } from '../settings.js';
-import { sha256File } from './hash.js';
+import { AnalysisInputError } from '../analyse/analyser';
+import { isInputError } from '../ingest/errors';
+import { analyseFile } from '../node/analyse-file';
+import type { ReaderThread } from '../node/reader-thread';
+import { writeFileAtomic } from '../node/atomic-write';
+import { composeOutputs, outputFile, outputNames } from '../report/outputs';
+import type { Settings } from '../settings';
+import { sha256File } from './hash';
 
 export interface RecordingTask {
   /** position in the (sharded) input list */

@@ -2,7 +2,7 @@
 // (one per finished recording, for log files and cluster job output). The bar advances by bytes, so the ETA
 // weighs a 24-hour file more than a 10-minute one.
 import cliProgress from 'cli-progress';
-import type { RecordingResult } from './process-recording.js';
+import type { RecordingResult } from './process-recording';
 
 export interface ProgressItem {
   recording: string;

@@ -2,10 +2,10 @@
 // run and a merge of shards all write the same bytes. Medians and quartiles are over the breaths usableForSummary
 // picks (summary.json `metrics`: ok and caution breaths unless analysis.summary_breaths is ok_only); caution_<code>
 // counts caution breaths with that code, excluded_<code> breaths excluded for that code (a breath can have several).
-import { CAUTION_CODES, REASON_CODES } from '../analyse/quality.js';
-import type { Summary } from '../report/summary.js';
-import { SUMMARY_METRICS } from '../types.js';
-import type { ManifestEntry } from './manifest.js';
+import { CAUTION_CODES, REASON_CODES } from '../analyse/quality';
+import type { Summary } from '../report/summary';
+import { SUMMARY_METRICS } from '../types';
+import type { ManifestEntry } from './manifest';
 
 const EXCLUDING_CODES = Object.keys(REASON_CODES).filter((c) => !CAUTION_CODES.has(c));
 

@@ -4,17 +4,17 @@
 import { createHash } from 'node:crypto';
 import { statSync } from 'node:fs';
 import { join, resolve } from 'node:path';
-import { writeFileAtomic } from '../node/atomic-write.js';
-import { VERSION } from '../version.js';
-import { expandInputs } from './expand-inputs.js';
-import { settingsForRecording, type SettingsPlan } from './file-settings.js';
-import { countEntries, manifestJson, MANIFEST_FILE, MANIFEST_FORMAT, readManifest, type Manifest, type ManifestEntry } from './manifest.js';
-import { outputFolders } from './output-names.js';
-import { runTasks } from './pool.js';
-import { BREATHS_FILE, SUMMARY_FILE, type RecordingResult, type RecordingTask } from './process-recording.js';
-import { createProgress } from './progress.js';
-import { selectShard, type Shard } from './shard.js';
-import { writeBatchTables } from './tables.js';
+import { writeFileAtomic } from '../node/atomic-write';
+import { VERSION } from '../version';
+import { expandInputs } from './expand-inputs';
+import { settingsForRecording, type SettingsPlan } from './file-settings';
+import { countEntries, manifestJson, MANIFEST_FILE, MANIFEST_FORMAT, readManifest, type Manifest, type ManifestEntry } from './manifest';
+import { outputFolders } from './output-names';
+import { runTasks } from './pool';
+import { BREATHS_FILE, SUMMARY_FILE, type RecordingResult, type RecordingTask } from './process-recording';
+import { createProgress } from './progress';
+import { selectShard, type Shard } from './shard';
+import { writeBatchTables } from './tables';
 
 /** Exit code of a batch in which at least one recording failed (the others are complete). */
 export const BATCH_EXIT_SOME_FAILED = 4;

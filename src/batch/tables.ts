@@ -6,13 +6,13 @@
 // breaths.csv is streamed recording by recording, so memory holds one recording's table at a time.
 import { closeSync, mkdirSync, openSync, readFileSync, renameSync, rmSync, writeSync } from 'node:fs';
 import { dirname, join } from 'node:path';
-import { writeFileAtomic } from '../node/atomic-write.js';
-import { csvCell, csvTable } from '../report/format.js';
-import { BREATHS_CSV_COLUMNS } from '../report/breaths-csv.js';
-import type { Summary } from '../report/summary.js';
-import { EVENT_COLUMNS, TREND_COLUMNS } from '../trends/index.js';
-import type { ManifestEntry } from './manifest.js';
-import { recordingRow, RECORDING_COLUMNS } from './recordings-table.js';
+import { writeFileAtomic } from '../node/atomic-write';
+import { csvCell, csvTable } from '../report/format';
+import { BREATHS_CSV_COLUMNS } from '../report/breaths-csv';
+import type { Summary } from '../report/summary';
+import { EVENT_COLUMNS, TREND_COLUMNS } from '../trends/index';
+import type { ManifestEntry } from './manifest';
+import { recordingRow, RECORDING_COLUMNS } from './recordings-table';
 
 export const BATCH_BREATHS_FILE = 'breaths.csv';
 export const BATCH_RECORDINGS_FILE = 'recordings.csv';

@@ -2,9 +2,9 @@
 // Runs one lane (src/batch/pool.ts runLane) over the tasks the pool sends (at most two waiting at a time) and answers
 // each with its RecordingResult.
 import { parentPort, workerData } from 'node:worker_threads';
-import type { BatchWorkerData } from './pool.js';
-import { runLane } from './pool.js';
-import type { RecordingTask } from './process-recording.js';
+import type { BatchWorkerData } from './pool';
+import { runLane } from './pool';
+import type { RecordingTask } from './process-recording';
 
 const port = parentPort;
 if (port) {

@@ -1,19 +1,19 @@
 // `phasewise analyse FILE --out DIR`: one recording -> breaths.csv, summary.json (+ gas.csv and paco2_estimates.csv
 // with --gas) and a terminal summary.
 import type { Command } from 'commander';
-import { analyseFile } from '../node/analyse-file.js';
-import { writeFileAtomic } from '../node/atomic-write.js';
-import { gasMetric, type NumericGasKey } from '../metrics/registry.js';
-import { formatNumber } from '../report/format.js';
-import { composeOutputs, outputFile, outputNames } from '../report/outputs.js';
-import { formatSummaryText } from '../report/summary.js';
-import { formatEventLine } from '../trends/index.js';
-import type { GasResult } from '../gas/index.js';
-import { addGasOptions, gasOptionsFrom, readGasFile } from './gas-step.js';
+import { analyseFile } from '../node/analyse-file';
+import { writeFileAtomic } from '../node/atomic-write';
+import { gasMetric, type NumericGasKey } from '../metrics/registry';
+import { formatNumber } from '../report/format';
+import { composeOutputs, outputFile, outputNames } from '../report/outputs';
+import { formatSummaryText } from '../report/summary';
+import { formatEventLine } from '../trends/index';
+import type { GasResult } from '../gas/index';
+import { addGasOptions, gasOptionsFrom, readGasFile } from './gas-step';
 import { join, resolve } from 'node:path';
-import { recordingId } from '../batch/expand-inputs.js';
-import { settingsForRecording, settingsPlan } from '../batch/file-settings.js';
-import { addInputOptions } from './options.js';
+import { recordingId } from '../batch/expand-inputs';
+import { settingsForRecording, settingsPlan } from '../batch/file-settings';
+import { addInputOptions } from './options';
 
 export function registerAnalyse(program: Command): void {
   const cmd = program

@@ -2,14 +2,14 @@
 // `phasewise batch merge SHARD_DIR... --out DIR`. Exit codes: 0 all recordings analysed; 4 some failed (the rest are
 // complete and the manifest names each failure); 2 usage (bad options, no inputs, shards that do not fit together).
 import { availableParallelism } from 'node:os';
-import { Command, InvalidArgumentError } from 'commander';
-import { EXIT_CODES } from '../ingest/errors.js';
-import { settingsPlan } from '../batch/file-settings.js';
-import { mergeShards, MergeError } from '../batch/merge.js';
-import { BatchUsageError, runBatch } from '../batch/run-batch.js';
-import { parseShard, ShardError } from '../batch/shard.js';
-import type { Manifest } from '../batch/manifest.js';
-import { addInputOptions } from './options.js';
+import { type Command, InvalidArgumentError } from 'commander';
+import { EXIT_CODES } from '../ingest/errors';
+import { settingsPlan } from '../batch/file-settings';
+import { mergeShards, MergeError } from '../batch/merge';
+import { BatchUsageError, runBatch } from '../batch/run-batch';
+import { parseShard, ShardError } from '../batch/shard';
+import type { Manifest } from '../batch/manifest';
+import { addInputOptions } from './options';
 
 function positiveInt(v: string): number {
   const n = Number(v);

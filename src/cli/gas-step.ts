@@ -2,10 +2,10 @@
 import { existsSync, readFileSync } from 'node:fs';
 import type { Command } from 'commander';
 import { InvalidArgumentError, Option } from 'commander';
-import { parseGasCsv, type GasOptions, type GasSample } from '../gas/index.js';
-import { EXIT_CODES } from '../ingest/errors.js';
-import type { Settings } from '../settings.js';
-import { CliError } from './errors.js';
+import { parseGasCsv, type GasOptions, type GasSample } from '../gas/index';
+import { EXIT_CODES } from '../ingest/errors';
+import type { Settings } from '../settings';
+import { CliError } from './errors';
 
 function positive(name: string) {
   return (v: string) => {

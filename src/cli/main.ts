@@ -1,15 +1,14 @@
 // phasewise command line. Errors end in one line on stderr and a documented exit code, never a stack trace
 // (set PHASEWISE_DEBUG=1 to see one).
-import './prestart.js';
 import { Command, CommanderError } from 'commander';
-import { AnalysisInputError } from '../analyse/analyser.js';
-import { EXIT_CODES, exitCodeFor, isInputError } from '../ingest/errors.js';
-import { SettingsError } from '../settings-file.js';
-import { VERSION } from '../version.js';
-import { registerAnalyse } from './analyse-command.js';
-import { CliError } from './errors.js';
-import { registerSimulate } from './simulate-command.js';
-import { registerBatch } from './batch-command.js';
+import { AnalysisInputError } from '../analyse/analyser';
+import { EXIT_CODES, exitCodeFor, isInputError } from '../ingest/errors';
+import { SettingsError } from '../settings-file';
+import { VERSION } from '../version';
+import { registerAnalyse } from './analyse-command';
+import { CliError } from './errors';
+import { registerSimulate } from './simulate-command';
+import { registerBatch } from './batch-command';
 
 function fail(message: string, code: number): never {
   process.stderr.write(`phasewise: ${message}\n`);

@@ -1,8 +1,6 @@
-// Options shared by `analyse` and `batch`: every one maps to a setting in src/settings.ts.
-import { readFileSync, existsSync } from 'node:fs';
-import { Command, InvalidArgumentError, Option } from 'commander';
-import { defaultSettings, type Settings } from '../settings.js';
-import { applySettings, parseSettingsFile, SettingsError, type SettingsFile } from '../settings-file.js';
+// Options shared by `analyse` and `batch`: every one maps to a setting in src/settings.ts (the mapping and the
+// settings file are read by src/node/resolve-settings.ts, which batch uses too).
+import { type Command, InvalidArgumentError, Option } from 'commander';
 
 function number(name: string) {
   return (v: string) => {
@@ -34,54 +32,4 @@ export function addInputOptions(cmd: Command): Command {
     .option('--paco2 <mmhg>', 'arterial PCO2 for Enghoff dead space, mmHg', number('--paco2'))
     .option('--apparatus-ml <ml>', 'apparatus volume (mL) between sensor and patient, removed from every dead space (airway, Bohr, Enghoff, VD/VT)', number('--apparatus-ml'))
     .addOption(new Option('--petco2 <method>', 'end-tidal definition').choices(['line_end', 'last', 'max', 'mean_last']));
-}
-
-export interface ResolvedSettings {
-  settings: Settings;
-  given: Set<string>;
-  file: SettingsFile | null;
-}
-
-/** Defaults, then the settings file, then command-line options (each marked as given). */
-export function resolveSettings(opts: Record<string, unknown>): ResolvedSettings {
-  const settings = defaultSettings();
-  const given = new Set<string>();
-  let file: SettingsFile | null = null;
-  if (typeof opts.settings === 'string') {
-    const path = opts.settings;
-    if (!existsSync(path)) throw new SettingsError(`${path}: settings file not found. Check the path given to --settings.`);
-    file = parseSettingsFile(readFileSync(path, 'utf8'), path);
-    applySettings(settings, file, given);
-  }
-  const ingest: Partial<Settings['ingest']> = {};
-  const analysis: Partial<Settings['analysis']> = {};
-  const map: [string, 'ingest' | 'analysis', string][] = [
-    ['delimiter', 'ingest', 'delimiter'],
-    ['decimal', 'ingest', 'decimal'],
-    ['timeCol', 'ingest', 'time_col'],
-    ['flowCol', 'ingest', 'flow_col'],
-    ['co2Col', 'ingest', 'co2_col'],
-    ['timeUnit', 'ingest', 'time_unit'],
-    ['rate', 'ingest', 'rate_hz'],
-    ['flowUnit', 'ingest', 'flow_unit'],
-    ['co2Unit', 'ingest', 'co2_unit'],
-    ['pb', 'ingest', 'pb_mmhg'],
-    ['co2Percent', 'ingest', 'co2_percent'],
-    ['expiration', 'ingest', 'expiration'],
-    ['flowCondition', 'ingest', 'flow_condition'],
-    ['flowTemp', 'ingest', 'flow_temp_c'],
-    ['delay', 'analysis', 'delay_s'],
-    ['responseMs', 'analysis', 'response_ms'],
-    ['paco2', 'analysis', 'paco2_mmhg'],
-    ['apparatusMl', 'analysis', 'apparatus_ml'],
-    ['petco2', 'analysis', 'petco2_method'],
-  ];
-  for (const [opt, group, key] of map) {
-    let v = opts[opt];
-    if (v === undefined) continue;
-    if (opt === 'delimiter' && typeof v === 'string') v = v === 'tab' || v === '\\t' ? '\t' : v;
-    ((group === 'ingest' ? ingest : analysis) as Record<string, unknown>)[key] = v;
-  }
-  applySettings(settings, { ingest, analysis }, given);
-  return { settings, given, file };
 }

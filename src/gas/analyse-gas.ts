@@ -1,15 +1,15 @@
-import { alveolarDeadSpaceMl } from '../physiology/alveolar-dead-space.js';
-import { avdsf } from '../physiology/avdsf.js';
-import { enghoffDeadSpaceFraction } from '../physiology/enghoff-dead-space-fraction.js';
-import { patientDeadSpace } from '../physiology/patient-dead-space.js';
-import type { BreathRow } from '../types.js';
-import { estimatePaco2 } from './estimate-paco2.js';
-import { GAS_DEFAULTS } from './gas-defaults.js';
-import type { GasAnalysisSettings, GasOptions, GasResult, GasRow, GasSample } from './gas-types.js';
-import { median as finiteMedian } from '../analyse/stats.js';
-import { selectWindowBreaths } from './select-window-breaths.js';
-import { shuntPart, type ShuntSettings } from './shunt-part.js';
-import { chooseWeight } from './weight-basis.js';
+import { alveolarDeadSpaceMl } from '../physiology/alveolar-dead-space';
+import { avdsf } from '../physiology/avdsf';
+import { enghoffDeadSpaceFraction } from '../physiology/enghoff-dead-space-fraction';
+import { patientDeadSpace } from '../physiology/patient-dead-space';
+import type { BreathRow } from '../types';
+import { estimatePaco2 } from './estimate-paco2';
+import { GAS_DEFAULTS } from './gas-defaults';
+import type { GasAnalysisSettings, GasOptions, GasResult, GasRow, GasSample } from './gas-types';
+import { median as finiteMedian } from '../numeric/stats';
+import { selectWindowBreaths } from './select-window-breaths';
+import { shuntPart, type ShuntSettings } from './shunt-part';
+import { chooseWeight } from './weight-basis';
 
 const BREATH_FIELDS = ['petco2_mmhg', 'peco2_mmhg', 'vt_exp_ml', 'vd_aw_ml', 'vdvt_bohr'] as const;
 

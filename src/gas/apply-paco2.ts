@@ -2,10 +2,10 @@
 // at or before the breath's start (none before the first sample). Same functions as the analysis with --paco2:
 // enghoffDeadSpaceFraction with the breath's inspired PCO2 when bohr_inspired_term is on, and patientDeadSpace to
 // remove the apparatus volume.
-import { enghoffDeadSpaceFraction } from '../physiology/enghoff-dead-space-fraction.js';
-import { patientDeadSpace } from '../physiology/patient-dead-space.js';
-import type { BreathRow } from '../types.js';
-import type { GasSample } from './gas-types.js';
+import { enghoffDeadSpaceFraction } from '../physiology/enghoff-dead-space-fraction';
+import { patientDeadSpace } from '../physiology/patient-dead-space';
+import type { BreathRow } from '../types';
+import type { GasSample } from './gas-types';
 
 export function applyArterialPco2(rows: BreathRow[], samples: readonly GasSample[], inspiredTerm: boolean, apparatusMl: number): void {
   const sorted = [...samples].sort((a, b) => a.time_s - b.time_s);

@@ -1,7 +1,7 @@
-import { usableForSummary, type SummaryBreaths } from '../analyse/quality.js';
-import type { BreathRow } from '../types.js';
-import { GAS_DEFAULTS } from './gas-defaults.js';
-import type { GasRow, Paco2Estimate } from './gas-types.js';
+import { usableForSummary, type SummaryBreaths } from '../analyse/quality';
+import type { BreathRow } from '../types';
+import { GAS_DEFAULTS } from './gas-defaults';
+import type { GasRow, Paco2Estimate } from './gas-types';
 
 /**
  * PaCO2 between blood gases: for each breath usable for a summary (usableForSummary) with a finite PETCO2 that starts at or after the first

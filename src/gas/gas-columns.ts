@@ -1,5 +1,5 @@
-import { GAS_METRICS, PACO2_ESTIMATE_METRICS } from '../metrics/registry.js';
-import type { GasRow, Paco2Estimate } from './gas-types.js';
+import { GAS_METRICS, PACO2_ESTIMATE_METRICS } from '../metrics/registry';
+import type { GasRow, Paco2Estimate } from './gas-types';
 
 /** Column order of gas.csv (one row per blood-gas sample), from the metric registry. NaN -> empty cell; booleans as
  *  true/false. */

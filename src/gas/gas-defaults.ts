@@ -1,8 +1,8 @@
-import { DEFAULT_CO2_SLOPE_ML_PER_DL_PER_MMHG } from '../physiology/shunt-co2-effect.js';
+import { DEFAULT_CO2_SLOPE_ML_PER_DL_PER_MMHG } from '../physiology/shunt-co2-effect';
 import {
   DEFAULT_DISSOLVED_O2_ML_PER_DL_PER_MMHG,
   DEFAULT_HB_O2_CAPACITY_ML_PER_G,
-} from '../physiology/oxygen-content.js';
+} from '../physiology/oxygen-content';
 
 /**
  * Defaults of the blood-gas analysis, each with where it comes from. The result's settings record

@@ -1,6 +1,6 @@
-import type { SummaryBreaths } from '../analyse/quality.js';
+import type { SummaryBreaths } from '../analyse/quality';
 // Data shapes of the blood-gas analysis. Units in every field name; NaN = not given / not computable.
-import type { Sex } from '../physiology/predicted-body-weight.js';
+import type { Sex } from '../physiology/predicted-body-weight';
 
 /** One blood-gas sample (one valid row of the gas CSV). Optional inputs that were not given are NaN. */
 export interface GasSample {

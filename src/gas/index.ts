@@ -9,15 +9,15 @@ export type {
   Paco2Estimate,
   ShuntMethod,
   Pvco2Source,
-} from './gas-types.js';
-export { parseGasCsv, GAS_INPUT_COLUMNS } from './parse-gas-csv.js';
-export { parseClockTime, clockOffsetS, type ClockTime } from './parse-clock.js';
-export { selectWindowBreaths } from './select-window-breaths.js';
-export { chooseWeight, type WeightBasis, type WeightChoice } from './weight-basis.js';
-export { shuntPart, type ShuntPart, type ShuntSettings } from './shunt-part.js';
-export { analyseGas } from './analyse-gas.js';
-export { estimatePaco2 } from './estimate-paco2.js';
-export { GAS_DEFAULTS } from './gas-defaults.js';
-export { GAS_COLUMNS, PACO2_ESTIMATE_COLUMNS } from './gas-columns.js';
-export { median as finiteMedian } from '../analyse/stats.js';
-export { applyArterialPco2 } from './apply-paco2.js';
+} from './gas-types';
+export { parseGasCsv, GAS_INPUT_COLUMNS } from './parse-gas-csv';
+export { parseClockTime, clockOffsetS, type ClockTime } from './parse-clock';
+export { selectWindowBreaths } from './select-window-breaths';
+export { chooseWeight, type WeightBasis, type WeightChoice } from './weight-basis';
+export { shuntPart, type ShuntPart, type ShuntSettings } from './shunt-part';
+export { analyseGas } from './analyse-gas';
+export { estimatePaco2 } from './estimate-paco2';
+export { GAS_DEFAULTS } from './gas-defaults';
+export { GAS_COLUMNS, PACO2_ESTIMATE_COLUMNS } from './gas-columns';
+export { median as finiteMedian } from '../numeric/stats';
+export { applyArterialPco2 } from './apply-paco2';

@@ -1,4 +1,4 @@
-import { clockKind, parseClockSeconds, type ClockKind } from '../ingest/clock-time.js';
+import { clockKind, parseClockSeconds, type ClockKind } from '../ingest/clock-time';
 
 /** A parsed clock stamp (same grammar as the recording's time column, src/ingest/clock-time.ts). */
 export interface ClockTime {

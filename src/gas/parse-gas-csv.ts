@@ -1,6 +1,6 @@
 import Papa from 'papaparse';
-import type { GasParseResult, GasSample } from './gas-types.js';
-import { clockOffsetS, parseClockTime, type ClockTime } from './parse-clock.js';
+import type { GasParseResult, GasSample } from './gas-types';
+import { clockOffsetS, parseClockTime, type ClockTime } from './parse-clock';
 
 type NumericColumn = Exclude<keyof GasSample, 'line' | 'time_s'>;
 

@@ -1,5 +1,5 @@
-import { usableForSummary, type SummaryBreaths } from '../analyse/quality.js';
-import type { BreathRow } from '../types.js';
+import { usableForSummary, type SummaryBreaths } from '../analyse/quality';
+import type { BreathRow } from '../types';
 
 /**
  * Breaths used for a blood-gas sample taken at `sampleTimeS`: usable for a summary (usableForSummary: ok, and caution

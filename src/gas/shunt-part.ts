@@ -1,10 +1,10 @@
-import { alveolarGasPao2 } from '../physiology/alveolar-gas-pao2.js';
-import { oxygenContent } from '../physiology/oxygen-content.js';
-import { severinghausPo2, severinghausSaturation } from '../physiology/severinghaus-saturation.js';
-import { shuntCo2Effect } from '../physiology/shunt-co2-effect.js';
-import { shuntFractionFromContents } from '../physiology/shunt-fraction-from-contents.js';
-import { shuntFractionFromSaturations } from '../physiology/shunt-fraction-from-saturations.js';
-import type { GasRow, GasSample } from './gas-types.js';
+import { alveolarGasPao2 } from '../physiology/alveolar-gas-pao2';
+import { oxygenContent } from '../physiology/oxygen-content';
+import { severinghausPo2, severinghausSaturation } from '../physiology/severinghaus-saturation';
+import { shuntCo2Effect } from '../physiology/shunt-co2-effect';
+import { shuntFractionFromContents } from '../physiology/shunt-fraction-from-contents';
+import { shuntFractionFromSaturations } from '../physiology/shunt-fraction-from-saturations';
+import type { GasRow, GasSample } from './gas-types';
 
 /** Resolved settings the shunt part needs (defaults already applied). */
 export interface ShuntSettings {

@@ -1,4 +1,4 @@
-import { PBW_BASE_HEIGHT_CM, predictedBodyWeight, type Sex } from '../physiology/predicted-body-weight.js';
+import { PBW_BASE_HEIGHT_CM, predictedBodyWeight, type Sex } from '../physiology/predicted-body-weight';
 
 export type WeightBasis = 'predicted_body_weight' | 'actual_weight' | 'none';
 

@@ -51,7 +51,7 @@ export class BlockBuilder {
     for (let i = this.pendingStart; i < this.n; i++) {
       const v = co2At(this.t[i]!);
       this.co2[i] = v;
-      if (v !== v) nan++;
+      if (Number.isNaN(v)) nan++;
     }
     this.pendingStart = -1;
     return nan;

@@ -73,7 +73,7 @@ export class ClockReader {
   }
   /** Seconds from the first stamp's date for a stamp already split into its parts. */
   fromParts(day: number, sec: number): number {
-    if (this.base !== this.base) this.base = day;
+    if (Number.isNaN(this.base)) this.base = day;
     return day - this.base + sec;
   }
 }

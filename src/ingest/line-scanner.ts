@@ -9,6 +9,7 @@
 // (Clinger 1990, "How to read floating point numbers accurately", the fast path). Clock stamps are read in place
 // by clock-scan.ts. Anything else (exponents, more digits, quotes, missing-value words, odd stamps) goes through the
 // careful per-cell path (cell.ts, clock-time.ts); tests/ingest/equivalence.test.ts checks both give the same.
+import { CR, DIGIT_0, DIGIT_9, HASH, LF, MINUS, PLUS, QUOTE, SLASH, SPACE, TAB } from './ascii';
 import { parseNumberCell } from './cell';
 import { scanClock, type ClockParts } from './clock-scan';
 import { ClockReader, type ClockKind } from './clock-time';
@@ -62,8 +63,8 @@ export class LineScanner {
     this.decimal = layout.decimal;
     this.dec = layout.decimal.charCodeAt(0);
     this.eol = layout.line_end.charCodeAt(0);
-    this.ws2 = this.eol === 10 ? 13 : 10;
-    this.ws3 = this.delim === 9 ? 32 : 9;
+    this.ws2 = this.eol === LF ? CR : LF;
+    this.ws3 = this.delim === TAB ? SPACE : TAB;
     this.dataStart = layout.data_start_index;
     this.fieldCount = layout.field_count;
     this.headerTrailingEmpty = layout.header_trailing_empty;
@@ -94,7 +95,7 @@ export class LineScanner {
       // blank line?
       let j = pos;
       let c = s[j]!;
-      while (c === 32 || c === this.ws2 || c === this.ws3) c = s[++j]!;
+      while (c === SPACE || c === this.ws2 || c === this.ws3) c = s[++j]!;
       if (c === eol || j >= len) {
         if (j >= len && !final) return pos;
         this.rows.blank();
@@ -102,7 +103,7 @@ export class LineScanner {
         pos = Math.min(j + 1, len);
         continue;
       }
-      if (c === 35 || (c === 47 && s[j + 1] === 47)) {
+      if (c === HASH || (c === SLASH && s[j + 1] === SLASH)) {
         const e = s.indexOf(eol, j);
         if (e < 0 && !final) return pos;
         this.rows.skip(this.lineIndex + 1, 'comment_line');
@@ -148,13 +149,13 @@ export class LineScanner {
       if (role === ROLE_NONE) {
         c = s[i]!;
         while (c !== delim && c !== eol && i < len) {
-          if (c === 34) return this.slowLine(s, start, len, final);
+          if (c === QUOTE) return this.slowLine(s, start, len, final);
           c = s[++i]!;
         }
       } else {
         let j = i;
         c = s[j]!;
-        while (c === 32 || c === ws2 || c === ws3) c = s[++j]!;
+        while (c === SPACE || c === ws2 || c === ws3) c = s[++j]!;
         let v = NaN;
         let done = false;
         if (role === ROLE_CLOCK) {
@@ -166,7 +167,7 @@ export class LineScanner {
           if (e >= 0) {
             let q = j + utf8Bytes(cell, e);
             c = s[q]!;
-            while (c === 32 || c === ws2 || c === ws3) c = s[++q]!;
+            while (c === SPACE || c === ws2 || c === ws3) c = s[++q]!;
             if (c === delim || c === eol || q >= len) {
               v = this.clock!.fromParts(this.parts.day, this.parts.sec);
               i = q;
@@ -178,11 +179,11 @@ export class LineScanner {
         if (!done) {
           let neg = false;
           let signed = false;
-          if (c === 45) {
+          if (c === MINUS) {
             neg = true;
             signed = true;
             c = s[++j]!;
-          } else if (c === 43) {
+          } else if (c === PLUS) {
             signed = true;
             c = s[++j]!;
           }
@@ -190,22 +191,22 @@ export class LineScanner {
           let nd = 0;
           let k = 0;
           let dot = false;
-          while (c >= 48 && c <= 57) {
-            m = m * 10 + (c - 48);
+          while (c >= DIGIT_0 && c <= DIGIT_9) {
+            m = m * 10 + (c - DIGIT_0);
             nd++;
             c = s[++j]!;
           }
           if (c === dec) {
             dot = true;
             c = s[++j]!;
-            while (c >= 48 && c <= 57) {
-              m = m * 10 + (c - 48);
+            while (c >= DIGIT_0 && c <= DIGIT_9) {
+              m = m * 10 + (c - DIGIT_0);
               nd++;
               k++;
               c = s[++j]!;
             }
           }
-          while (c === 32 || c === ws2 || c === ws3) c = s[++j]!;
+          while (c === SPACE || c === ws2 || c === ws3) c = s[++j]!;
           const atEnd = c === delim || c === eol || j >= len;
           if (atEnd && nd > 0 && nd <= 15 && role !== ROLE_CLOCK) {
             v = k === 0 ? m : m / POW10[k]!;
@@ -219,7 +220,7 @@ export class LineScanner {
             let e = i;
             c = s[e]!;
             while (c !== delim && c !== eol && e < len) {
-              if (c === 34) return this.slowLine(s, start, len, final);
+              if (c === QUOTE) return this.slowLine(s, start, len, final);
               c = s[++e]!;
             }
             if (e >= len && !final) return -1;
@@ -231,7 +232,7 @@ export class LineScanner {
         else if (role === ROLE_CO2) this.cv = v;
         else {
           this.tv = v;
-          if (v !== v && this.badCol === 0) this.timeBlank = true;
+          if (Number.isNaN(v) && this.badCol === 0) this.timeBlank = true;
         }
       }
       field++;
@@ -256,7 +257,7 @@ export class LineScanner {
       const t = text.trim();
       if (t === '') return NaN;
       const v = this.clock!.read(t);
-      if (v === v) return v;
+      if (!Number.isNaN(v)) return v;
     } else {
       const v = parseNumberCell(text, this.decimal);
       if (typeof v === 'number') return v;
@@ -316,7 +317,7 @@ export class LineScanner {
       else if (role === ROLE_CO2) this.cv = v;
       else {
         this.tv = v;
-        if (v !== v && this.badCol === 0) this.timeBlank = true;
+        if (Number.isNaN(v) && this.badCol === 0) this.timeBlank = true;
       }
     }
     const n = fields.length;

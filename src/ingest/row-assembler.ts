@@ -94,8 +94,8 @@ export class RowAssembler {
       return;
     }
     this.backwardRun = 0;
-    const flowBlank = flow !== flow;
-    const co2Blank = co2 !== co2;
+    const flowBlank = Number.isNaN(flow);
+    const co2Blank = Number.isNaN(co2);
     if (flowBlank && co2Blank) {
       this.skip(line, 'no_values');
       return;
@@ -184,7 +184,7 @@ export class RowAssembler {
     const ta = this.lastCo2T;
     const ca = this.lastCo2;
     const span = tb - ta;
-    if (cb === cb && span <= this.silence) {
+    if (!Number.isNaN(cb) && span <= this.silence) {
       this.co2_missing += this.b.resolvePending((t) => ca + ((cb - ca) * (t - ta)) / span);
     } else {
       this.co2_missing += this.b.resolvePending(() => NaN);
@@ -197,7 +197,7 @@ export class RowAssembler {
       this.prevClock = raw;
     }
     const abs = raw + this.dayOffset;
-    if (this.t0 !== this.t0) this.t0 = abs;
+    if (Number.isNaN(this.t0)) this.t0 = abs;
     return abs - this.t0;
   }
 

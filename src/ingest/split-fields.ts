@@ -1,6 +1,7 @@
 // Quote-aware split of one line into fields (RFC 4180 style: a field that starts with " runs to the
 // matching ", and "" inside it is a literal quote). Used while sniffing and for the rare data lines that
 // hold quotes; plain lines go through the fast scanner instead.
+import { QUOTE, SPACE } from './ascii';
 
 /**
  * Split `line` (without its line terminator) at `delimiter`, honouring double quotes.
@@ -16,15 +17,15 @@ export function splitFields(line: string, delimiter: string): string[] | null {
   for (;;) {
     // skip spaces before a possible opening quote
     let j = i;
-    while (j < n && line.charCodeAt(j) === 32) j++;
-    if (j < n && line.charCodeAt(j) === 34) {
+    while (j < n && line.charCodeAt(j) === SPACE) j++;
+    if (j < n && line.charCodeAt(j) === QUOTE) {
       let text = '';
       let k = j + 1;
       for (;;) {
         const q = line.indexOf('"', k);
         if (q < 0) return null;
         text += line.slice(k, q);
-        if (line.charCodeAt(q + 1) === 34) {
+        if (line.charCodeAt(q + 1) === QUOTE) {
           text += '"';
           k = q + 2;
           continue;

@@ -66,6 +66,7 @@ export function createTableReader(
     if (chunk.length === 0) return [];
     if (!started) {
       started = true;
+      // a UTF-8 byte order mark (EF BB BF) is not part of the text
       if (chunk[0] === 0xef && chunk[1] === 0xbb && chunk[2] === 0xbf) chunk = chunk.subarray(3);
     }
     let s = chunk;

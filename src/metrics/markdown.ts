@@ -3,7 +3,7 @@
 // in any markdown file (README.md or docs/*.md), so sections can move between files. `npx tsx scripts/metrics-docs.ts`
 // rewrites every block; tests/metrics/docs-tables.test.ts fails when a block differs from the registry.
 
-import { METRIC_TABLES, REFERENCES, type MetricSpec, type MetricTableName } from './registry.js';
+import { METRIC_TABLES, REFERENCES, type MetricSpec, type MetricTableName } from './registry';
 
 const MARKER = /<!-- metrics:([a-z0-9-]+):(start|end) -->/g;
 

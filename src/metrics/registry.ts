@@ -12,7 +12,7 @@
 // source`, or `derived here` (a value this project defines itself: thresholds, identifiers, combinations of other
 // columns, values passed through from an input file).
 
-import type { GasRow, Paco2Estimate } from '../gas/gas-types.js';
+import type { GasRow, Paco2Estimate } from '../gas/gas-types';
 
 /** What a column holds: a number (NaN = empty cell) or text. */
 export type MetricKind = 'number' | 'text';

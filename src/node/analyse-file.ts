@@ -1,14 +1,14 @@
 // Node edge: one recording file -> analysis outputs (used by `analyse` and `batch`).
 import { createHash } from 'node:crypto';
-import { createAnalyser } from '../analyse/analyser.js';
-import type { AnalysisCore } from '../analyse/analyser.js';
-import type { IngestReport } from '../ingest/index.js';
-import type { Settings } from '../settings.js';
-import type { SampleBlock } from '../types.js';
-import { readRecordingFile } from './read-recording.js';
-import { ReaderThread, readWorkerFile, takePrestartedReader } from './reader-thread.js';
+import { createAnalyser } from '../analyse/analyser';
+import type { AnalysisCore } from '../analyse/analyser';
+import type { IngestReport } from '../ingest/index';
+import type { Settings } from '../settings';
+import type { SampleBlock } from '../types';
+import { readRecordingFile } from './read-recording';
+import { ReaderThread, readWorkerFile } from './reader-thread';
 
-export { readWorkerFile } from './reader-thread.js';
+export { readWorkerFile } from './reader-thread';
 
 /** The analysis of one file; the outputs (summary, trends, tables) are composed by src/report/outputs.ts. */
 export interface FileAnalysis {
@@ -37,9 +37,8 @@ export async function analyseFile(path: string, settings: Settings, options: Ana
   let read = options.read ?? 'here';
   let own: ReaderThread | null = null;
   if (read === 'thread') {
-    const early = takePrestartedReader();
-    const file = early ? null : readWorkerFile();
-    read = early || file ? (own = new ReaderThread(early ?? file!)) : 'here';
+    const file = readWorkerFile();
+    read = file ? (own = new ReaderThread(file)) : 'here';
   }
   try {
     if (read === 'here') {

@@ -9,10 +9,10 @@
 // without reading the file a second time).
 import { createHash } from 'node:crypto';
 import { parentPort, workerData } from 'node:worker_threads';
-import { isInputError } from '../ingest/errors.js';
-import type { IngestSettings } from '../settings.js';
-import type { SampleBlock } from '../types.js';
-import { readRecordingFile } from './read-recording.js';
+import { isInputError } from '../ingest/errors';
+import type { IngestSettings } from '../settings';
+import type { SampleBlock } from '../types';
+import { readRecordingFile } from './read-recording';
 
 export const MAX_IN_FLIGHT = 4;
 

@@ -4,11 +4,11 @@
 import { existsSync } from 'node:fs';
 import { join } from 'node:path';
 import { Worker } from 'node:worker_threads';
-import { InputError, type InputErrorCode } from '../ingest/errors.js';
-import type { IngestReport } from '../ingest/index.js';
-import type { Settings } from '../settings.js';
-import type { SampleBlock } from '../types.js';
-import type { ReadRequest, ReadWorkerData, ReadWorkerMessage } from './read-worker.js';
+import { InputError, type InputErrorCode } from '../ingest/errors';
+import type { IngestReport } from '../ingest/index';
+import type { Settings } from '../settings';
+import type { SampleBlock } from '../types';
+import type { ReadRequest, ReadWorkerData, ReadWorkerMessage } from './read-worker';
 
 export const READ_WORKER_BUNDLE = 'read-worker.cjs';
 
@@ -20,44 +20,6 @@ export function readWorkerFile(): string | null {
   return existsSync(f) ? f : null;
 }
 
-/** A reader worker already started, with its shared in-flight counter. */
-export interface StartedReader {
-  worker: Worker;
-  inFlight: SharedArrayBuffer;
-}
-
-/** Starts the reader worker (it loads its bundle in parallel with whatever this thread does next). */
-export function startReaderWorker(workerFile: string): StartedReader {
-  const inFlight = new SharedArrayBuffer(4);
-  const data: ReadWorkerData = { inFlight };
-  // the reader holds one chunk and one block at a time: a bounded heap keeps the process under the memory target.
-  // Young generation 16 MB, measured: `analyse` of the 24 h file peaks at 187-191 MB (8 MB: 231-233 MB, more objects
-  // promoted to the old generation; 32 MB: 188-190 MB) and a --jobs 2 batch of three 24 h files at 240-267 MB
-  // (8 MB: 277-280 MB; 32 MB: 309 MB, over the 300 MB target).
-  const worker = new Worker(workerFile, { workerData: data, resourceLimits: { maxYoungGenerationSizeMb: 16, maxOldGenerationSizeMb: 96 } });
-  return { worker, inFlight };
-}
-
-let early: StartedReader | null = null;
-
-/**
- * Starts a reader worker before the rest of the CLI has loaded (src/cli/prestart.ts, for `analyse`), so that
- * the two bundles load at the same time; the worker does not keep the process alive until it is used.
- */
-export function prestartReader(): void {
-  const file = readWorkerFile();
-  if (!file || early) return;
-  early = startReaderWorker(file);
-  early.worker.unref();
-}
-
-/** The prestarted reader, if any (once). */
-export function takePrestartedReader(): StartedReader | null {
-  const r = early;
-  early = null;
-  if (r) r.worker.ref();
-  return r;
-}
 
 export interface ReadResult {
   report: IngestReport;
@@ -79,10 +41,12 @@ export class ReaderThread {
   private broken: Error | null = null;
   private closing = false;
 
-  constructor(from: string | StartedReader) {
-    const { worker, inFlight } = typeof from === 'string' ? startReaderWorker(from) : from;
+  /** Starts the reader worker from its bundle (dist/read-worker.cjs). */
+  constructor(workerFile: string) {
+    const inFlight = new SharedArrayBuffer(4);
+    const data: ReadWorkerData = { inFlight };
     this.counter = new Int32Array(inFlight);
-    this.worker = worker;
+    this.worker = new Worker(workerFile, { workerData: data });
     this.worker.on('message', (m: ReadWorkerMessage) => this.receive(m));
     this.worker.on('error', (e) => this.fail(e));
     this.worker.on('exit', (code) => this.fail(new Error(`the reader thread stopped (exit ${code})`)));

@@ -51,7 +51,7 @@ const EXP_UNDERFLOW = -7.45133219101941108420e2;
 
 /** e^x (fdlibm e_exp.c). */
 export function detExp(x: number): number {
-  if (x !== x) return x;
+  if (Number.isNaN(x)) return x;
   if (x > EXP_OVERFLOW) return Infinity;
   if (x < EXP_UNDERFLOW) return 0;
   let hx = highWord(x);
@@ -119,7 +119,7 @@ export function detLog(x: number): number {
   if ((0x000fffff & (2 + hx)) < 3) {
     // -2^-20 <= f < 2^-20
     if (f === 0) return k === 0 ? 0 : k * LN2_HI + k * LN2_LO;
-    const r = f * f * (0.5 - 0.33333333333333333 * f);
+    const r = f * f * (0.5 - 0.3333333333333333 * f);
     return k === 0 ? f - r : k * LN2_HI - ((r - k * LN2_LO) - f);
   }
   const s = f / (2.0 + f);
@@ -136,10 +136,4 @@ export function detLog(x: number): number {
     return k === 0 ? f - (hfsq - s * (hfsq + r)) : k * LN2_HI - ((hfsq - (s * (hfsq + r) + k * LN2_LO)) - f);
   }
   return k === 0 ? f - s * (f - r) : k * LN2_HI - ((s * (f - r) - k * LN2_LO) - f);
-}
-
-/** Replaces Math.exp and Math.log of this global scope (the viewer's worker calls it first, for the libraries too). */
-export function installDeterministicMath(): void {
-  Math.exp = detExp;
-  Math.log = detLog;
 }

@@ -1,4 +1,4 @@
-import { PH2O_37C_MMHG } from './constants.js';
+import { PH2O_37C_MMHG } from './constants';
 
 /** Form of the alveolar gas equation. */
 export type AlveolarGasForm = 'full' | 'simplified';

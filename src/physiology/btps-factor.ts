@@ -1,5 +1,5 @@
-import { ZERO_C_K } from './constants.js';
-import { waterVapourPressureMmhg } from './water-vapour-pressure.js';
+import { ZERO_C_K } from './constants';
+import { waterVapourPressureMmhg } from './water-vapour-pressure';
 
 /**
  * ATPS -> BTPS (saturated = true) or ATPD -> BTPS (saturated = false) volume conversion factor.

@@ -1,9 +1,5 @@
 /**
-<<<<<<< HEAD:src/analyse/fowler.ts
- * Fowler's equal-area airway dead space, closed form (derived here: docs/methods.md, Derivations).
-=======
  * Fowler's equal-area airway dead space, closed form, mL.
->>>>>>> bugs:src/physiology/fowler-dead-space.ts
  *
  * With the phase III line L(V) = a + b V (CO2 above the inspired level, mmHg; V in mL) and
  * A = integral of the measured curve from 0 to the upper limit V_x (mmHg x mL), Fowler's construction asks for the
@@ -12,22 +8,12 @@
  *   integral_{V*}^{V_x} (a + b V) dV = A  =>  (b/2) V*^2 + a V* - K = 0,  K = a V_x + (b/2) V_x^2 - A
  *   V* = 2K / (a + sqrt(a^2 + 2 b K))     (the numerically stable root; valid for any sign of b)
  *
-<<<<<<< HEAD:src/analyse/fowler.ts
- * Source: Fowler WS 1948, "Lung function studies. II. The respiratory dead space", Am J Physiol 154:405-416 (the
- * equal-area construction, N2 single breath); applied to CO2 by Fletcher R, Jonson B, Cumming G, Brew J 1981,
- * "The concept of deadspace with special reference to the single breath test for carbon dioxide", Br J Anaesth
- * 53:77-88. The closed form is an algebraic restatement: derived here.
- *
- * Returns NaN when a guard fails (a <= 0, negative discriminant, L(V*) <= 0).
- * @example fowlerDeadSpace(40, 0, 500, 14000) // => 150 (synthetic curve A, docs/methods.md)
-=======
  * Source: Fowler WS 1948, Am J Physiol 154:405-416 (the equal-area construction, on the nitrogen single-breath
  * curve); applied to CO2 by Fletcher R, Jonson B, Cumming G, Brew J 1981, Br J Anaesth 53:77-88. The closed form is
  * an algebraic restatement: derived here.
  *
  * Returns NaN when a <= 0, the discriminant is negative or L(V*) <= 0.
  * @example fowlerDeadSpace(40, 0, 500, 14000) // => 150 (flat plateau at 40 mmHg, derived here)
->>>>>>> bugs:src/physiology/fowler-dead-space.ts
  */
 export function fowlerDeadSpace(a: number, b: number, vxMl: number, areaMmhgMl: number): number {
   if (!(a > 0)) return NaN;

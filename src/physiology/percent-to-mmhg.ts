@@ -1,4 +1,4 @@
-import { PH2O_37C_MMHG } from './constants.js';
+import { PH2O_37C_MMHG } from './constants';
 
 /** Which total pressure a gas "%" refers to. */
 export type PercentConvention = 'ambient' | 'dry';

@@ -1,4 +1,4 @@
-import { endCapillaryPco2 } from './end-capillary-pco2.js';
+import { endCapillaryPco2 } from './end-capillary-pco2';
 
 /**
  * Shunt-corrected Enghoff dead-space fraction VD/VT (dimensionless): Enghoff with ideal end-capillary PCO2 in place

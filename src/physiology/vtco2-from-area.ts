@@ -1,4 +1,4 @@
-import { STANDARD_PRESSURE_MMHG, ZERO_C_K } from './constants.js';
+import { STANDARD_PRESSURE_MMHG, ZERO_C_K } from './constants';
 
 /**
  * CO2 volume (mL STPD) from an area under a volumetric capnogram: one breath's expired or inspired CO2.

@@ -1,5 +1,5 @@
-import { detExp } from '../numeric/det-math.js';
-import { HPA_PER_MMHG } from './constants.js';
+import { detExp } from '../numeric/det-math';
+import { HPA_PER_MMHG } from './constants';
 
 /**
  * Saturated water vapour pressure over liquid water, mmHg.

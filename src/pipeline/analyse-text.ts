@@ -1,10 +1,10 @@
 // Whole-text analysis (browser and tests): text table -> breaths, ingest report and summary, exactly as the CLI does
 // for a file (the CLI streams the file instead; the numbers are the same).
-import { createAnalyser, type AnalysisCore } from '../analyse/analyser.js';
-import { readRecordingText, type IngestReport } from '../ingest/index.js';
-import { summaryFor } from '../report/summary-for.js';
-import type { Summary } from '../report/summary.js';
-import type { Settings } from '../settings.js';
+import { createAnalyser, type AnalysisCore } from '../analyse/analyser';
+import { readRecordingText, type IngestReport } from '../ingest/index';
+import { summaryFor } from '../report/summary-for';
+import type { Summary } from '../report/summary';
+import type { Settings } from '../settings';
 
 export interface TextAnalysis {
   core: AnalysisCore;

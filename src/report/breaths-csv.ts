@@ -1,6 +1,6 @@
-import { qualityOfStatus } from '../analyse/quality.js';
-import { BREATH_COLUMNS, type BreathRow } from '../types.js';
-import { csvTable } from './format.js';
+import { qualityOfStatus } from '../analyse/quality';
+import { BREATH_COLUMNS, type BreathRow } from '../types';
+import { csvTable } from './format';
 
 /** breaths.csv columns: BREATH_COLUMNS with `quality` after `status`: ok, caution (kept in the summaries, flagged) or
  *  excluded, the class of the status value (qualityOfStatus). */

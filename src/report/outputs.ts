@@ -5,18 +5,18 @@
 // The viewer's exclusions (review.ts) are applied first, so they flow into the gas medians, the trends and the events
 // exactly as an automatic exclusion would; the CLI passes none.
 
-import type { AnalysisCore } from '../analyse/analyser.js';
-import { analyseGas, applyArterialPco2, GAS_COLUMNS, PACO2_ESTIMATE_COLUMNS, type GasOptions, type GasResult, type GasSample } from '../gas/index.js';
-import type { IngestReport } from '../ingest/index.js';
-import { breathsCsv } from './breaths-csv.js';
-import { csvTable } from './format.js';
-import type { Summary } from './summary.js';
-import { summaryFor } from './summary-for.js';
-import { eventsCsv, trendsAndEvents, trendsCsv } from './trends-events.js';
-import type { Settings } from '../settings.js';
-import type { EventRow, TrendRow } from '../trends/index.js';
-import type { BreathRow } from '../types.js';
-import { exclusionNote, reviewedRows } from './review.js';
+import type { AnalysisCore } from '../analyse/analyser';
+import { analyseGas, applyArterialPco2, GAS_COLUMNS, PACO2_ESTIMATE_COLUMNS, type GasOptions, type GasResult, type GasSample } from '../gas/index';
+import type { IngestReport } from '../ingest/index';
+import { breathsCsv } from './breaths-csv';
+import { csvTable } from './format';
+import type { Summary } from './summary';
+import { summaryFor } from './summary-for';
+import { eventsCsv, trendsAndEvents, trendsCsv } from './trends-events';
+import type { Settings } from '../settings';
+import type { EventRow, TrendRow } from '../trends/index';
+import type { BreathRow } from '../types';
+import { exclusionNote, reviewedRows } from './review';
 
 export interface GasInput {
   /** the gas file's name (the CLI records the path given to --gas) */

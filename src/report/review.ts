@@ -8,7 +8,7 @@
 // The summary also gets one note naming the excluded breaths (outputs.ts). With no exclusion nothing changes, so
 // the exports are byte-identical to the CLI's.
 
-import type { BreathRow } from '../types.js';
+import type { BreathRow } from '../types';
 
 /** Flag code added to a breath excluded by the reviewer. */
 export const USER_EXCLUDED = 'excluded_by_user';

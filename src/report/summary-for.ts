@@ -1,9 +1,9 @@
 // summary.json for one analysed recording: the reader's report + the analysis + every setting with its origin.
 // Browser-safe, so the viewer writes the same summary as the CLI.
-import type { AnalysisCore } from '../analyse/analyser.js';
-import type { IngestReport } from '../ingest/index.js';
-import type { Settings } from '../settings.js';
-import { buildSummary, recordSettings, type Summary } from './summary.js';
+import type { AnalysisCore } from '../analyse/analyser';
+import type { IngestReport } from '../ingest/index';
+import type { Settings } from '../settings';
+import { buildSummary, recordSettings, type Summary } from './summary';
 
 export function summaryFor(core: AnalysisCore, report: IngestReport, settings: Settings, given: ReadonlySet<string>): Summary {
   const inferred: Record<string, { value: unknown; note?: string }> = {

@@ -1,15 +1,15 @@
 // summary.json and the terminal summary of one recording.
 
-import { detLog } from '../numeric/det-math.js';
-import type { AnalysisCore } from '../analyse/analyser.js';
-import { CAUTION_CODES, qualityOfStatus, REASON_CODES, usableForSummary, type SummaryBreaths } from '../analyse/quality.js';
-import { breathMetric, TERMINAL_SUMMARY_ROWS } from '../metrics/registry.js';
-import { quantileSorted } from '../analyse/stats.js';
-import { SETTING_GROUPS, type Settings } from '../settings.js';
-import { SUMMARY_METRICS, type BreathRow, type MetricSummary, type RecordedSetting } from '../types.js';
-import { VERSION } from '../version.js';
-import { CAUTION } from './caution.js';
-import { formatNumber } from './format.js';
+import { detLog } from '../numeric/det-math';
+import type { AnalysisCore } from '../analyse/analyser';
+import { CAUTION_CODES, qualityOfStatus, REASON_CODES, usableForSummary, type SummaryBreaths } from '../analyse/quality';
+import { breathMetric, TERMINAL_SUMMARY_ROWS } from '../metrics/registry';
+import { quantileSorted } from '../numeric/stats';
+import { SETTING_GROUPS, type Settings } from '../settings';
+import { SUMMARY_METRICS, type BreathRow, type MetricSummary, type RecordedSetting } from '../types';
+import { VERSION } from '../version';
+import { CAUTION } from './caution';
+import { formatNumber } from './format';
 
 /** What the reader reports about the input (structurally the ingest layer's IngestReport). */
 export interface InputSummary {

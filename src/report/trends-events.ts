@@ -1,9 +1,9 @@
 // Trends per time bin and change events for one recording (browser-safe; used by analyse, batch and the viewer).
-import { computeTrends, detectEvents, EVENT_COLUMNS, TREND_COLUMNS, type EventRow, type TrendRow } from '../trends/index.js';
-import type { SummaryBreaths } from '../analyse/quality.js';
-import type { TrendSettings } from '../trends/settings.js';
-import type { BreathRow } from '../types.js';
-import { csvTable } from './format.js';
+import { computeTrends, detectEvents, EVENT_COLUMNS, TREND_COLUMNS, type EventRow, type TrendRow } from '../trends/index';
+import type { SummaryBreaths } from '../analyse/quality';
+import type { TrendSettings } from '../settings';
+import type { BreathRow } from '../types';
+import { csvTable } from './format';
 
 export interface TrendsAndEvents {
   trends: TrendRow[];

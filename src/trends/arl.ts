@@ -8,7 +8,7 @@
 //
 // Two-sided scheme: 1/ARL = 1/ARL+ + 1/ARL-, with ARL- the one-sided ARL at -delta.
 
-import { detExp } from '../numeric/det-math.js';
+import { detExp } from '../numeric/det-math';
 /** One-sided ARL (number of values until an alarm) by Siegmund's approximation. */
 export function siegmundArl(k: number, h: number, delta = 0): number {
   const d = delta - k;

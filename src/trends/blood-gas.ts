@@ -1,5 +1,5 @@
-import type { TrendSettings } from './settings.js';
-import type { TrendRow } from './trend-row.js';
+import type { TrendSettings } from '../settings';
+import type { TrendRow } from './trend-row';
 
 /** An arterial blood gas: time (recording time, s) and PaCO2 (mmHg). */
 export interface BloodGasPoint {

@@ -1,6 +1,6 @@
-import type { GasComparison } from './blood-gas.js';
-import type { TrendSettings } from './settings.js';
-import { SIGNAL_LABEL, type TrendSignal } from './signals.js';
+import type { GasComparison } from './blood-gas';
+import type { TrendSettings } from '../settings';
+import { SIGNAL_LABEL, type TrendSignal } from './signals';
 
 /** Event kinds: patterns in the data, not diagnoses (src/trends/RULES.md). */
 export type EventKind = 'perfusion' | 'ventilation' | 'dead_space' | 'rebreathing' | 'sensor' | 'unclassified';

@@ -1,9 +1,9 @@
-import { usableForSummary, type SummaryBreaths } from '../analyse/quality.js';
-import { median } from '../analyse/stats.js';
-import { alveolarTidalVolumeMl } from '../physiology/patient-dead-space.js';
-import type { BreathRow } from '../types.js';
-import type { TrendSettings } from './settings.js';
-import type { TrendRow } from './trend-row.js';
+import { usableForSummary, type SummaryBreaths } from '../analyse/quality';
+import { median } from '../numeric/stats';
+import { alveolarTidalVolumeMl } from '../physiology/patient-dead-space';
+import type { BreathRow } from '../types';
+import type { TrendSettings } from '../settings';
+import type { TrendRow } from './trend-row';
 
 /**
  * Summarises breath rows into fixed time bins of `opts.bin_s` seconds, aligned to recording time 0 (bin i covers

@@ -1,8 +1,8 @@
-import { mad, median } from '../analyse/stats.js';
-import { decisionInterval } from './arl.js';
-import { cusumStart, cusumStep, type CusumSide, type CusumState } from './cusum.js';
-import type { TrendSettings } from './settings.js';
-import { minChange, type TrendSignal } from './signals.js';
+import { mad, median } from '../numeric/stats';
+import { decisionInterval } from './arl';
+import { cusumStart, cusumStep, type CusumSide, type CusumState } from './cusum';
+import type { TrendSettings } from '../settings';
+import { minChange, type TrendSignal } from './signals';
 
 /** A confirmed sustained change of one signal. Indices refer to the trend rows. */
 export interface SignalChange {

@@ -1,9 +1,9 @@
-import { compareGases, type BloodGasPoint } from './blood-gas.js';
-import { classifyPattern, signalDelta, type ChangePattern, type EventKind } from './classify.js';
-import { chartArlBins, detectSignalChanges, medianBack, medianWindow, sustainedBins, type SignalChange } from './detect-changes.js';
-import type { TrendSettings } from './settings.js';
-import { signalValues, TREND_SIGNALS, type TrendSignal } from './signals.js';
-import type { TrendRow } from './trend-row.js';
+import { compareGases, type BloodGasPoint } from './blood-gas';
+import { classifyPattern, signalDelta, type ChangePattern, type EventKind } from './classify';
+import { chartArlBins, detectSignalChanges, medianBack, medianWindow, sustainedBins, type SignalChange } from './detect-changes';
+import type { TrendSettings } from '../settings';
+import { signalValues, TREND_SIGNALS, type TrendSignal } from './signals';
+import type { TrendRow } from './trend-row';
 
 /** One detected event (one row of events.csv; `t_alarm_s` and `note` are extra fields for the terminal and viewer). */
 export interface EventRow {

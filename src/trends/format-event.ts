@@ -1,5 +1,5 @@
-import type { EventRow } from './detect-events.js';
-import { SIGNAL_LABEL, SIGNAL_UNIT } from './signals.js';
+import type { EventRow } from './detect-events';
+import { SIGNAL_LABEL, SIGNAL_UNIT } from './signals';
 
 /** The caution printed with every event list. */
 export const EVENT_CAUTION = 'Events are patterns in the data, not diagnoses.';

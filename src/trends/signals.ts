@@ -1,5 +1,5 @@
-import type { TrendSettings } from './settings.js';
-import type { TrendRow } from './trend-row.js';
+import type { TrendSettings } from '../settings';
+import type { TrendRow } from './trend-row';
 
 /** Trend columns watched for changes. */
 export type TrendSignal = 'vco2_ml_min' | 'petco2_mmhg' | 've_l_min' | 'vdvt_bohr' | 'fico2_mmhg' | 'ok_share' | 'delay_s';

@@ -5,7 +5,7 @@
 // Combinations that do not meet the limits yet are listed in KNOWN_SHORTFALLS and run as expected failures: they
 // fail this file as soon as they start to pass (then move them out of the list). docs/accuracy.md has the table.
 import { describe, expect, it } from 'vitest';
-import { PATTERNS, checkRate, runPattern } from './decimation.js';
+import { PATTERNS, checkRate, runPattern } from './decimation';
 
 /** pattern index:rate — measured shortfalls of the current analysis (docs/accuracy.md gives the numbers) */
 const KNOWN_SHORTFALLS = new Set<string>([

@@ -4,11 +4,11 @@
 // medians are compared with the simulator's truth and with the 1 kHz result.
 // Used by tests/accuracy/decimation.test.ts and printed as the README's accuracy table by
 // `npx tsx tests/accuracy/print-decimation.ts`.
-import { createAnalyser } from '../../src/analyse/analyser.js';
-import { quantile } from '../../src/analyse/stats.js';
-import { defaultSettings } from '../../src/settings.js';
-import { MMHG_PER_KPA, scenarioParams, simulateSignals, type SimParams } from '../../src/simulate/index.js';
-import type { BreathRow, SampleBlock } from '../../src/types.js';
+import { createAnalyser } from '../../src/analyse/analyser';
+import { quantile } from '../../src/numeric/stats';
+import { defaultSettings } from '../../src/settings';
+import { MMHG_PER_KPA, scenarioParams, simulateSignals, type SimParams } from '../../src/simulate/index';
+import type { BreathRow, SampleBlock } from '../../src/types';
 
 export interface Pattern {
   name: string;

@@ -1,5 +1,5 @@
 // Prints the sampling-rate sweep: `npx tsx tests/accuracy/print-decimation.ts [none|mmhg|kpa] [end|centre] [pattern]`.
-import { PATTERNS, checkRate, runPattern, type FlowStamp, type Rounding } from './decimation.js';
+import { PATTERNS, checkRate, runPattern, type FlowStamp, type Rounding } from './decimation';
 const rounding = (process.argv[2] ?? 'none') as Rounding;
 const stamp = (process.argv[3] ?? 'end') as FlowStamp;
 const only = process.argv[4];

@@ -1,5 +1,5 @@
 // Prints the accuracy sweep as a table: `npx tsx tests/accuracy/print-sweep.ts [count]`.
-import { checkLimits, runCombo, sweepCombos } from './sweep.js';
+import { checkLimits, runCombo, sweepCombos } from './sweep';
 const n = Number(process.argv[2] ?? 50);
 const keys = ['vd_aw_ml', 'petco2_mmhg', 'peco2_mmhg', 'slope3_mmhg_per_l', 'vdvt_enghoff'];
 let fails = 0;

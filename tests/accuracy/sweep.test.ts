@@ -5,7 +5,7 @@
 // model (src/simulate/MODEL.md); the limits are the analysis-core issue's acceptance criteria. Simulated data are
 // ground truth for the pipeline only, never for a formula (formulas are checked in tests/published).
 import { describe, expect, it } from 'vitest';
-import { checkLimits, runCombo, sweepCombos, type ComboResult } from './sweep.js';
+import { checkLimits, runCombo, sweepCombos, type ComboResult } from './sweep';
 
 const combos = sweepCombos(50);
 const results: ComboResult[] = [];

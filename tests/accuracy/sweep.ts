@@ -1,12 +1,12 @@
 // Shared accuracy sweep: seeded parameter combinations from the simulator through the full analysis, compared with
 // the simulator's truth. Used by the accuracy test (tests/accuracy/sweep.test.ts) and printable as a table with
 // `npx tsx tests/accuracy/print-sweep.ts`.
-import { createAnalyser } from '../../src/analyse/analyser.js';
-import { usableForSummary } from '../../src/analyse/quality.js';
-import { quantile } from '../../src/analyse/stats.js';
-import { defaultSettings } from '../../src/settings.js';
-import { scenarioParams, simulateSignals, type SimParams } from '../../src/simulate/index.js';
-import type { BreathRow } from '../../src/types.js';
+import { createAnalyser } from '../../src/analyse/analyser';
+import { usableForSummary } from '../../src/analyse/quality';
+import { quantile } from '../../src/numeric/stats';
+import { defaultSettings } from '../../src/settings';
+import { scenarioParams, simulateSignals, type SimParams } from '../../src/simulate/index';
+import type { BreathRow } from '../../src/types';
 
 export interface Combo {
   name: string;

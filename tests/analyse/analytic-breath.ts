@@ -1,6 +1,6 @@
 // Analytic breaths for decomposeBreath tests (not a test file): constant flow in and out, equal durations, so that the
 // expired volume is V = flow x time exactly; both CO2 signals (compensated and sensor reading) carry the same curve.
-import type { BreathSignals } from '../../src/analyse/decompose.js';
+import type { BreathSignals } from '../../src/analyse/decompose';
 
 /**
  * @param expiredCurve PCO2 (mmHg) as a function of expired volume (mL)

@@ -5,15 +5,15 @@
 // does not change either.
 import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
-import { decomposeBreath } from '../../src/analyse/decompose.js';
-import { analyseGas } from '../../src/gas/index.js';
-import { analyseText } from '../../src/pipeline/analyse-text.js';
-import { composeOutputs } from '../../src/report/outputs.js';
-import { defaultSettings } from '../../src/settings.js';
-import { computeTrends } from '../../src/trends/compute-trends.js';
-import { expectClose } from '../helpers/expect-close.js';
-import { makeBreath, makeSample } from '../gas/make-breath.js';
-import { breathFromCurve } from './analytic-breath.js';
+import { decomposeBreath } from '../../src/analyse/decompose';
+import { analyseGas } from '../../src/gas/index';
+import { analyseText } from '../../src/pipeline/analyse-text';
+import { composeOutputs } from '../../src/report/outputs';
+import { defaultSettings } from '../../src/settings';
+import { computeTrends } from '../../src/trends/compute-trends';
+import { expectClose } from '../helpers/expect-close';
+import { makeBreath, makeSample } from '../gas/make-breath';
+import { breathFromCurve } from './analytic-breath';
 
 const curveB = (v: number) => (v < 100 ? 0 : v < 200 ? (36 * (v - 100)) / 100 : 34 + 0.01 * v);
 

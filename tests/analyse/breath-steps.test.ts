@@ -10,9 +10,9 @@ import {
   sensorRange,
   type ExpirationSamples,
   type MonotoneCurve,
-} from '../../src/analyse/breath-integrals.js';
-import { createBreathWorkspace } from '../../src/analyse/breath-workspace.js';
-import type { BreathSignals } from '../../src/analyse/decompose.js';
+} from '../../src/analyse/breath-integrals';
+import { createBreathWorkspace } from '../../src/analyse/breath-workspace';
+import type { BreathSignals } from '../../src/analyse/decompose';
 import {
   areaAboveBase,
   endTidalPco2,
@@ -23,9 +23,9 @@ import {
   resampleOnVolumeGrid,
   riseAnchors,
   smoothedGridSlopes,
-} from '../../src/analyse/phase-geometry.js';
-import { defaultSettings } from '../../src/settings.js';
-import { expectClose } from '../helpers/expect-close.js';
+} from '../../src/analyse/phase-geometry';
+import { defaultSettings } from '../../src/settings';
+import { expectClose } from '../helpers/expect-close';
 
 /**
  * One breath at 100 Hz: inspiration 0-1 s at -0.5 L/s with inspired CO2 4 mmHg; expiration 1-2 s with a triangular

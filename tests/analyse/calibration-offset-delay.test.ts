@@ -2,15 +2,15 @@
 // Ground truth: simulated recordings (src/simulate, model in DEVELOPERS.md) and analytic signals whose answers are
 // derived here beside each check. Simulated data are ground truth for the pipeline only.
 import { describe, expect, it } from 'vitest';
-import { createAnalyser } from '../../src/analyse/analyser.js';
-import { calibrate, estimateFlowOffset } from '../../src/analyse/calibrate.js';
-import { inspirationReversalTime } from '../../src/analyse/flow-reversal.js';
-import { robustDelay } from '../../src/analyse/robust-delay.js';
-import { quantile } from '../../src/analyse/stats.js';
-import { defaultSettings } from '../../src/settings.js';
-import { scenarioParams, simulateSignals, type SimParams } from '../../src/simulate/index.js';
-import type { SampleBlock } from '../../src/types.js';
-import { expectClose } from '../helpers/expect-close.js';
+import { createAnalyser } from '../../src/analyse/analyser';
+import { calibrate, estimateFlowOffset } from '../../src/analyse/calibrate';
+import { inspirationReversalTime } from '../../src/analyse/flow-reversal';
+import { robustDelay } from '../../src/analyse/robust-delay';
+import { quantile } from '../../src/numeric/stats';
+import { defaultSettings } from '../../src/settings';
+import { scenarioParams, simulateSignals, type SimParams } from '../../src/simulate/index';
+import type { SampleBlock } from '../../src/types';
+import { expectClose } from '../helpers/expect-close';
 
 function simulate(base: string, overrides: Partial<SimParams>, seed: number): { block: SampleBlock; truth: Record<string, number>[] } {
   const t: number[] = [];

@@ -4,11 +4,11 @@
 // worked out by hand in the test names. The curves are laid out in time at a constant expiratory flow so that
 // V = flow x t exactly; both CO2 signals (compensated and sensor reading) carry the same curve.
 import { describe, expect, it } from 'vitest';
-import { decomposeBreath, type BreathSignals } from '../../src/analyse/decompose.js';
-import { fowlerDeadSpace } from '../../src/physiology/fowler-dead-space.js';
-import { vtco2FromArea } from '../../src/physiology/vtco2-from-area.js';
-import { defaultSettings } from '../../src/settings.js';
-import { expectClose } from '../helpers/expect-close.js';
+import { decomposeBreath, type BreathSignals } from '../../src/analyse/decompose';
+import { fowlerDeadSpace } from '../../src/physiology/fowler-dead-space';
+import { vtco2FromArea } from '../../src/physiology/vtco2-from-area';
+import { defaultSettings } from '../../src/settings';
+import { expectClose } from '../helpers/expect-close';
 
 function breathFromCurve(curve: (vMl: number) => number, vtMl = 500, rateHz = 1000, flowLps = 0.5): BreathSignals {
   const ti = vtMl / 1000 / flowLps; // inspiration and expiration of equal length

@@ -2,13 +2,13 @@
 // the last gas expired, computed by the model from its expired curve, src/simulate/breath-truth.ts) and against an
 // analytic breath whose two CO2 signals differ on purpose.
 import { describe, expect, it } from 'vitest';
-import { createAnalyser } from '../../src/analyse/analyser.js';
-import { decomposeBreath, type BreathSignals } from '../../src/analyse/decompose.js';
-import { median } from '../../src/analyse/stats.js';
-import { defaultSettings, type Settings } from '../../src/settings.js';
-import { scenarioParams, simulateSignals, type TruthBreath } from '../../src/simulate/index.js';
-import type { BreathRow } from '../../src/types.js';
-import { expectClose } from '../helpers/expect-close.js';
+import { createAnalyser } from '../../src/analyse/analyser';
+import { decomposeBreath, type BreathSignals } from '../../src/analyse/decompose';
+import { median } from '../../src/numeric/stats';
+import { defaultSettings, type Settings } from '../../src/settings';
+import { scenarioParams, simulateSignals, type TruthBreath } from '../../src/simulate/index';
+import type { BreathRow } from '../../src/types';
+import { expectClose } from '../helpers/expect-close';
 
 function analyseScenario(name: string, method: Settings['analysis']['petco2_method']): { rows: BreathRow[]; truth: TruthBreath[] } {
   const settings = defaultSettings();

@@ -6,10 +6,10 @@
 // read (14600 / 350) = 41.71). Bohr with PACO2 := PĀECO2 and the inspired term returns VDaw exactly:
 // (PA - PĒ) / (PA - PI) = VDaw / VT for PA = (A - PI VDaw)/(VT - VDaw), PĒ = A / VT (algebra).
 import { describe, it } from 'vitest';
-import { decomposeBreath } from '../../src/analyse/decompose.js';
-import { defaultSettings } from '../../src/settings.js';
-import { expectClose } from '../helpers/expect-close.js';
-import { breathFromCurve } from './analytic-breath.js';
+import { decomposeBreath } from '../../src/analyse/decompose';
+import { defaultSettings } from '../../src/settings';
+import { expectClose } from '../helpers/expect-close';
+import { breathFromCurve } from './analytic-breath';
 
 const curve = (v: number) => (v < 100 ? 4 : v < 200 ? 4 + (36 * (v - 100)) / 100 : 40);
 

@@ -3,8 +3,8 @@
 // with a lag, a line seen through an exact first-order sensor is recovered (common practice, no source).
 import { SimpleLinearRegression } from 'ml-regression';
 import { describe, it } from 'vitest';
-import { fitPhase3 } from '../../src/analyse/phase3-fit.js';
-import { expectClose } from '../helpers/expect-close.js';
+import { fitPhase3 } from '../../src/analyse/phase3-fit';
+import { expectClose } from '../helpers/expect-close';
 
 describe('fitPhase3', () => {
   it('equals ml-regression SimpleLinearRegression when tau = 0 (noisy data)', () => {

@@ -3,10 +3,10 @@
 // correlated with volume has nothing a line can explain (R² near 0); a noise-free line seen through an exact
 // first-order sensor is explained completely (R² = 1).
 import { describe, expect, it } from 'vitest';
-import { decomposeBreath, type BreathSignals } from '../../src/analyse/decompose.js';
-import { fitPhase3 } from '../../src/analyse/phase3-fit.js';
-import { defaultSettings } from '../../src/settings.js';
-import { expectClose } from '../helpers/expect-close.js';
+import { decomposeBreath, type BreathSignals } from '../../src/analyse/decompose';
+import { fitPhase3 } from '../../src/analyse/phase3-fit';
+import { defaultSettings } from '../../src/settings';
+import { expectClose } from '../helpers/expect-close';
 
 function lcgNoise(seed: number): () => number {
   let s = seed;

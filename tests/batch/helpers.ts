@@ -44,12 +44,16 @@ export function parseCsv(text: string): Record<string, string>[] {
     for (let i = 0; i < line.length; i++) {
       const c = line[i]!;
       if (q) {
-        if (c === '"' && line[i + 1] === '"') (cur += '"'), i++;
-        else if (c === '"') q = false;
+        if (c === '"' && line[i + 1] === '"') {
+          cur += '"';
+          i++;
+        } else if (c === '"') q = false;
         else cur += c;
       } else if (c === '"') q = true;
-      else if (c === ',') out.push(cur), (cur = '');
-      else cur += c;
+      else if (c === ',') {
+        out.push(cur);
+        cur = '';
+      } else cur += c;
     }
     out.push(cur);
     return out;

@@ -6,21 +6,31 @@
 import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
-import { createAnalyser } from '../../src/analyse/analyser';
-import type { BreathGeometry } from '../../src/analyse/decompose';
-import { readRecordingText } from '../../src/ingest/index';
-import { defaultSettings, SETTING_GROUPS } from '../../src/settings';
-import { applySettings, parseSettingsFile } from '../../src/settings-file';
-import type { BreathRow } from '../../src/types';
+import {
+  applySettings,
+  composeOutputs,
+  createAnalyser,
+  defaultSettings,
+  detExp,
+  detLog,
+  excludedStatus,
+  exclusionNote,
+  exportRows,
+  parseSettingsFile,
+  readRecordingText,
+  reasonSlug,
+  reviewedRows,
+  SETTING_GROUPS,
+  USER_EXCLUDED,
+  type BreathGeometry,
+  type BreathRow,
+} from '../../src/index';
 import { expectClose } from '../helpers/expect-close';
 import { fletcherRegions, fowlerAreas, polygonArea } from '../../web/breath-shapes';
 import { breathCurve, GeometryWriter } from '../../web/geometry-store';
-import { excludedStatus, exclusionNote, reasonSlug, reviewedRows, USER_EXCLUDED } from '../../web/review';
 import { changedKeys, changedSettingsFile, fieldSpecs, parseField, withSetting } from '../../web/settings-form';
 import { packRows, unpackRows } from '../../web/row-columns';
 import { SignalStore } from '../../web/signal-store';
-import { detExp, detLog } from '../../web/det-math';
-import { composeOutputs, exportRows } from '../../web/outputs';
 import { ROOT } from './harness';
 import { usableForSummary } from '../../src/analyse/quality';
 import { statusClass } from '../../web/palette';
@@ -202,7 +212,7 @@ describe('overview decimation', () => {
       let hi = -Infinity;
       for (let i = a; i < b; i++) {
         const v = Math.fround(f[i]!);
-        if (v === v) {
+        if (!Number.isNaN(v)) {
           lo = Math.min(lo, v);
           hi = Math.max(hi, v);
         }

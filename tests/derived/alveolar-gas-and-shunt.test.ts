@@ -1,13 +1,13 @@
 // Alveolar gas equation and venous admixture (shunt equation from oxygen contents). Equations: common practice, no
 // source. Not outside checks: the expected values are the equations worked by hand (derived here).
 import { describe, it } from 'vitest';
-import { expectClose } from '../helpers/expect-close.js';
+import { expectClose } from '../helpers/expect-close';
 import {
   alveolarGasPao2,
   oxygenContent,
   shuntFractionFromContents,
   shuntFractionFromSaturations,
-} from '../../src/physiology/index.js';
+} from '../../src/physiology/index';
 
 describe('alveolar gas equation', () => {
   // derived here: full PAO2 = FiO2 (PB - 47) - PaCO2 (FiO2 + (1 - FiO2)/R) = 0.4 x 713 - 40 x (0.4 + 0.75) = 239.2;

@@ -4,8 +4,8 @@
 // 60 in after Devine BJ 1974, "Gentamicin therapy", Drug Intell Clin Pharm 8:650-655. Not outside checks: the
 // expected values are the formulas worked by hand (derived here).
 import { describe, it } from 'vitest';
-import { expectClose } from '../helpers/expect-close.js';
-import { predictedBodyWeight } from '../../src/physiology/index.js';
+import { expectClose } from '../helpers/expect-close';
+import { predictedBodyWeight } from '../../src/physiology/index';
 
 describe('predicted body weight', () => {
   // derived here: 50 + 0.91 x 22.6 = 70.566; 45.5 + 0.91 x 7.6 = 52.416

@@ -8,8 +8,8 @@
 //   psychrolib 1.1.1 (an outside vapour pressure in our own formula), tolerance 5e-4 (ours).
 import psychrolib from 'psychrolib';
 import { describe, it } from 'vitest';
-import { expectClose } from '../helpers/expect-close.js';
-import { btpsFactor } from '../../src/physiology/index.js';
+import { expectClose } from '../helpers/expect-close';
+import { btpsFactor } from '../../src/physiology/index';
 
 psychrolib.SetUnitSystem(psychrolib.SI);
 const ashraeMmhg = (tempC: number): number => psychrolib.GetSatVapPres(tempC) / 133.3224; // Pa per mmHg: NIST SP 811

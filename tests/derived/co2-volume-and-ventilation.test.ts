@@ -2,8 +2,8 @@
 // 100 to 200 mL, VT 500 mL: area 14000 mmHg mL, derived here). Not published numbers: each expected value is worked
 // out by hand in the test name.
 import { describe, it } from 'vitest';
-import { expectClose } from '../helpers/expect-close.js';
-import { bohrDeadSpaceFraction, mixedExpiredPco2, vtco2FromArea } from '../../src/physiology/index.js';
+import { expectClose } from '../helpers/expect-close';
+import { bohrDeadSpaceFraction, mixedExpiredPco2, vtco2FromArea } from '../../src/physiology/index';
 
 describe('analytic flat-plateau curve, physiology parts', () => {
   const area = 14000; // mmHg mL: 100 mL x 20 mmHg (the rise) + 300 mL x 40 mmHg

@@ -4,13 +4,13 @@
 // deadspace-to-tidal volume ratio - a new equation", Anesthesiology 31. Not outside checks: the expected
 // numbers are the equations worked by hand (derived here), not outputs of the code under test.
 import { describe, it } from 'vitest';
-import { expectClose } from '../helpers/expect-close.js';
+import { expectClose } from '../helpers/expect-close';
 import {
   bohrDeadSpaceFraction,
   enghoffDeadSpaceFraction,
   endCapillaryPco2,
   shuntCorrectedEnghoff,
-} from '../../src/physiology/index.js';
+} from '../../src/physiology/index';
 
 describe('Bohr / Enghoff dead-space fractions', () => {
   // derived here: (40 - 28) / 40 = 0.300

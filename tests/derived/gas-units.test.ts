@@ -1,8 +1,8 @@
 // Pressure units and % -> mmHg conventions (common practice, no source: SI definitions and the dry / ambient
 // conventions); expected values worked out by hand in the test names.
 import { describe, it } from 'vitest';
-import { expectClose } from '../helpers/expect-close.js';
-import { MMHG_PER_KPA, mmhgPerPercent, percentToMmhg, waterVapourPressureMmhg } from '../../src/physiology/index.js';
+import { expectClose } from '../helpers/expect-close';
+import { MMHG_PER_KPA, mmhgPerPercent, percentToMmhg, waterVapourPressureMmhg } from '../../src/physiology/index';
 
 describe('gas units', () => {
   it('% -> mmHg at PB 760: 5.0 % dry -> 5 x (760 - 47) / 100 = 35.65, ambient -> 5 x 7.6 = 38.00 [common practice, no source]', () => {

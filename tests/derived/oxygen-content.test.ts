@@ -1,8 +1,8 @@
 // Oxygen content equation, CxO2 = k_Hb Hb SxO2 + k_dis PxO2 (common practice, no source). Not outside checks: the
 // expected values are the equation worked by hand (derived here).
 import { describe, it } from 'vitest';
-import { expectClose } from '../helpers/expect-close.js';
-import { oxygenContent } from '../../src/physiology/index.js';
+import { expectClose } from '../helpers/expect-close';
+import { oxygenContent } from '../../src/physiology/index';
 
 describe('oxygen content', () => {
   // derived here: 1.34 x 15 x 0.98 + 0.003 x 100 = 19.698 + 0.3 = 19.998; 1.39 x 15 x 0.98 + 0.31 = 20.743

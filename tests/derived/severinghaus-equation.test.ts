@@ -2,8 +2,8 @@
 // 1979, "Simple, accurate equations for human blood O2 dissociation computations", J Appl Physiol 46:599-602.
 // Not an outside check: the expected values are the equation worked by hand (derived here).
 import { describe, it } from 'vitest';
-import { expectClose } from '../helpers/expect-close.js';
-import { severinghausPo2, severinghausSaturation } from '../../src/physiology/index.js';
+import { expectClose } from '../helpers/expect-close';
+import { severinghausPo2, severinghausSaturation } from '../../src/physiology/index';
 
 describe('Severinghaus O2 dissociation curve', () => {
   // derived here: PO2 100: 23400 / 1015000 = 0.023054 -> 0.9775; PO2 40: 23400 / 70000 = 0.334286 -> 0.7495;

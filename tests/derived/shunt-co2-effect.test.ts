@@ -1,8 +1,8 @@
 // Effect of venous admixture on PaCO2 and on the CO2 gradient, linearised content mixing (derived here, docs/methods.md
 // "Derivations"). Not outside checks: the expected values are the formulas worked by hand.
 import { describe, it } from 'vitest';
-import { expectClose } from '../helpers/expect-close.js';
-import { DEFAULT_CO2_SLOPE_ML_PER_DL_PER_MMHG, shuntCo2Effect } from '../../src/physiology/index.js';
+import { expectClose } from '../helpers/expect-close';
+import { DEFAULT_CO2_SLOPE_ML_PER_DL_PER_MMHG, shuntCo2Effect } from '../../src/physiology/index';
 
 describe('shunt CO2 effect', () => {
   // derived here: PaCO2 - Pc'CO2 = s (PvCO2 - Pc'CO2) = 0.2 x 6

@@ -2,8 +2,8 @@
 // VDalv/VTalv = (PaCO2 - Pc'CO2)/PaCO2 with the Fick route s V'CO2 / (k 10 Q' (1 - s)), V'CO2 200 mL/min, k 0.67,
 // PaCO2 40. tests/published/niklason-2008.test.ts compares the same numbers with a published model's results.
 import { describe, it } from 'vitest';
-import { expectClose } from '../helpers/expect-close.js';
-import { shuntCo2Effect } from '../../src/physiology/index.js';
+import { expectClose } from '../helpers/expect-close';
+import { shuntCo2Effect } from '../../src/physiology/index';
 
 function shuntDeadSpaceFraction(shuntFraction: number, cardiacOutputLPerMin: number): number {
   const gradient = shuntCo2Effect({

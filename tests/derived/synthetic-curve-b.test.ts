@@ -5,7 +5,7 @@
 // docs/methods.md "Derivations"); the curve integration and the Fowler construction belong to the capnogram tests.
 // Not outside checks: every expected value is worked by hand (derived here).
 import { describe, it } from 'vitest';
-import { expectClose } from '../helpers/expect-close.js';
+import { expectClose } from '../helpers/expect-close';
 import {
   avdsf,
   bohrDeadSpaceFraction,
@@ -13,7 +13,7 @@ import {
   fletcherAreas,
   meanAlveolarExpiredPco2,
   mixedExpiredPco2,
-} from '../../src/physiology/index.js';
+} from '../../src/physiology/index';
 
 const AREA = 13050;
 const VT = 500;

@@ -4,9 +4,9 @@
 // = 0.125, and predicted body weight male 175 cm 50 + 0.91 x 22.6 = 70.57 kg (ARDS Network 2000 formula, N Engl J Med
 // 342:1301-1308).
 import { describe, expect, it } from 'vitest';
-import { analyseGas } from '../../src/gas/index.js';
-import { expectClose } from '../helpers/expect-close.js';
-import { makeBreath, makeSample } from './make-breath.js';
+import { analyseGas } from '../../src/gas/index';
+import { expectClose } from '../helpers/expect-close';
+import { makeBreath, makeSample } from './make-breath';
 
 // Three ok breaths in the window whose per-field medians are the curve B values, plus decoys that must be ignored:
 // a non-ok breath in the window and ok breaths outside it, all with wild values.

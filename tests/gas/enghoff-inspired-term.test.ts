@@ -3,9 +3,9 @@
 // included when bohr_inspired_term is on. Expected values derived here: PaCO2 40, PĒCO2 26, PICO2 4 ->
 // 14 / 36 = 0.38889; without the inspired term 14 / 40 = 0.35.
 import { describe, it } from 'vitest';
-import { analyseGas, applyArterialPco2 } from '../../src/gas/index.js';
-import { expectClose } from '../helpers/expect-close.js';
-import { makeBreath, makeSample } from './make-breath.js';
+import { analyseGas, applyArterialPco2 } from '../../src/gas/index';
+import { expectClose } from '../helpers/expect-close';
+import { makeBreath, makeSample } from './make-breath';
 
 const breaths = () =>
   [50, 60, 70].map((t, i) =>

@@ -1,8 +1,8 @@
 // PaCO2 between blood gases: PETCO2 + most recent gradient, with a band from the observed gradients.
 import { describe, expect, it } from 'vitest';
-import { analyseGas, estimatePaco2 } from '../../src/gas/index.js';
-import { expectClose } from '../helpers/expect-close.js';
-import { breathSeries, makeBreath, makeSample } from './make-breath.js';
+import { analyseGas, estimatePaco2 } from '../../src/gas/index';
+import { expectClose } from '../helpers/expect-close';
+import { breathSeries, makeBreath, makeSample } from './make-breath';
 
 // PETCO2 alternates 34 / 36 so each estimate must follow its own breath.
 const BREATHS = breathSeries(0, 200, { peco2_mmhg: 25, vt_exp_ml: 500, vd_aw_ml: 150 }).map((b, i) => ({

@@ -1,8 +1,8 @@
 // Flag when a new blood gas shows the PaCO2-PETCO2 gradient changed by more than the setting.
 import { describe, expect, it } from 'vitest';
-import { analyseGas } from '../../src/gas/index.js';
-import { expectClose } from '../helpers/expect-close.js';
-import { breathSeries, makeSample } from './make-breath.js';
+import { analyseGas } from '../../src/gas/index';
+import { expectClose } from '../helpers/expect-close';
+import { breathSeries, makeSample } from './make-breath';
 
 const BREATHS = breathSeries(0, 200, { petco2_mmhg: 35, peco2_mmhg: 25, vt_exp_ml: 500, vd_aw_ml: 150 });
 const SAMPLES = [

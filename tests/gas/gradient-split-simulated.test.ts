@@ -7,12 +7,12 @@
 // recover shunt fraction, gradient and both parts from these inputs and its own breath analysis.
 // Limits (ours): shunt fraction ±0.02, gradient and its parts ±0.6 mmHg.
 import { describe, expect, it } from 'vitest';
-import { createAnalyser } from '../../src/analyse/analyser.js';
-import { quantile } from '../../src/analyse/stats.js';
-import { analyseGas, type GasSample } from '../../src/gas/index.js';
-import { alveolarGasPao2, oxygenContent, severinghausPo2, severinghausSaturation } from '../../src/physiology/index.js';
-import { defaultSettings } from '../../src/settings.js';
-import { scenarioParams, simulateSignals, type TruthBreath } from '../../src/simulate/index.js';
+import { createAnalyser } from '../../src/analyse/analyser';
+import { quantile } from '../../src/numeric/stats';
+import { analyseGas, type GasSample } from '../../src/gas/index';
+import { alveolarGasPao2, oxygenContent, severinghausPo2, severinghausSaturation } from '../../src/physiology/index';
+import { defaultSettings } from '../../src/settings';
+import { scenarioParams, simulateSignals, type TruthBreath } from '../../src/simulate/index';
 
 const HB = 14;
 const FIO2 = 0.5;

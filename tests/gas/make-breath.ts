@@ -1,7 +1,7 @@
 // Hand-built BreathRow values for the blood-gas tests (not a test file). Unset numeric fields are NaN.
-import { blankBreathRow } from '../../src/metrics/registry.js';
-import type { BreathRow } from '../../src/types.js';
-import type { GasSample } from '../../src/gas/index.js';
+import { blankBreathRow } from '../../src/metrics/registry';
+import type { BreathRow } from '../../src/types';
+import type { GasSample } from '../../src/gas/index';
 
 export function makeBreath(fields: Partial<BreathRow> & { t_start_s: number }): BreathRow {
   return { ...blankBreathRow(), breath: 0, t_end_s: fields.t_start_s + 4, ...fields };

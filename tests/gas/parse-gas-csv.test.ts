@@ -1,6 +1,6 @@
 // Reading the blood-gas CSV: valid rows, rejected rows with line/column reasons, fatal file problems.
 import { describe, expect, it } from 'vitest';
-import { parseGasCsv } from '../../src/gas/index.js';
+import { parseGasCsv } from '../../src/gas/index';
 
 describe('parseGasCsv', () => {
   it('reads required and optional columns, NaN for empty optional cells, sorted by time', () => {

@@ -1,7 +1,7 @@
 // Which breaths a blood-gas sample is matched with: ok breaths entirely inside the window before the sample.
 import { describe, expect, it } from 'vitest';
-import { selectWindowBreaths } from '../../src/gas/index.js';
-import { makeBreath } from './make-breath.js';
+import { selectWindowBreaths } from '../../src/gas/index';
+import { makeBreath } from './make-breath';
 
 describe('selectWindowBreaths', () => {
   const breaths = [

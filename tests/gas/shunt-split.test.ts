@@ -5,9 +5,9 @@
 // k 0.67 -> 1.49 mmHg), gradient PaCO2 40 - PETCO2 35 = 5. The equations: common practice, no source, and the
 // mixing derivation in docs/methods.md.
 import { describe, expect, it } from 'vitest';
-import { analyseGas } from '../../src/gas/index.js';
-import { expectClose } from '../helpers/expect-close.js';
-import { breathSeries, makeSample } from './make-breath.js';
+import { analyseGas } from '../../src/gas/index';
+import { expectClose } from '../helpers/expect-close';
+import { breathSeries, makeSample } from './make-breath';
 
 const BREATHS = breathSeries(50, 9, { petco2_mmhg: 35, peco2_mmhg: 26, vt_exp_ml: 500, vd_aw_ml: 150, vdvt_bohr: 0.3, vtco2_ml: 20, rr_bpm: 10 });
 

@@ -2,9 +2,9 @@
 // and PB 760 mmHg is 1.091 (the spirometry BTPS table, common practice, no source; formula derived in docs/methods.md);
 // dry gas (ATPD) uses no water vapour at ambient temperature.
 import { describe, expect, it } from 'vitest';
-import { readRecordingText } from '../../src/ingest/index.js';
-import { defaultSettings } from '../../src/settings.js';
-import { expectClose } from '../helpers/expect-close.js';
+import { readRecordingText } from '../../src/ingest/index';
+import { defaultSettings } from '../../src/settings';
+import { expectClose } from '../helpers/expect-close';
 
 const text = 'time_s,flow_lps,co2_mmhg\n' + Array.from({ length: 200 }, (_, i) => `${(i / 100).toFixed(2)},${(0.5 * Math.sin(i / 10)).toFixed(4)},${(20 + 10 * Math.sin(i / 10)).toFixed(2)}`).join('\n') + '\n';
 

@@ -3,13 +3,13 @@
 import { existsSync } from 'node:fs';
 import { fileURLToPath } from 'node:url';
 import { describe, expect, it } from 'vitest';
-import { isInputError } from '../../src/ingest/errors.js';
+import { isInputError } from '../../src/ingest/errors';
 import { createHash } from 'node:crypto';
 import { readFileSync } from 'node:fs';
-import { ReaderThread } from '../../src/node/reader-thread.js';
-import { readRecordingFile } from '../../src/node/read-recording.js';
-import { defaultSettings } from '../../src/settings.js';
-import type { SampleBlock } from '../../src/types.js';
+import { ReaderThread } from '../../src/node/reader-thread';
+import { readRecordingFile } from '../../src/node/read-recording';
+import { defaultSettings } from '../../src/settings';
+import type { SampleBlock } from '../../src/types';
 
 const worker = fileURLToPath(new URL('../../dist/read-worker.cjs', import.meta.url));
 const sample = fileURLToPath(new URL('../../sample-waveforms/child-sidestream.csv', import.meta.url));

@@ -3,8 +3,8 @@
 // A drift guard between code and documentation (common practice, no source).
 import { existsSync, readdirSync, readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
-import { expectedBody, findMetricsBlocks, metricsMarkdown, updateMetricsBlocks } from '../../src/metrics/markdown.js';
-import { BREATH_METRICS, METRIC_TABLES, REFERENCES, type MetricTableName } from '../../src/metrics/registry.js';
+import { expectedBody, findMetricsBlocks, metricsMarkdown, updateMetricsBlocks } from '../../src/metrics/markdown';
+import { BREATH_METRICS, METRIC_TABLES, REFERENCES, type MetricTableName } from '../../src/metrics/registry';
 
 const root = new URL('../../', import.meta.url);
 const docsDir = new URL('docs/', root);

@@ -2,15 +2,15 @@
 // point outward). A drift guard between code and its description (common practice, no source).
 import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
-import { parseGasCsv } from '../../src/gas/index.js';
+import { parseGasCsv } from '../../src/gas/index';
 import {
   BREATH_COLUMNS, BREATH_METRICS, DERIVED, METRIC_TABLES, NO_SOURCE, REFERENCES, SUMMARY_METRICS, TERMINAL_SUMMARY_ROWS,
   VIEWER_BREATH_GROUPS, VIEWER_SUMMARY_ROWS, blankBreathRow, breathMetric,
-} from '../../src/metrics/registry.js';
-import { analyseText } from '../../src/pipeline/analyse-text.js';
-import { composeOutputs } from '../../src/report/outputs.js';
-import { formatSummaryText } from '../../src/report/summary.js';
-import { defaultSettings } from '../../src/settings.js';
+} from '../../src/metrics/registry';
+import { analyseText } from '../../src/pipeline/analyse-text';
+import { composeOutputs } from '../../src/report/outputs';
+import { formatSummaryText } from '../../src/report/summary';
+import { defaultSettings } from '../../src/settings';
 
 const settings = defaultSettings();
 const text = readFileSync(new URL('../../sample-waveforms/adult-healthy.csv', import.meta.url), 'utf8');

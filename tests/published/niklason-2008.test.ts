@@ -4,8 +4,8 @@
 // VDalv/VTalv taken as (PaCO2 - Pc'CO2)/PaCO2 with V'CO2 200 mL/min, k 0.67, PaCO2 40 (our choices). The hand
 // arithmetic of the approximation is in tests/derived/shunt-dead-space-arithmetic.test.ts.
 import { describe, it } from 'vitest';
-import { expectClose } from '../helpers/expect-close.js';
-import { shuntCo2Effect } from '../../src/physiology/index.js';
+import { expectClose } from '../helpers/expect-close';
+import { shuntCo2Effect } from '../../src/physiology/index';
 
 const PACO2 = 40;
 function shuntDeadSpaceFraction(shuntFraction: number, cardiacOutputLPerMin: number): number {

@@ -4,8 +4,8 @@
 // = 1.013 25 E+05 Pa. The code takes its factor from mathjs (1 mmHg = 133.322 Pa), 2.9e-6 relative from NIST's;
 // tolerance rel 1e-5 (ours: covers that difference, catches any wrong factor such as 7.5 or 7.6).
 import { describe, it } from 'vitest';
-import { expectClose } from '../helpers/expect-close.js';
-import { MMHG_PER_KPA } from '../../src/physiology/index.js';
+import { expectClose } from '../helpers/expect-close';
+import { MMHG_PER_KPA } from '../../src/physiology/index';
 
 const PA_PER_MMHG = 133.3224; // NIST SP 811 (2008), Appendix B
 const PA_PER_ATM = 101325; // NIST SP 811 (2008), Appendix B

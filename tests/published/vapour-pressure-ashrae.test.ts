@@ -5,8 +5,8 @@
 // or a wrong unit factor moves the value by far more).
 import psychrolib from 'psychrolib';
 import { describe, it } from 'vitest';
-import { expectClose } from '../helpers/expect-close.js';
-import { waterVapourPressureMmhg } from '../../src/physiology/index.js';
+import { expectClose } from '../helpers/expect-close';
+import { waterVapourPressureMmhg } from '../../src/physiology/index';
 
 psychrolib.SetUnitSystem(psychrolib.SI);
 const PA_PER_MMHG = 133.3224; // NIST SP 811 (2008), Appendix B

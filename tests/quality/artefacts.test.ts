@@ -3,11 +3,11 @@
 // events (rebreathing, leak, clipping, tiny breaths, one odd breath) or manipulations of the sampled signals (a delay
 // jump, heavy noise, missing rows). Thresholds are the documented defaults in src/settings.ts.
 import { describe, expect, it } from 'vitest';
-import { createAnalyser } from '../../src/analyse/analyser.js';
-import { defaultSettings } from '../../src/settings.js';
-import { concatBlocks, scenarioParams, simulateRecording, type SimParams } from '../../src/simulate/index.js';
-import type { BreathRow, SampleBlock } from '../../src/types.js';
-import { expectClose } from '../helpers/expect-close.js';
+import { createAnalyser } from '../../src/analyse/analyser';
+import { defaultSettings } from '../../src/settings';
+import { concatBlocks, scenarioParams, simulateRecording, type SimParams } from '../../src/simulate/index';
+import type { BreathRow, SampleBlock } from '../../src/types';
+import { expectClose } from '../helpers/expect-close';
 
 const ONSET = 90;
 

@@ -4,17 +4,17 @@
 // is an outside reference for the pipeline (src/simulate/MODEL.md), not for a formula. Clipping at a capped reading
 // stays an exclusion.
 import { describe, expect, it } from 'vitest';
-import { createAnalyser } from '../../src/analyse/analyser.js';
-import { quantile } from '../../src/analyse/stats.js';
-import { breathQuality, co2GridStep, statusOf, usableForSummary } from '../../src/analyse/quality.js';
-import { buildSummary, formatSummaryText, recordSettings, type InputSummary, type Summary } from '../../src/report/summary.js';
-import { defaultSettings } from '../../src/settings.js';
-import { MMHG_PER_KPA, scenarioParams, simulateSignals, type SimParams } from '../../src/simulate/index.js';
-import type { BreathRow } from '../../src/types.js';
-import { selectWindowBreaths } from '../../src/gas/index.js';
-import { computeTrends } from '../../src/trends/compute-trends.js';
-import { checkLimits, type Combo } from '../accuracy/sweep.js';
-import { breathRow } from '../trends/make-row.js';
+import { createAnalyser } from '../../src/analyse/analyser';
+import { quantile } from '../../src/numeric/stats';
+import { breathQuality, co2GridStep, statusOf, usableForSummary } from '../../src/analyse/quality';
+import { buildSummary, formatSummaryText, recordSettings, type InputSummary, type Summary } from '../../src/report/summary';
+import { defaultSettings } from '../../src/settings';
+import { MMHG_PER_KPA, scenarioParams, simulateSignals, type SimParams } from '../../src/simulate/index';
+import type { BreathRow } from '../../src/types';
+import { selectWindowBreaths } from '../../src/gas/index';
+import { computeTrends } from '../../src/trends/compute-trends';
+import { checkLimits, type Combo } from '../accuracy/sweep';
+import { breathRow } from '../trends/make-row';
 
 const INPUT: InputSummary = { file: 'simulated', rows: 0, rows_used: 0, rows_skipped: 0, skipped_by_reason: {}, skipped_examples: [] };
 const TRUTH_KEYS = ['vd_aw_ml', 'petco2_mmhg', 'peco2_mmhg', 'slope3_mmhg_per_l', 'vdvt_enghoff', 'vtco2_ml'] as const;

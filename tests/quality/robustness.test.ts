@@ -4,11 +4,11 @@
 // (rows = rows_used + rows_skipped) or fails with a clear one-line error of a known kind.
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
-import { AnalysisInputError } from '../../src/analyse/analyser.js';
-import { isInputError } from '../../src/ingest/index.js';
-import { analyseText } from '../../src/pipeline/analyse-text.js';
-import { defaultSettings } from '../../src/settings.js';
-import { scenarioParams, writeRecordingCsv } from '../../src/simulate/index.js';
+import { AnalysisInputError } from '../../src/analyse/analyser';
+import { isInputError } from '../../src/ingest/index';
+import { analyseText } from '../../src/pipeline/analyse-text';
+import { defaultSettings } from '../../src/settings';
+import { scenarioParams, writeRecordingCsv } from '../../src/simulate/index';
 
 function baseCsv(): string {
   let text = '';

@@ -3,7 +3,7 @@
 // "ventilation reaching alveoli" form]`.
 import { describe, expect, it } from 'vitest';
 import { computeTrends } from '../../src/trends/compute-trends';
-import { DEFAULT_TRENDS } from '../../src/trends/settings';
+import { DEFAULT_TRENDS } from '../../src/settings';
 import { TREND_COLUMNS } from '../../src/trends/trend-row';
 import { expectClose } from '../helpers/expect-close';
 import { breathRow } from './make-row';

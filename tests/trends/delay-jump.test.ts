@@ -2,10 +2,10 @@
 // rebreathing, although the misaligned CO2 lands on the inspiratory side (acceptance: "a sudden delay change ->
 // sensor"). Simulated child on a sidestream sensor, CO2 delayed 0.6 s more from 10 min on.
 import { describe, expect, it } from 'vitest';
-import { createAnalyser } from '../../src/analyse/analyser.js';
-import { trendsAndEvents } from '../../src/report/trends-events.js';
-import { defaultSettings } from '../../src/settings.js';
-import { concatBlocks, scenarioParams, simulateRecording } from '../../src/simulate/index.js';
+import { createAnalyser } from '../../src/analyse/analyser';
+import { trendsAndEvents } from '../../src/report/trends-events';
+import { defaultSettings } from '../../src/settings';
+import { concatBlocks, scenarioParams, simulateRecording } from '../../src/simulate/index';
 
 describe('delay jump', () => {
   it('is found within 2 minutes and named sensor', () => {

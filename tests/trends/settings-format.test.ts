@@ -3,7 +3,8 @@ import { describe, expect, it } from 'vitest';
 import type { EventRow } from '../../src/trends/detect-events';
 import { EVENT_COLUMNS } from '../../src/trends/detect-events';
 import { clockText, formatEventLine } from '../../src/trends/format-event';
-import { DEFAULT_TRENDS, trendSettings, trendSettingsSchema } from '../../src/trends/settings';
+import { DEFAULT_TRENDS } from '../../src/settings';
+import { trendSettings, trendSettingsSchema } from '../../src/trends/settings';
 
 describe('trend settings', () => {
   it('partial and strict: known keys pass, unknown keys and wrong types are refused', () => {

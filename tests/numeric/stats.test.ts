@@ -2,7 +2,7 @@
 // Hyndman & Fan 1996, "Sample quantiles in statistical packages", definition 7), bit for bit, sign of zero included.
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
-import { median, quantile } from '../../src/analyse/stats';
+import { median, quantile } from '../../src/numeric/stats';
 
 /** the definition: sort the finite values, interpolate between order statistics floor(h) and floor(h) + 1 */
 function sortedQuantile(values: number[], q: number): number {

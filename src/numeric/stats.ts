@@ -1,20 +1,14 @@
 // Small robust statistics used throughout the analysis. NaN values are skipped (d3 convention).
 
-const NEG_ZERO = -1 * 0;
-const NEG_INF = -1 * Infinity;
-
 /** working copy for quantile (grown as needed, reused: the analysis takes ~10^5 quantiles per day of recording) */
 let work = new Float64Array(64);
 
 /**
  * Quantile by linear interpolation between order statistics (R type 7, numpy's default). NaN when empty.
  * The two order statistics are found by selection (Hoare 1961, "Algorithm 65: FIND") on a copy, O(n) instead of a
- * full sort; the result is the same number a sort gives, sign of zero included (tests/analyse/stats.test.ts).
+ * full sort; the result is the same number a sort gives, sign of zero included (tests/numeric/stats.test.ts).
  */
 export function quantile(values: ArrayLike<number>, q: number): number {
-  // Straight-line on purpose: every statement runs on every call. V8 compiles code that has not run yet into a
-  // bail-out, and such bail-outs in an already optimised function repeat on every call (seen here: hundreds per
-  // recording when small and large inputs took different branches).
   if (work.length < values.length) work = new Float64Array(Math.max(values.length, 2 * work.length));
   const a = work;
   let n = 0;
@@ -34,16 +28,9 @@ export function quantile(values: ArrayLike<number>, q: number): number {
   if (hi === lo) y = x;
   // a sort puts -0 before +0; comparisons do not see the difference, so settle the sign of a zero by counting
   let below = 0;
-  // (1 / v === -Infinity only for v = -0 among values >= 0; both comparisons run on every value)
-  for (let i = 0; i < n; i++) {
-    const isNeg = a[i]! < 0;
-    const isNegZero = 1 / a[i]! === NEG_INF;
-    if (isNeg || isNegZero) below++;
-  }
-  const xNeg = lo < below;
-  const yNeg = hi < below;
-  if (x === 0) x = xNeg ? NEG_ZERO : 0;
-  if (y === 0) y = yNeg ? NEG_ZERO : 0;
+  for (let i = 0; i < n; i++) if (a[i]! < 0 || Object.is(a[i], -0)) below++;
+  if (x === 0) x = lo < below ? -0 : 0;
+  if (y === 0) y = hi < below ? -0 : 0;
   return x + (h - lo) * (y - x);
 }
 
@@ -157,6 +144,6 @@ export function medianPositiveStep(t: ArrayLike<number>, max: number): number {
 /** Number of values that are not NaN. */
 export function countFinite(x: ArrayLike<number>): number {
   let n = 0;
-  for (let i = 0; i < x.length; i++) if (x[i]! === x[i]!) n++;
+  for (let i = 0; i < x.length; i++) if (!Number.isNaN(x[i]!)) n++;
   return n;
 }
