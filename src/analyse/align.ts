@@ -1,12 +1,12 @@
 // Time alignment of CO2 to flow and compensation of the CO2 sensor's first-order response.
 //
-// Sensor model (primer 9.2): y' = (x - y) / tau, x = CO2 at the sampling point, y = reading. Between two samples,
+// Sensor model (first order; common practice, no source): y' = (x - y) / tau, x = CO2 at the sampling point, y = reading. Between two samples,
 // with the input over the interval seen as one value, the exact discrete solution is
 //   y_n = beta y_{n-1} + alpha x_n,   beta = exp(-dt/tau), alpha = 1 - beta,
 // so the inverse  x_n = (y_n - beta y_{n-1}) / alpha  recovers the input as a weighted mean over the last interval,
 // centred m = tau - dt beta / alpha before t_n (exact mean of the weights exp(-u/tau) on [0, dt]). The inverse
 // amplifies noise by about 1/alpha, so it is followed by a symmetric [1 2 1]/4 smoother (no time shift).
-// This is the regularised first-order inverse of primer 9.2 (common practice, no source); documented in DEVELOPERS.md.
+// This is a regularised first-order inverse (common practice, no source; the discrete solution is derived here).
 //
 // Two aligned CO2 signals come out:
 //   fast: the compensated signal (used for phase II geometry, Fowler areas, integrals and end-tidal values);

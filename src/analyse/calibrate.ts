@@ -269,7 +269,7 @@ function firstAfter(sorted: number[], x: number): number | null {
 
 /**
  * Coarse delay when the sign is known and the edges are unclear: the lag that puts the least CO2 on the inspiratory
- * side (primer 9.3, method C: common practice, no source), shortest lag among near-equal scores.
+ * side (common practice, no source), shortest lag among near-equal scores.
  */
 function lagByInspiredCo2(flow: Float64Array, co2: Float64Array, dt: number, thr: number, sign: 1 | -1, lags: number[]): number {
   const base = quantile(co2, 0.02);

@@ -1,9 +1,9 @@
 // Inspiratory CO2 downstroke fit: transport delay and sensor response time from one breath.
 //
 // At the start of inspiration fresh gas sweeps the sampling point, so the true CO2 there drops almost as a step at
-// the flow reversal (primer 9.3, method B). A first-order sensor shows that step as
+// the flow reversal (common practice, no source). A first-order sensor shows that step as
 //   P(t) = P_lo + (P_hi - P_lo) * exp(-(t - t0) / tau)      for t >= t0
-// (primer 9.2: first-order model, 10-90 % rise time = ln 9 x tau; published relation: Miller's Anesthesia 6th ed.).
+// (first-order model; 10-90 % rise time = ln 9 x tau, derived here: exp(-t/tau) falls from 0.9 to 0.1 in tau ln 9).
 // Taking q = (P - P_lo)/(P_hi - P_lo), ln q is linear in t with slope -1/tau and reaches 0 at t0, so a straight-line
 // fit of ln q over the falling samples (q between 0.85 and 0.12) gives both tau and t0; the transport delay of this
 // breath is t0 - t_reversal. Method: common practice, no source (least-squares fit of the first-order step response).

@@ -4,7 +4,7 @@
 // zero-flow periods (inspiratory pause, end-expiratory rest) and small oscillations do not toggle the phase.
 // A phase whose volume is below a minimum (fraction of the typical tidal volume) or whose duration is below
 // min_phase_s is treated as a ripple: it is merged back into the surrounding phase (cardiogenic oscillations,
-// valve chatter, double-triggering). Primer section 1, steps 3-6: common practice, no source.
+// valve chatter, double-triggering). Common practice, no source.
 // A breath runs from one accepted inspiration start to the next and contains one expiration start.
 
 /**

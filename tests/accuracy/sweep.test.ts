@@ -1,8 +1,8 @@
-// Accuracy of the whole analysis against simulated recordings with known truth (issue 2 acceptance, issue 3 sweep).
+// Accuracy of the whole analysis against simulated recordings with known truth (limits in docs/accuracy.md).
 // 50 seeded combinations across adult / child / infant volumes, square (volume control), decelerating (pressure
 // control) and spontaneous flow, inspiratory pause, mainstream and sidestream sensors (delay, 10-90 % rise time up to
 // 60 ms mainstream and 150 ms sidestream), CO2 and flow noise, and rebreathing. Truth is the simulator's noise-free
-// model (src/simulate/MODEL.md); the limits are the analysis-core issue's acceptance criteria. Simulated data are
+// model (src/simulate/MODEL.md); the limits are those of docs/accuracy.md. Simulated data are
 // ground truth for the pipeline only, never for a formula (formulas are checked in tests/published).
 import { describe, expect, it } from 'vitest';
 import { checkLimits, runCombo, sweepCombos, type ComboResult } from './sweep';
