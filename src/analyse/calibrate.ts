@@ -310,39 +310,55 @@ export function breathBounds(t: ArrayLike<number>, flow: ArrayLike<number>, thr:
   return out;
 }
 
-export function calibrate(
-  t: Float64Array,
-  flowFile: Float64Array,
-  co2: Float64Array,
-  settings: Settings,
-): Calibration {
+/**
+ * Calibration of one recording from its first minutes: sign of expiration, flow offset, transport delay and sensor
+ * response, each given (then only recorded) or estimated, with notes that say what was assumed.
+ */
+export function calibrate(t: Float64Array, flowFile: Float64Array, co2: Float64Array, settings: Settings): Calibration {
   const a = settings.analysis;
   const notes: string[] = [];
   const dt = medianStep(t, 5000);
-
   const offsetGiven = a.flow_offset_lps !== null;
-  let offset = offsetGiven ? a.flow_offset_lps! : 0;
-  let offsetFound = offsetGiven;
-  let offsetSource: OffsetSource | 'given' | 'none' = offsetGiven ? 'given' : 'none';
-  let offsetUncertainty = NaN;
-  const flow = shifted(flowFile, offset);
+  const flow = shifted(flowFile, offsetGiven ? a.flow_offset_lps! : 0);
   const peak = quantile(absValues(flow), 0.95);
   const thr = a.flow_threshold_fraction * peak;
-
-  const signGiven = settings.ingest.expiration !== null;
-  const delayGiven = a.delay_s !== null;
-  const signs: (1 | -1)[] = signGiven ? [settings.ingest.expiration === 'negative' ? -1 : 1] : [1, -1];
   // typical tidal volume (sign-independent: volumes of the larger flow excursions)
   const typicalVt = typicalTidalVolume(t, flow, thr);
   const minVol = Number.isFinite(typicalVt) ? a.min_volume_fraction * typicalVt : 0;
-  const edges = signAndLagFromEdges(t, flow, co2, thr, minVol, a.min_phase_s, signs);
+  const signed = inferSign(t, flow, co2, settings, { dt, thr, minVol }, notes);
+  scale(flow, signed.sign);
+  const offset = correctOffset(t, flow, signed.sign, settings, { thr, minVol }, notes);
+  const timing = estimateTiming(t, flow, co2, settings, { dt, thr, minVol, coarseLag: signed.coarseLag }, notes);
+  return {
+    sign: signed.sign,
+    sign_origin: settings.ingest.expiration !== null ? 'given' : 'inferred',
+    ...offset,
+    ...timing,
+    peak_flow_lps: peak,
+    typical_vt_ml: typicalVt,
+    notes,
+  };
+}
+
+interface Grid {
+  dt: number;
+  thr: number;
+  minVol: number;
+}
+
+/** Sign of expiration (given, or from the CO2 edges) and the coarse delay those edges give. */
+function inferSign(t: Float64Array, flow: Float64Array, co2: Float64Array, settings: Settings, grid: Grid, notes: string[]): { sign: 1 | -1; coarseLag: number } {
+  const a = settings.analysis;
+  const signGiven = settings.ingest.expiration !== null;
+  const signs: (1 | -1)[] = signGiven ? [settings.ingest.expiration === 'negative' ? -1 : 1] : [1, -1];
+  const edges = signAndLagFromEdges(t, flow, co2, grid.thr, grid.minVol, a.min_phase_s, signs);
   let sign: 1 | -1 = signs[0]!;
   let coarseLag = 0;
   if (edges) {
     sign = edges.sign;
     coarseLag = edges.lag;
   }
-  if (!edges && !delayGiven) coarseLag = lagByInspiredCo2(flow, co2, dt, thr, sign, lagGrid(dt, a.max_delay_s));
+  if (!edges && a.delay_s === null) coarseLag = lagByInspiredCo2(flow, co2, grid.dt, grid.thr, sign, lagGrid(grid.dt, a.max_delay_s));
   if (!signGiven) {
     if (edges) {
       notes.push(
@@ -352,36 +368,63 @@ export function calibrate(
       );
     } else notes.push('expiration sign could not be inferred from the CO2 edges; assumed positive: give --expiration');
   }
-  scale(flow, sign);
-  if (!offsetGiven) {
-    const bounds = breathBounds(t, flow, thr, minVol, a.min_phase_s);
-    const est = estimateFlowOffset(t, flow, decaySpans(t, flow, bounds), bounds.length);
-    if (est) {
-      offset = sign * est.offset; // in the file's sign convention
-      offsetFound = true;
-      offsetSource = est.source;
-      offsetUncertainty = est.uncertainty_lps;
-      subtract(flow, est.offset);
-    } else {
-      notes.push(
-        'no phase end settles to a steady flow (end-inspiratory pause or end-expiratory rest): flow offset not corrected; set analysis.flow_offset_lps in a settings file if it is known',
-      );
-    }
-  }
+  return { sign, coarseLag };
+}
 
-  // per-breath CO2 downstrokes: the sensor's time constant and the transport delay (densest cluster of the
-  // per-breath delays; w: two sample intervals, at least 10 ms)
-  const fits = fallFits(t, flow, co2, breathBounds(t, flow, thr, minVol, a.min_phase_s), delayGiven ? a.delay_s! : coarseLag);
+/** The flow offset (given, or estimated from the settled phase ends and removed from `flow`, expiration positive). */
+function correctOffset(
+  t: Float64Array,
+  flow: Float64Array,
+  sign: 1 | -1,
+  settings: Settings,
+  grid: Pick<Grid, 'thr' | 'minVol'>,
+  notes: string[],
+): Pick<Calibration, 'offset_lps' | 'offset_origin' | 'offset_source' | 'offset_uncertainty_lps'> {
+  const a = settings.analysis;
+  if (a.flow_offset_lps !== null) {
+    return { offset_lps: a.flow_offset_lps, offset_origin: 'given', offset_source: 'given', offset_uncertainty_lps: NaN };
+  }
+  const bounds = breathBounds(t, flow, grid.thr, grid.minVol, a.min_phase_s);
+  const est = estimateFlowOffset(t, flow, decaySpans(t, flow, bounds), bounds.length);
+  if (!est) {
+    notes.push(
+      'no phase end settles to a steady flow (end-inspiratory pause or end-expiratory rest): flow offset not corrected; set analysis.flow_offset_lps in a settings file if it is known',
+    );
+    return { offset_lps: 0, offset_origin: 'default', offset_source: 'none', offset_uncertainty_lps: NaN };
+  }
+  subtract(flow, est.offset);
+  // in the file's sign convention
+  return { offset_lps: sign * est.offset, offset_origin: 'inferred', offset_source: est.source, offset_uncertainty_lps: est.uncertainty_lps };
+}
+
+/**
+ * Sensor time constant and transport delay from the per-breath CO2 downstrokes: the densest cluster of the per-breath
+ * delays (w: two sample intervals, at least 10 ms), or the given values.
+ */
+function estimateTiming(
+  t: Float64Array,
+  flow: Float64Array,
+  co2: Float64Array,
+  settings: Settings,
+  grid: Grid & { coarseLag: number },
+  notes: string[],
+): Pick<
+  Calibration,
+  'delay_s' | 'delay_origin' | 'response_ms' | 'response_origin' | 'delay_iqr_s' | 'delay_uncertainty_s' | 'delay_agreement' | 'delay_trusted' | 'fall_fits'
+> {
+  const a = settings.analysis;
+  const delayGiven = a.delay_s !== null;
+  const bounds = breathBounds(t, flow, grid.thr, grid.minVol, a.min_phase_s);
+  const fits = fallFits(t, flow, co2, bounds, delayGiven ? a.delay_s! : grid.coarseLag);
   const delaySamples = fits.map((f) => f.delay);
   const taus = fits.map((f) => f.fit.tau_s);
   const responseGiven = a.response_ms !== null;
   const tau = responseGiven ? a.response_ms! / 1000 : taus.length ? Math.max(0, median(taus)) : 0;
-  const est = robustDelay(delaySamples, Math.max(0.01, 2 * dt));
-  let delay = delayGiven ? a.delay_s! : fits.length ? est.delay_s : coarseLag;
+  const est = robustDelay(delaySamples, Math.max(0.01, 2 * grid.dt));
+  let delay = delayGiven ? a.delay_s! : fits.length ? est.delay_s : grid.coarseLag;
   // a slightly negative delay is real when the export averages flow over each interval and stamps it at the end
   // (flow then lags CO2 by half an interval); more than that is not a transport delay
-  if (!delayGiven) delay = Math.max(-1.5 * dt, delay);
-  const delayTrusted = delayGiven || (fits.length > 0 && est.trusted);
+  if (!delayGiven) delay = Math.max(-1.5 * grid.dt, delay);
   if (!delayGiven && fits.length && !est.trusted) {
     notes.push(
       `the breaths do not agree on one transport delay (only ${(100 * est.share).toFixed(0)} % of ${est.breaths} breaths within ` +
@@ -395,26 +438,16 @@ export function calibrate(
         'delay longer by whole breath periods would fit the signals equally; give --delay if the line delay is known',
     );
   }
-
   return {
-    sign,
-    sign_origin: signGiven ? 'given' : 'inferred',
-    offset_lps: offset,
-    offset_origin: offsetGiven ? 'given' : offsetFound ? 'inferred' : 'default',
-    offset_source: offsetSource,
-    offset_uncertainty_lps: offsetUncertainty,
     delay_s: delay,
     delay_origin: delayGiven ? 'given' : 'inferred',
     response_ms: tau * 1000,
     response_origin: responseGiven ? 'given' : 'inferred',
-    peak_flow_lps: peak,
-    typical_vt_ml: typicalVt,
     delay_iqr_s: delaySamples.length ? quantile(delaySamples, 0.75) - quantile(delaySamples, 0.25) : NaN,
     delay_uncertainty_s: delayGiven ? NaN : est.uncertainty_s,
     delay_agreement: est.share,
-    delay_trusted: delayTrusted,
+    delay_trusted: delayGiven || (fits.length > 0 && est.trusted),
     fall_fits: fits.length,
-    notes,
   };
 }
 
