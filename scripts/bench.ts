@@ -1,4 +1,4 @@
-// `npm run bench`: speed and memory of the analysis and of batch mode on simulated recordings (issue 6).
+// `npm run bench`: speed and memory of the analysis and of batch mode on simulated recordings.
 // Generates into a temporary folder: a 24-hour and a 6-hour 100 Hz recording (adult-stable-long), 20 recordings of
 // 10 minutes and 20 of 60 minutes (the built-in scenarios in turn, seeds 1-20), then measures in child processes:
 //   1. `phasewise analyse` of the 24-hour file: wall time (process start included), rows/s, MB/s, peak RSS;
