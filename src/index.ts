@@ -55,6 +55,7 @@ export {
 // Analysis: the streaming analyser (calibration, segmentation, per-breath decomposition, quality)
 export { createAnalyser, AnalysisInputError, type Analyser, type AnalysisCore, type BreathEvent } from './analyse/analyser';
 export type { BreathGeometry } from './analyse/decompose';
+export { valueAt } from './analyse/breath-integrals';
 export {
   REASON_CODES,
   CAUTION_CODES,

@@ -12,6 +12,8 @@
 //   X = under the curve (CO2 eliminated), Y = between PaCO2 and L right of V* (alveolar dead space),
 //   Z = the rest under PaCO2 (airway dead space; equals PaCO2 x V* after Fowler's balancing).
 
+import { valueAt } from '../src/index';
+
 export type Polygon = [number, number][];
 
 export interface CurveInput {
@@ -29,21 +31,7 @@ export function lineAt(g: CurveInput, v: number): number {
 
 /** Curve value at volume v by linear interpolation (clamped at the ends). */
 export function curveAt(g: CurveInput, v: number): number {
-  const V = g.v_ml;
-  const P = g.co2_mmhg;
-  const n = V.length;
-  if (n === 0) return NaN;
-  if (v <= V[0]!) return P[0]!;
-  if (v >= V[n - 1]!) return P[n - 1]!;
-  let lo = 0;
-  let hi = n - 1;
-  while (hi - lo > 1) {
-    const mid = (lo + hi) >> 1;
-    if (V[mid]! <= v) lo = mid;
-    else hi = mid;
-  }
-  const w = (v - V[lo]!) / (V[hi]! - V[lo]!);
-  return P[lo]! + w * (P[hi]! - P[lo]!);
+  return g.v_ml.length === 0 ? NaN : valueAt(g.v_ml, g.co2_mmhg, v);
 }
 
 /** Curve vertices strictly between a and b, with interpolated end points at a and b. */
