@@ -5,7 +5,7 @@ import { detExp } from '../numeric/det-math';
 import type { Settings } from '../settings';
 import type { SettingOrigin } from '../types';
 import { fitInspiratoryFall, type FallFit } from './fall-fit';
-import { median, medianStep, quantile } from '../numeric/stats';
+import { mad, median, medianStep, quantile } from '../numeric/stats';
 import { createSegmenter, type BreathBounds } from './segment';
 import { inspirationReversalTime } from './flow-reversal';
 import { robustDelay } from './robust-delay';
@@ -24,6 +24,9 @@ export interface Calibration {
   delay_s: number;
   delay_origin: SettingOrigin;
   response_ms: number;
+  /** standard error of the estimated time constant, ms (1.2533 × 1.4826 × MAD / √n of the per-breath fits; NaN when
+   *  given or with fewer than 3 fits) */
+  response_uncertainty_ms: number;
   response_origin: SettingOrigin;
   /** typical peak flow magnitude (95th percentile of |flow|), L/s */
   peak_flow_lps: number;
@@ -410,7 +413,7 @@ function estimateTiming(
   notes: string[],
 ): Pick<
   Calibration,
-  'delay_s' | 'delay_origin' | 'response_ms' | 'response_origin' | 'delay_iqr_s' | 'delay_uncertainty_s' | 'delay_agreement' | 'delay_trusted' | 'fall_fits'
+  'delay_s' | 'delay_origin' | 'response_ms' | 'response_origin' | 'response_uncertainty_ms' | 'delay_iqr_s' | 'delay_uncertainty_s' | 'delay_agreement' | 'delay_trusted' | 'fall_fits'
 > {
   const a = settings.analysis;
   const delayGiven = a.delay_s !== null;
@@ -442,6 +445,7 @@ function estimateTiming(
     delay_s: delay,
     delay_origin: delayGiven ? 'given' : 'inferred',
     response_ms: tau * 1000,
+    response_uncertainty_ms: !responseGiven && taus.length >= 3 ? (1000 * 1.2533 * 1.4826 * mad(taus)) / Math.sqrt(taus.length) : NaN,
     response_origin: responseGiven ? 'given' : 'inferred',
     delay_iqr_s: delaySamples.length ? quantile(delaySamples, 0.75) - quantile(delaySamples, 0.25) : NaN,
     delay_uncertainty_s: delayGiven ? NaN : est.uncertainty_s,

@@ -61,7 +61,13 @@ export interface Summary {
     per_breath_p75: number | null;
     n: number;
   };
-  response_ms: { value: number; origin: string; rise_10_90_ms: number };
+  response_ms: {
+    value: number;
+    origin: string;
+    /** standard error of the estimate, ms (null when given or from fewer than 3 breaths) */
+    uncertainty_ms: number | null;
+    rise_10_90_ms: number;
+  };
   flow_offset_lps: {
     value: number;
     origin: string;
@@ -227,7 +233,12 @@ export function buildSummary(
       per_breath_p75: d.length ? quantileSorted(d, 0.75) : null,
       n: d.length,
     },
-    response_ms: { value: c.response_ms, origin: c.response_origin, rise_10_90_ms: c.response_ms * detLog(9) },
+    response_ms: {
+      value: c.response_ms,
+      origin: c.response_origin,
+      uncertainty_ms: finiteOrNull(c.response_uncertainty_ms),
+      rise_10_90_ms: c.response_ms * detLog(9),
+    },
     flow_offset_lps: {
       value: c.offset_lps,
       origin: c.offset_origin,
