@@ -1,6 +1,6 @@
 // Prints the sampling-rate sweep: `npx tsx tests/accuracy/print-decimation.ts [none|mmhg|kpa] [end|centre] [pattern]`,
 // or the markdown table of docs/accuracy.md: `npx tsx tests/accuracy/print-decimation.ts --markdown`.
-import { PATTERNS, RATES_HZ, checkRate, runPattern, type FlowStamp, type Rounding } from './decimation.js';
+import { PATTERNS, RATES_HZ, checkRate, runPattern, type FlowStamp, type Rounding } from './decimation';
 
 if (process.argv[2] === '--markdown') printMarkdown();
 else printText();
