@@ -8,13 +8,242 @@ import { GAS_DEFAULTS } from './gas-defaults';
 import type { GasAnalysisSettings, GasOptions, GasResult, GasRow, GasSample } from './gas-types';
 import { median as finiteMedian } from '../numeric/stats';
 import { selectWindowBreaths } from './select-window-breaths';
-import { shuntPart, type ShuntSettings } from './shunt-part';
-import { chooseWeight } from './weight-basis';
+import { shuntPart, type ShuntPart, type ShuntSettings } from './shunt-part';
+import { chooseWeight, type WeightChoice } from './weight-basis';
 
 const BREATH_FIELDS = ['petco2_mmhg', 'peco2_mmhg', 'vt_exp_ml', 'vd_aw_ml', 'vdvt_bohr'] as const;
 
+/** Window medians of the breath fields a gas row uses. */
+type BreathMedians = Record<(typeof BREATH_FIELDS)[number], number>;
+
 function fmt(v: number, digits = 1): string {
   return Number.isFinite(v) ? v.toFixed(digits) : 'n/a';
+}
+
+
+/** Everything the per-sample step reads, resolved once for the whole analysis. */
+interface SampleContext {
+  breaths: readonly BreathRow[];
+  windowS: number;
+  gradientChangeMmhg: number;
+  analysis: GasAnalysisSettings;
+  shuntSettings: ShuntSettings;
+  weight: WeightChoice;
+}
+
+/** What the per-sample step carries from one sample to the next and collects for the whole analysis. */
+interface SampleTally {
+  warnings: string[];
+  /** numbers of the samples whose shunt part assumed the default P(v-a)CO2 */
+  defaultPvco2Samples: number[];
+  /** gradient of the last sample that had one (NaN before the first) and that sample's number */
+  previousGradient: number;
+  previousSample: number;
+}
+
+/** Dead-space values of one sample (all in the units of their names; NaN when an input is missing). */
+interface SampleDeadSpace {
+  gradient: number;
+  enghoff: number;
+  vdPhys: number;
+  vdAlv: number;
+}
+
+/** The shunt settings of the options, with the defaults of GAS_DEFAULTS filled in. */
+function resolveShuntSettings(opts: GasOptions): ShuntSettings {
+  const d = GAS_DEFAULTS;
+  return {
+    pb_mmhg: opts.pb_mmhg,
+    rq: opts.rq ?? d.rq.value,
+    hb_o2_capacity_ml_per_g: opts.hb_o2_capacity_ml_per_g ?? d.hb_o2_capacity_ml_per_g.value,
+    o2_dissolved_ml_per_dl_per_mmhg: opts.o2_dissolved_ml_per_dl_per_mmhg ?? d.o2_dissolved_ml_per_dl_per_mmhg.value,
+    end_capillary_saturation: opts.end_capillary_saturation ?? d.end_capillary_saturation.value,
+    alveolar_gas_form: opts.alveolar_gas_form ?? d.alveolar_gas_form.value,
+    default_pv_a_co2_mmhg: opts.default_pv_a_co2_mmhg ?? d.default_pv_a_co2_mmhg.value,
+    cardiac_output_l_min: opts.cardiac_output_l_min ?? null,
+    co2_slope_k: opts.co2_slope_k ?? d.co2_slope_k.value,
+  };
+}
+
+/** Median of each breath field over the breaths of the window (NaN when none has a finite value). */
+function windowMedians(used: readonly BreathRow[]): BreathMedians {
+  return Object.fromEntries(BREATH_FIELDS.map((f) => [f, finiteMedian(used.map((b) => b[f]))])) as BreathMedians;
+}
+
+/**
+ * Gradient, Enghoff VD/VT and the physiological and alveolar dead spaces of one sample from the window medians
+ * (formulas in the analyseGas comment).
+ */
+function sampleDeadSpace(paco2: number, used: readonly BreathRow[], med: BreathMedians, analysis: GasAnalysisSettings): SampleDeadSpace {
+  const gradient = paco2 - med.petco2_mmhg;
+  const inspired = analysis.inspired_term ? finiteMedian(used.map((b) => b.fico2_mmhg)) : 0;
+  const enghoffAtSensor = enghoffDeadSpaceFraction(paco2, med.peco2_mmhg, Number.isFinite(inspired) ? inspired : 0);
+  const physiological = patientDeadSpace(enghoffAtSensor, med.vt_exp_ml, analysis.apparatus_ml);
+  const vdPhys = physiological.volume_ml;
+  return { gradient, enghoff: physiological.fraction, vdPhys, vdAlv: alveolarDeadSpaceMl(vdPhys, med.vd_aw_ml) };
+}
+
+/** Warnings about a sample's shunt estimate: a fraction outside 0-1 and a measured venous PCO2 below PaCO2. */
+function shuntWarnings(label: string, sample: GasSample, shunt: ShuntPart, warnings: string[]): void {
+  if (Number.isFinite(shunt.shunt_fraction) && !(shunt.shunt_fraction >= 0 && shunt.shunt_fraction < 1)) {
+    warnings.push(
+      `${label}: shunt fraction ${fmt(shunt.shunt_fraction, 3)} is outside 0-1; check the saturations, PO2 and FiO2 of this sample`,
+    );
+  }
+  if (shunt.pvco2_source === 'measured' && sample.pvco2_mmhg < sample.paco2_mmhg) {
+    warnings.push(`${label}: venous PCO2 ${sample.pvco2_mmhg} mmHg is below PaCO2 ${sample.paco2_mmhg} mmHg; check the samples`);
+  }
+}
+
+/** Gradient change of one sample versus the previous sample with a gradient, and whether it crossed the flag threshold. */
+interface GradientChange {
+  change: number;
+  changed: boolean;
+}
+
+/**
+ * Change of the gradient since the previous sample that had one, with a warning when it exceeds the threshold;
+ * moves the tally's previous gradient on when this sample has one.
+ */
+function gradientChange(label: string, number: number, gradient: number, thresholdMmhg: number, tally: SampleTally): GradientChange {
+  let change = NaN;
+  if (Number.isFinite(gradient) && Number.isFinite(tally.previousGradient)) change = gradient - tally.previousGradient;
+  const changed = Math.abs(change) > thresholdMmhg;
+  if (changed) {
+    tally.warnings.push(
+      `${label}: PaCO2-PETCO2 gradient changed by ${change > 0 ? '+' : ''}${fmt(change)} mmHg since sample ${tally.previousSample} ` +
+        `(${fmt(tally.previousGradient)} -> ${fmt(gradient)} mmHg; flag threshold ${thresholdMmhg} mmHg)`,
+    );
+  }
+  if (Number.isFinite(gradient)) {
+    tally.previousGradient = gradient;
+    tally.previousSample = number;
+  }
+  return { change, changed };
+}
+
+/** The parts of one gas row, gathered by analyseSample. */
+interface RowParts {
+  number: number;
+  sample: GasSample;
+  used: readonly BreathRow[];
+  med: BreathMedians;
+  dead: SampleDeadSpace;
+  weightKg: number;
+  shunt: ShuntPart;
+  change: GradientChange;
+  missing: string[];
+  notes: string[];
+}
+
+/** Assembles the output row of one sample (column order as in GasRow). */
+function gasRow(r: RowParts): GasRow {
+  const { sample, med, dead, shunt } = r;
+  const paco2 = sample.paco2_mmhg;
+  const perKg = (v: number) => v / r.weightKg;
+  return {
+    sample: r.number,
+    line: sample.line,
+    time_s: sample.time_s,
+    paco2_mmhg: paco2,
+    breaths_used: r.used.length,
+    petco2_mmhg: med.petco2_mmhg,
+    peco2_mmhg: med.peco2_mmhg,
+    vt_exp_ml: med.vt_exp_ml,
+    gradient_mmhg: dead.gradient,
+    avdsf: avdsf(paco2, med.petco2_mmhg),
+    vdvt_bohr: med.vdvt_bohr,
+    vdvt_enghoff: dead.enghoff,
+    vdvt_difference: dead.enghoff - med.vdvt_bohr,
+    vd_aw_ml: med.vd_aw_ml,
+    vd_alv_ml: dead.vdAlv,
+    vd_phys_ml: dead.vdPhys,
+    vd_aw_ml_per_kg: perKg(med.vd_aw_ml),
+    vd_alv_ml_per_kg: perKg(dead.vdAlv),
+    vd_phys_ml_per_kg: perKg(dead.vdPhys),
+    pao2_alv_mmhg: shunt.pao2_alv_mmhg,
+    shunt_fraction: shunt.shunt_fraction,
+    shunt_method: shunt.shunt_method,
+    pvco2_mmhg: shunt.pvco2_mmhg,
+    pvco2_source: shunt.pvco2_source,
+    gradient_shunt_mmhg: shunt.gradient_shunt_mmhg,
+    gradient_rest_mmhg: dead.gradient - shunt.gradient_shunt_mmhg,
+    gradient_change_mmhg: r.change.change,
+    gradient_changed: r.change.changed,
+    missing_inputs: r.missing.join(';'),
+    notes: r.notes.join('; '),
+    temp_c: sample.temp_c,
+  };
+}
+
+/** Analyses one blood-gas sample (number is 1-based, in time order): its row, with warnings added to the tally. */
+function analyseSample(sample: GasSample, number: number, ctx: SampleContext, tally: SampleTally): GasRow {
+  const label = `gas sample ${number} (line ${sample.line}, t = ${fmt(sample.time_s)} s)`;
+  const used = selectWindowBreaths(ctx.breaths, sample.time_s, ctx.windowS, ctx.analysis.summary_breaths);
+  const med = windowMedians(used);
+  const missing: string[] = [];
+  const notes: string[] = [];
+  if (used.length === 0) {
+    missing.push('ok_breaths_in_window');
+    tally.warnings.push(`${label}: no ok breaths in the ${ctx.windowS} s before it; breath-based values left empty`);
+  } else {
+    for (const f of BREATH_FIELDS) if (!Number.isFinite(med[f])) missing.push(`breath.${f}`);
+  }
+  const dead = sampleDeadSpace(sample.paco2_mmhg, used, med, ctx.analysis);
+  if (ctx.weight.basis === 'none') missing.push('weight_kg');
+
+  const vco2MlPerMin = finiteMedian(used.map((b) => b.vtco2_ml)) * finiteMedian(used.map((b) => b.rr_bpm));
+  const shunt = shuntPart(sample, ctx.shuntSettings, vco2MlPerMin);
+  missing.push(...shunt.missing);
+  notes.push(...shunt.notes);
+  if (shunt.pvco2_source === 'default') tally.defaultPvco2Samples.push(number);
+  shuntWarnings(label, sample, shunt, tally.warnings);
+
+  const change = gradientChange(label, number, dead.gradient, ctx.gradientChangeMmhg, tally);
+  return gasRow({ number, sample, used, med, dead, weightKg: ctx.weight.weight_kg, shunt, change, missing, notes });
+}
+
+/** Inputs of the settings record besides the options themselves. */
+interface SettingsParts {
+  opts: GasOptions;
+  analysis: GasAnalysisSettings;
+  shuntSettings: ShuntSettings;
+  weight: WeightChoice;
+  windowS: number;
+  gradientChangeMmhg: number;
+  singleGasSpread: number;
+}
+
+/** The settings record of a gas analysis: every value used, the rules in words and the sources of the defaults. */
+function gasSettings(s: SettingsParts): Record<string, unknown> {
+  const { opts, analysis, shuntSettings, weight } = s;
+  return {
+    window_s: s.windowS,
+    window_rule: `${analysis.summary_breaths === 'ok_only' ? 'ok breaths' : 'ok and caution breaths'} with t_start_s >= sample time - window_s and t_end_s <= sample time; medians`,
+    enghoff_rule: analysis.inspired_term
+      ? '(PaCO2 - median PECO2) / (PaCO2 - median PICO2) x median VTe - apparatus, over median VTe'
+      : '(PaCO2 - median PECO2) / PaCO2 x median VTe - apparatus, over median VTe',
+    vd_phys_rule: 'Enghoff at the sensor x median VTe - apparatus; vd_alv = vd_phys - median VDaw',
+    apparatus_ml: analysis.apparatus_ml,
+    inspired_term: analysis.inspired_term,
+    pb_mmhg: shuntSettings.pb_mmhg,
+    rq: shuntSettings.rq,
+    hb_o2_capacity_ml_per_g: shuntSettings.hb_o2_capacity_ml_per_g,
+    o2_dissolved_ml_per_dl_per_mmhg: shuntSettings.o2_dissolved_ml_per_dl_per_mmhg,
+    end_capillary_saturation: shuntSettings.end_capillary_saturation,
+    alveolar_gas_form: shuntSettings.alveolar_gas_form,
+    default_pv_a_co2_mmhg: shuntSettings.default_pv_a_co2_mmhg,
+    cardiac_output_l_min: shuntSettings.cardiac_output_l_min,
+    co2_slope_k: shuntSettings.co2_slope_k,
+    gradient_change_mmhg: s.gradientChangeMmhg,
+    single_gas_spread_mmhg: s.singleGasSpread,
+    weight_basis: weight.basis,
+    weight_used_kg: Number.isFinite(weight.weight_kg) ? weight.weight_kg : null,
+    weight_note: weight.note,
+    estimate_band: 'min-max of the gradients observed so far; +/- single_gas_spread_mmhg while only one gas is known',
+    sources: Object.fromEntries(Object.entries(GAS_DEFAULTS).map(([k, v]) => [k, v.source])),
+    given: Object.keys(opts).filter((k) => opts[k as keyof GasOptions] !== undefined).sort(),
+  };
 }
 
 /**
@@ -45,154 +274,21 @@ export function analyseGas(
   const windowS = opts.window_s ?? d.window_s.value;
   const gradientChangeMmhg = opts.gradient_change_mmhg ?? d.gradient_change_mmhg.value;
   const singleGasSpread = opts.single_gas_spread_mmhg ?? d.single_gas_spread_mmhg.value;
-  const apparatusMl = analysis.apparatus_ml;
-  const inspiredTerm = analysis.inspired_term;
-  const shuntSettings: ShuntSettings = {
-    pb_mmhg: opts.pb_mmhg,
-    rq: opts.rq ?? d.rq.value,
-    hb_o2_capacity_ml_per_g: opts.hb_o2_capacity_ml_per_g ?? d.hb_o2_capacity_ml_per_g.value,
-    o2_dissolved_ml_per_dl_per_mmhg: opts.o2_dissolved_ml_per_dl_per_mmhg ?? d.o2_dissolved_ml_per_dl_per_mmhg.value,
-    end_capillary_saturation: opts.end_capillary_saturation ?? d.end_capillary_saturation.value,
-    alveolar_gas_form: opts.alveolar_gas_form ?? d.alveolar_gas_form.value,
-    default_pv_a_co2_mmhg: opts.default_pv_a_co2_mmhg ?? d.default_pv_a_co2_mmhg.value,
-    cardiac_output_l_min: opts.cardiac_output_l_min ?? null,
-    co2_slope_k: opts.co2_slope_k ?? d.co2_slope_k.value,
-  };
+  const shuntSettings = resolveShuntSettings(opts);
   const weight = chooseWeight(opts);
-  const warnings: string[] = [...weight.warnings];
-  const defaultPvco2Samples: number[] = [];
+  const ctx: SampleContext = { breaths, windowS, gradientChangeMmhg, analysis, shuntSettings, weight };
+  const tally: SampleTally = { warnings: [...weight.warnings], defaultPvco2Samples: [], previousGradient: NaN, previousSample: 0 };
 
   const ordered = [...samples].sort((a, b) => a.time_s - b.time_s || a.line - b.line);
-  const rows: GasRow[] = [];
-  let previousGradient = NaN;
-  let previousSample = 0;
-
-  ordered.forEach((sample, i) => {
-    const number = i + 1;
-    const label = `gas sample ${number} (line ${sample.line}, t = ${fmt(sample.time_s)} s)`;
-    const used = selectWindowBreaths(breaths, sample.time_s, windowS, analysis.summary_breaths);
-    const med = Object.fromEntries(BREATH_FIELDS.map((f) => [f, finiteMedian(used.map((b) => b[f]))])) as Record<
-      (typeof BREATH_FIELDS)[number],
-      number
-    >;
-    const missing: string[] = [];
-    const notes: string[] = [];
-    if (used.length === 0) {
-      missing.push('ok_breaths_in_window');
-      warnings.push(`${label}: no ok breaths in the ${windowS} s before it; breath-based values left empty`);
-    } else {
-      for (const f of BREATH_FIELDS) if (!Number.isFinite(med[f])) missing.push(`breath.${f}`);
-    }
-
-    const paco2 = sample.paco2_mmhg;
-    const gradient = paco2 - med.petco2_mmhg;
-    const inspired = inspiredTerm ? finiteMedian(used.map((b) => b.fico2_mmhg)) : 0;
-    const enghoffAtSensor = enghoffDeadSpaceFraction(paco2, med.peco2_mmhg, Number.isFinite(inspired) ? inspired : 0);
-    const physiological = patientDeadSpace(enghoffAtSensor, med.vt_exp_ml, apparatusMl);
-    const enghoff = physiological.fraction;
-    const vdPhys = physiological.volume_ml;
-    const vdAlv = alveolarDeadSpaceMl(vdPhys, med.vd_aw_ml);
-    const perKg = (v: number) => v / weight.weight_kg;
-    if (weight.basis === 'none') missing.push('weight_kg');
-
-    const vco2MlPerMin = finiteMedian(used.map((b) => b.vtco2_ml)) * finiteMedian(used.map((b) => b.rr_bpm));
-    const shunt = shuntPart(sample, shuntSettings, vco2MlPerMin);
-    missing.push(...shunt.missing);
-    notes.push(...shunt.notes);
-    if (shunt.pvco2_source === 'default') defaultPvco2Samples.push(number);
-    if (Number.isFinite(shunt.shunt_fraction) && !(shunt.shunt_fraction >= 0 && shunt.shunt_fraction < 1)) {
-      warnings.push(
-        `${label}: shunt fraction ${fmt(shunt.shunt_fraction, 3)} is outside 0-1; check the saturations, PO2 and FiO2 of this sample`,
-      );
-    }
-    if (shunt.pvco2_source === 'measured' && sample.pvco2_mmhg < paco2) {
-      warnings.push(`${label}: venous PCO2 ${sample.pvco2_mmhg} mmHg is below PaCO2 ${paco2} mmHg; check the samples`);
-    }
-
-    let change = NaN;
-    if (Number.isFinite(gradient) && Number.isFinite(previousGradient)) change = gradient - previousGradient;
-    const changed = Math.abs(change) > gradientChangeMmhg;
-    if (changed) {
-      warnings.push(
-        `${label}: PaCO2-PETCO2 gradient changed by ${change > 0 ? '+' : ''}${fmt(change)} mmHg since sample ${previousSample} ` +
-          `(${fmt(previousGradient)} -> ${fmt(gradient)} mmHg; flag threshold ${gradientChangeMmhg} mmHg)`,
-      );
-    }
-    if (Number.isFinite(gradient)) {
-      previousGradient = gradient;
-      previousSample = number;
-    }
-
-    rows.push({
-      sample: number,
-      line: sample.line,
-      time_s: sample.time_s,
-      paco2_mmhg: paco2,
-      breaths_used: used.length,
-      petco2_mmhg: med.petco2_mmhg,
-      peco2_mmhg: med.peco2_mmhg,
-      vt_exp_ml: med.vt_exp_ml,
-      gradient_mmhg: gradient,
-      avdsf: avdsf(paco2, med.petco2_mmhg),
-      vdvt_bohr: med.vdvt_bohr,
-      vdvt_enghoff: enghoff,
-      vdvt_difference: enghoff - med.vdvt_bohr,
-      vd_aw_ml: med.vd_aw_ml,
-      vd_alv_ml: vdAlv,
-      vd_phys_ml: vdPhys,
-      vd_aw_ml_per_kg: perKg(med.vd_aw_ml),
-      vd_alv_ml_per_kg: perKg(vdAlv),
-      vd_phys_ml_per_kg: perKg(vdPhys),
-      pao2_alv_mmhg: shunt.pao2_alv_mmhg,
-      shunt_fraction: shunt.shunt_fraction,
-      shunt_method: shunt.shunt_method,
-      pvco2_mmhg: shunt.pvco2_mmhg,
-      pvco2_source: shunt.pvco2_source,
-      gradient_shunt_mmhg: shunt.gradient_shunt_mmhg,
-      gradient_rest_mmhg: gradient - shunt.gradient_shunt_mmhg,
-      gradient_change_mmhg: change,
-      gradient_changed: changed,
-      missing_inputs: missing.join(';'),
-      notes: notes.join('; '),
-      temp_c: sample.temp_c,
-    });
-  });
-
-  if (defaultPvco2Samples.length > 0) {
+  const rows = ordered.map((sample, i) => analyseSample(sample, i + 1, ctx, tally));
+  const warnings = tally.warnings;
+  if (tally.defaultPvco2Samples.length > 0) {
     warnings.push(
-      `PvCO2 was not measured for gas sample(s) ${defaultPvco2Samples.join(', ')}: the shunt part of the gradient assumes ` +
+      `PvCO2 was not measured for gas sample(s) ${tally.defaultPvco2Samples.join(', ')}: the shunt part of the gradient assumes ` +
         `PvCO2 - PaCO2 = ${shuntSettings.default_pv_a_co2_mmhg} mmHg (textbook value; common practice, no source); measure venous PCO2 for a patient-specific split`,
     );
   }
-
-  const settings: Record<string, unknown> = {
-    window_s: windowS,
-    window_rule: `${analysis.summary_breaths === 'ok_only' ? 'ok breaths' : 'ok and caution breaths'} with t_start_s >= sample time - window_s and t_end_s <= sample time; medians`,
-    enghoff_rule: inspiredTerm
-      ? '(PaCO2 - median PECO2) / (PaCO2 - median PICO2) x median VTe - apparatus, over median VTe'
-      : '(PaCO2 - median PECO2) / PaCO2 x median VTe - apparatus, over median VTe',
-    vd_phys_rule: 'Enghoff at the sensor x median VTe - apparatus; vd_alv = vd_phys - median VDaw',
-    apparatus_ml: apparatusMl,
-    inspired_term: inspiredTerm,
-    pb_mmhg: shuntSettings.pb_mmhg,
-    rq: shuntSettings.rq,
-    hb_o2_capacity_ml_per_g: shuntSettings.hb_o2_capacity_ml_per_g,
-    o2_dissolved_ml_per_dl_per_mmhg: shuntSettings.o2_dissolved_ml_per_dl_per_mmhg,
-    end_capillary_saturation: shuntSettings.end_capillary_saturation,
-    alveolar_gas_form: shuntSettings.alveolar_gas_form,
-    default_pv_a_co2_mmhg: shuntSettings.default_pv_a_co2_mmhg,
-    cardiac_output_l_min: shuntSettings.cardiac_output_l_min,
-    co2_slope_k: shuntSettings.co2_slope_k,
-    gradient_change_mmhg: gradientChangeMmhg,
-    single_gas_spread_mmhg: singleGasSpread,
-    weight_basis: weight.basis,
-    weight_used_kg: Number.isFinite(weight.weight_kg) ? weight.weight_kg : null,
-    weight_note: weight.note,
-    estimate_band: 'min-max of the gradients observed so far; +/- single_gas_spread_mmhg while only one gas is known',
-    sources: Object.fromEntries(Object.entries(GAS_DEFAULTS).map(([k, v]) => [k, v.source])),
-    given: Object.keys(opts).filter((k) => opts[k as keyof GasOptions] !== undefined).sort(),
-  };
-
+  const settings = gasSettings({ opts, analysis, shuntSettings, weight, windowS, gradientChangeMmhg, singleGasSpread });
   const estimates = estimatePaco2(breaths, rows, { single_gas_spread_mmhg: singleGasSpread, summary_breaths: analysis.summary_breaths });
   return { rows, estimates, settings, warnings };
 }
