@@ -1,5 +1,5 @@
 import { alveolarGasPao2 } from '../physiology/alveolar-gas-pao2';
-import { oxygenContent } from '../physiology/oxygen-content';
+import { oxygenContent, type OxygenContentConstants } from '../physiology/oxygen-content';
 import { severinghausPo2, severinghausSaturation } from '../physiology/severinghaus-saturation';
 import { shuntCo2Effect } from '../physiology/shunt-co2-effect';
 import { shuntFractionFromContents } from '../physiology/shunt-fraction-from-contents';
@@ -27,6 +27,114 @@ export type ShuntPart = Pick<GasRow, 'pao2_alv_mmhg' | 'shunt_fraction' | 'shunt
 
 const has = (v: number) => Number.isFinite(v);
 
+/** O2 content constants of the settings, in the form oxygenContent takes. */
+function contentConstants(settings: ShuntSettings): OxygenContentConstants {
+  return {
+    hbO2CapacityMlPerG: settings.hb_o2_capacity_ml_per_g,
+    dissolvedO2MlPerDlPerMmhg: settings.o2_dissolved_ml_per_dl_per_mmhg,
+  };
+}
+
+/** Alveolar PO2 of the sample by the alveolar gas equation (needs fio2_pct; NaN without it). */
+function alveolarPo2(sample: GasSample, settings: ShuntSettings): number {
+  if (!has(sample.fio2_pct)) return NaN;
+  return alveolarGasPao2({
+    fio2: sample.fio2_pct / 100,
+    pbMmhg: settings.pb_mmhg,
+    paco2Mmhg: sample.paco2_mmhg,
+    rq: settings.rq,
+    form: settings.alveolar_gas_form,
+  });
+}
+
+/** End-capillary O2 saturation: 1.0, or the Severinghaus curve at PAO2 when that option is on and PAO2 is known. */
+function endCapillarySaturation(settings: ShuntSettings, pao2AlvMmhg: number, notes: string[]): number {
+  if (settings.end_capillary_saturation !== 'odc') {
+    notes.push("Sc'O2 assumed 1.0");
+    return 1;
+  }
+  if (!has(pao2AlvMmhg)) {
+    notes.push("Sc'O2 assumed 1.0 (fio2_pct missing, so no PAO2 for the dissociation curve)");
+    return 1;
+  }
+  const saturation = severinghausSaturation(pao2AlvMmhg);
+  notes.push(`Sc'O2 ${saturation.toFixed(4)} from the Severinghaus curve at PAO2`);
+  return saturation;
+}
+
+/**
+ * Sets the shunt fraction and method: from O2 contents when no content input is missing, else from the saturations
+ * alone (the saturations themselves must be present).
+ */
+function setShuntFraction(
+  out: ShuntPart,
+  sample: GasSample,
+  settings: ShuntSettings,
+  endCapillary: number,
+  missingContent: readonly string[],
+): void {
+  const sa = sample.sao2_pct / 100;
+  const sv = sample.svo2_pct / 100;
+  if (missingContent.length > 0) {
+    out.shunt_fraction = shuntFractionFromSaturations(endCapillary, sa, sv);
+    out.shunt_method = 'saturations';
+    out.notes.push(`shunt from saturations only, dissolved O2 neglected (${missingContent.join(', ')} missing)`);
+    return;
+  }
+  let pvo2 = sample.pvo2_mmhg;
+  if (!has(pvo2)) {
+    pvo2 = severinghausPo2(sv);
+    out.notes.push(`venous PO2 ${pvo2.toFixed(1)} mmHg estimated from SvO2 with the Severinghaus curve`);
+  }
+  const constants = contentConstants(settings);
+  const cc = oxygenContent(sample.hb_g_dl, endCapillary, out.pao2_alv_mmhg, constants);
+  const ca = oxygenContent(sample.hb_g_dl, sa, sample.pao2_mmhg, constants);
+  const cv = oxygenContent(sample.hb_g_dl, sv, pvo2, constants);
+  out.shunt_fraction = shuntFractionFromContents(cc, ca, cv);
+  out.shunt_method = 'contents';
+}
+
+/**
+ * Sets PvCO2, its source and the shunt part of the gradient for a known shunt fraction: from a measured PvCO2, else
+ * by the Fick route when a cardiac output and V'CO2 are known, else from the default P(v-a)CO2.
+ */
+function setShuntGradient(out: ShuntPart, sample: GasSample, settings: ShuntSettings, vco2MlPerMin: number): void {
+  const s = out.shunt_fraction;
+  if (has(sample.pvco2_mmhg)) {
+    out.pvco2_mmhg = sample.pvco2_mmhg;
+    out.pvco2_source = 'measured';
+    out.gradient_shunt_mmhg = shuntCo2Effect({
+      route: 'venous_arterial',
+      shuntFraction: s,
+      venousMinusArterialMmhg: sample.pvco2_mmhg - sample.paco2_mmhg,
+    });
+    return;
+  }
+  out.missing.push('pvco2_mmhg');
+  if (settings.cardiac_output_l_min !== null && has(vco2MlPerMin)) {
+    out.pvco2_source = 'fick';
+    out.gradient_shunt_mmhg = shuntCo2Effect({
+      route: 'fick',
+      shuntFraction: s,
+      vco2MlPerMin,
+      cardiacOutputLPerMin: settings.cardiac_output_l_min,
+      co2SlopeMlPerDlPerMmhg: settings.co2_slope_k,
+    });
+    out.notes.push(
+      `shunt part by the Fick route: V'CO2 ${vco2MlPerMin.toFixed(0)} mL/min, cardiac output ${settings.cardiac_output_l_min} L/min, k ${settings.co2_slope_k}`,
+    );
+    return;
+  }
+  out.pvco2_mmhg = sample.paco2_mmhg + settings.default_pv_a_co2_mmhg;
+  out.pvco2_source = 'default';
+  out.gradient_shunt_mmhg = shuntCo2Effect({
+    route: 'venous_arterial',
+    shuntFraction: s,
+    venousMinusArterialMmhg: settings.default_pv_a_co2_mmhg,
+  });
+  out.notes.push(`PvCO2 not measured: assumed PaCO2 + ${settings.default_pv_a_co2_mmhg} mmHg`);
+}
+
 /**
  * Venous admixture of one blood-gas sample and the part of the CO2 gradient it explains.
  *
@@ -47,7 +155,7 @@ export function shuntPart(sample: GasSample, settings: ShuntSettings, vco2MlPerM
   const missing: string[] = [];
   const notes: string[] = [];
   const out: ShuntPart = {
-    pao2_alv_mmhg: NaN,
+    pao2_alv_mmhg: alveolarPo2(sample, settings),
     shunt_fraction: NaN,
     shunt_method: '',
     pvco2_mmhg: NaN,
@@ -56,31 +164,7 @@ export function shuntPart(sample: GasSample, settings: ShuntSettings, vco2MlPerM
     missing,
     notes,
   };
-  const constants = {
-    hbO2CapacityMlPerG: settings.hb_o2_capacity_ml_per_g,
-    dissolvedO2MlPerDlPerMmhg: settings.o2_dissolved_ml_per_dl_per_mmhg,
-  };
-
-  if (has(sample.fio2_pct)) {
-    out.pao2_alv_mmhg = alveolarGasPao2({
-      fio2: sample.fio2_pct / 100,
-      pbMmhg: settings.pb_mmhg,
-      paco2Mmhg: sample.paco2_mmhg,
-      rq: settings.rq,
-      form: settings.alveolar_gas_form,
-    });
-  }
-  let endCapillarySaturation = 1;
-  if (settings.end_capillary_saturation === 'odc') {
-    if (has(out.pao2_alv_mmhg)) {
-      endCapillarySaturation = severinghausSaturation(out.pao2_alv_mmhg);
-      notes.push(`Sc'O2 ${endCapillarySaturation.toFixed(4)} from the Severinghaus curve at PAO2`);
-    } else {
-      notes.push("Sc'O2 assumed 1.0 (fio2_pct missing, so no PAO2 for the dissociation curve)");
-    }
-  } else {
-    notes.push("Sc'O2 assumed 1.0");
-  }
+  const endCapillary = endCapillarySaturation(settings, out.pao2_alv_mmhg, notes);
 
   for (const name of ['sao2_pct', 'svo2_pct'] as const) if (!has(sample[name])) missing.push(name);
   const contentInputs = ['pao2_mmhg', 'hb_g_dl', 'fio2_pct'] as const;
@@ -88,59 +172,8 @@ export function shuntPart(sample: GasSample, settings: ShuntSettings, vco2MlPerM
   missing.push(...missingContent);
   if (missing.length > missingContent.length) return out; // no saturations: no shunt estimate at all
 
-  const sa = sample.sao2_pct / 100;
-  const sv = sample.svo2_pct / 100;
-  if (missingContent.length === 0) {
-    let pvo2 = sample.pvo2_mmhg;
-    if (!has(pvo2)) {
-      pvo2 = severinghausPo2(sv);
-      notes.push(`venous PO2 ${pvo2.toFixed(1)} mmHg estimated from SvO2 with the Severinghaus curve`);
-    }
-    const cc = oxygenContent(sample.hb_g_dl, endCapillarySaturation, out.pao2_alv_mmhg, constants);
-    const ca = oxygenContent(sample.hb_g_dl, sa, sample.pao2_mmhg, constants);
-    const cv = oxygenContent(sample.hb_g_dl, sv, pvo2, constants);
-    out.shunt_fraction = shuntFractionFromContents(cc, ca, cv);
-    out.shunt_method = 'contents';
-  } else {
-    out.shunt_fraction = shuntFractionFromSaturations(endCapillarySaturation, sa, sv);
-    out.shunt_method = 'saturations';
-    notes.push(`shunt from saturations only, dissolved O2 neglected (${missingContent.join(', ')} missing)`);
-  }
+  setShuntFraction(out, sample, settings, endCapillary, missingContent);
   if (!has(out.shunt_fraction)) return out;
-
-  const s = out.shunt_fraction;
-  if (has(sample.pvco2_mmhg)) {
-    out.pvco2_mmhg = sample.pvco2_mmhg;
-    out.pvco2_source = 'measured';
-    out.gradient_shunt_mmhg = shuntCo2Effect({
-      route: 'venous_arterial',
-      shuntFraction: s,
-      venousMinusArterialMmhg: sample.pvco2_mmhg - sample.paco2_mmhg,
-    });
-    return out;
-  }
-  missing.push('pvco2_mmhg');
-  if (settings.cardiac_output_l_min !== null && has(vco2MlPerMin)) {
-    out.pvco2_source = 'fick';
-    out.gradient_shunt_mmhg = shuntCo2Effect({
-      route: 'fick',
-      shuntFraction: s,
-      vco2MlPerMin,
-      cardiacOutputLPerMin: settings.cardiac_output_l_min,
-      co2SlopeMlPerDlPerMmhg: settings.co2_slope_k,
-    });
-    notes.push(
-      `shunt part by the Fick route: V'CO2 ${vco2MlPerMin.toFixed(0)} mL/min, cardiac output ${settings.cardiac_output_l_min} L/min, k ${settings.co2_slope_k}`,
-    );
-    return out;
-  }
-  out.pvco2_mmhg = sample.paco2_mmhg + settings.default_pv_a_co2_mmhg;
-  out.pvco2_source = 'default';
-  out.gradient_shunt_mmhg = shuntCo2Effect({
-    route: 'venous_arterial',
-    shuntFraction: s,
-    venousMinusArterialMmhg: settings.default_pv_a_co2_mmhg,
-  });
-  notes.push(`PvCO2 not measured: assumed PaCO2 + ${settings.default_pv_a_co2_mmhg} mmHg`);
+  setShuntGradient(out, sample, settings, vco2MlPerMin);
   return out;
 }
