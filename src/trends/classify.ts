@@ -57,93 +57,130 @@ const pctText = (d: SignalDelta) => (Number.isFinite(d.pct) ? `${d.pct > 0 ? '+'
  * `gas` is the blood-gas comparison around the event (blood-gas.ts) or null.
  */
 export function classifyPattern(p: ChangePattern, gas: GasComparison | null, o: TrendSettings): Classification {
+  return (
+    delayJumpRule(p, o) ??
+    rebreathingRule(p, o) ??
+    usableBreathsRule(p, o) ??
+    ventilationRule(p, o) ??
+    expiredDeadSpaceRule(p, o) ??
+    movedTogetherRule(p, gas, o) ??
+    unclassified(p, o, 'no rule matched')
+  );
+}
+
+/**
+ * R0 sensor: the measured CO2 delay jumped. A delay change misaligns CO2 and flow, which itself puts CO2 on the
+ * inspiratory side, so it is checked before rebreathing.
+ */
+function delayJumpRule(p: ChangePattern, o: TrendSettings): Classification | null {
+  const delay = p.delay_s;
+  if (!(Math.abs(delay.delta) >= o.delay_min_change_s)) return null;
+  return {
+    kind: 'sensor',
+    confidence: conf(beyond(delay.delta, o.delay_min_change_s)),
+    signal: 'delay_s',
+    note: `CO2 delay ${delay.before.toFixed(2)} -> ${delay.after.toFixed(2)} s`,
+  };
+}
+
+/** R1 rebreathing: inspired PCO2 rose. */
+function rebreathingRule(p: ChangePattern, o: TrendSettings): Classification | null {
+  const fi = p.fico2_mmhg;
+  if (!(fi.delta >= o.fico2_min_change_mmhg)) return null;
+  return {
+    kind: 'rebreathing',
+    confidence: conf(beyond(fi.delta, o.fico2_min_change_mmhg)),
+    signal: 'fico2_mmhg',
+    note: `inspired PCO2 ${fi.before.toFixed(1)} -> ${fi.after.toFixed(1)} mmHg`,
+  };
+}
+
+/** R2 sensor: the share of usable breaths collapsed. */
+function usableBreathsRule(p: ChangePattern, o: TrendSettings): Classification | null {
+  const okShare = p.ok_share;
+  if (!(-okShare.delta >= o.ok_share_min_change)) return null;
+  return {
+    kind: 'sensor',
+    confidence: conf(beyond(okShare.delta, o.ok_share_min_change)),
+    signal: 'ok_share',
+    note: `usable breaths ${(100 * okShare.before).toFixed(0)} % -> ${(100 * okShare.after).toFixed(0)} %`,
+  };
+}
+
+/**
+ * R3 ventilation: V'E changed and PETCO2 did not move the same way. When V'E changed and PETCO2 did move the same
+ * way the change is unclassified; either way no later rule is tried.
+ */
+function ventilationRule(p: ChangePattern, o: TrendSettings): Classification | null {
+  const ve = p.ve_l_min;
+  const pet = p.petco2_mmhg;
+  if (!(Math.abs(ve.pct) >= o.ve_min_change_pct)) return null;
+  const sameWay = sgn(pet.delta) === sgn(ve.delta) && Math.abs(pet.pct) >= o.petco2_steady_pct;
+  if (sameWay) return unclassified(p, o, `${SIGNAL_LABEL.ve_l_min} ${pctText(ve)} with PETCO2 ${pctText(pet)} the same way`);
+  const petMargin = sgn(pet.delta) === -sgn(ve.delta) ? Math.min(1, Math.abs(pet.pct) / o.petco2_min_change_pct) : 0;
+  return {
+    kind: 'ventilation',
+    confidence: conf(beyond(ve.pct, o.ve_min_change_pct), petMargin),
+    signal: 've_l_min',
+    note: `${SIGNAL_LABEL.ve_l_min} ${pctText(ve)}, PETCO2 ${pctText(pet)}, ${SIGNAL_LABEL.vco2_ml_min} ${pctText(p.vco2_ml_min)}`,
+  };
+}
+
+/** True when minute ventilation changed by less than the steady threshold. */
+function ventilationSteady(p: ChangePattern, o: TrendSettings): boolean {
+  return Math.abs(p.ve_l_min.pct) < o.ve_steady_pct;
+}
+
+/** R4 dead space seen in expired gas: Bohr VD/VT rose, ventilation steady, V'CO2 not rising. */
+function expiredDeadSpaceRule(p: ChangePattern, o: TrendSettings): Classification | null {
+  const vdvt = p.vdvt_bohr;
+  const ve = p.ve_l_min;
+  if (!(vdvt.delta >= o.vdvt_min_change && ventilationSteady(p, o) && !(p.vco2_ml_min.pct >= o.vco2_min_change_pct))) return null;
+  return {
+    kind: 'dead_space',
+    confidence: conf(beyond(vdvt.delta, o.vdvt_min_change), within(ve.pct, o.ve_steady_pct)),
+    signal: 'vdvt_bohr',
+    note: `Bohr VD/VT ${vdvt.before.toFixed(2)} -> ${vdvt.after.toFixed(2)} with steady ventilation (${pctText(ve)})`,
+  };
+}
+
+/**
+ * R5 V'CO2 and PETCO2 moved together, ventilation steady: perfusion or (parallel) dead space. A blood gas decides
+ * (bloodGasDecides); without one, fall_without_gas says whether to call it perfusion at low confidence or leave it
+ * unclassified.
+ */
+function movedTogetherRule(p: ChangePattern, gas: GasComparison | null, o: TrendSettings): Classification | null {
   const vco2 = p.vco2_ml_min;
   const pet = p.petco2_mmhg;
   const ve = p.ve_l_min;
-  const vdvt = p.vdvt_bohr;
-  const fi = p.fico2_mmhg;
-  const okShare = p.ok_share;
-  const delay = p.delay_s;
-
-  // R0 sensor: the measured CO2 delay jumped. A delay change misaligns CO2 and flow, which itself puts CO2 on the
-  // inspiratory side, so it is checked before rebreathing.
-  const delayJump = Math.abs(delay.delta) >= o.delay_min_change_s;
-  if (delayJump) {
-    return {
-      kind: 'sensor',
-      confidence: conf(beyond(delay.delta, o.delay_min_change_s)),
-      signal: 'delay_s',
-      note: `CO2 delay ${delay.before.toFixed(2)} -> ${delay.after.toFixed(2)} s`,
-    };
-  }
-  // R1 rebreathing: inspired PCO2 rose
-  if (fi.delta >= o.fico2_min_change_mmhg) {
-    return {
-      kind: 'rebreathing',
-      confidence: conf(beyond(fi.delta, o.fico2_min_change_mmhg)),
-      signal: 'fico2_mmhg',
-      note: `inspired PCO2 ${fi.before.toFixed(1)} -> ${fi.after.toFixed(1)} mmHg`,
-    };
-  }
-  // R2 sensor: usable breaths collapsed
-  const okFell = -okShare.delta >= o.ok_share_min_change;
-  if (okFell) {
-    return {
-      kind: 'sensor',
-      confidence: conf(beyond(okShare.delta, o.ok_share_min_change)),
-      signal: 'ok_share',
-      note: `usable breaths ${(100 * okShare.before).toFixed(0)} % -> ${(100 * okShare.after).toFixed(0)} %`,
-    };
-  }
-  // R3 ventilation: V'E changed and PETCO2 did not move the same way
-  if (Math.abs(ve.pct) >= o.ve_min_change_pct) {
-    const sameWay = sgn(pet.delta) === sgn(ve.delta) && Math.abs(pet.pct) >= o.petco2_steady_pct;
-    if (!sameWay) {
-      const petMargin = sgn(pet.delta) === -sgn(ve.delta) ? Math.min(1, Math.abs(pet.pct) / o.petco2_min_change_pct) : 0;
-      return {
-        kind: 'ventilation',
-        confidence: conf(beyond(ve.pct, o.ve_min_change_pct), petMargin),
-        signal: 've_l_min',
-        note: `${SIGNAL_LABEL.ve_l_min} ${pctText(ve)}, PETCO2 ${pctText(pet)}, ${SIGNAL_LABEL.vco2_ml_min} ${pctText(vco2)}`,
-      };
-    }
-    return unclassified(p, o, `${SIGNAL_LABEL.ve_l_min} ${pctText(ve)} with PETCO2 ${pctText(pet)} the same way`);
-  }
-  const veSteady = Math.abs(ve.pct) < o.ve_steady_pct;
-  // R4 dead space seen in expired gas: Bohr VD/VT rose, ventilation steady, V'CO2 not rising
-  if (vdvt.delta >= o.vdvt_min_change && veSteady && !(vco2.pct >= o.vco2_min_change_pct)) {
-    return {
-      kind: 'dead_space',
-      confidence: conf(beyond(vdvt.delta, o.vdvt_min_change), within(ve.pct, o.ve_steady_pct)),
-      signal: 'vdvt_bohr',
-      note: `Bohr VD/VT ${vdvt.before.toFixed(2)} -> ${vdvt.after.toFixed(2)} with steady ventilation (${pctText(ve)})`,
-    };
-  }
-  // R5 V'CO2 and PETCO2 moved together, ventilation steady: perfusion or (parallel) dead space; a blood gas decides
   const together =
-    veSteady &&
+    ventilationSteady(p, o) &&
     Math.abs(vco2.pct) >= o.vco2_min_change_pct &&
     Math.abs(pet.pct) >= o.petco2_min_change_pct &&
     sgn(vco2.delta) === sgn(pet.delta);
-  if (together) {
-    const margins = [beyond(vco2.pct, o.vco2_min_change_pct), beyond(pet.pct, o.petco2_min_change_pct), within(ve.pct, o.ve_steady_pct)];
-    const base = `${SIGNAL_LABEL.vco2_ml_min} ${pctText(vco2)}, PETCO2 ${pctText(pet)} with steady ventilation (${pctText(ve)})`;
-    if (gas) {
-      const share = gas.arterial_share;
-      const gasText = `PaCO2 ${gas.before.paco2_mmhg.toFixed(1)} -> ${gas.after.paco2_mmhg.toFixed(1)} mmHg followed ${(100 * share).toFixed(0)} % of the end-tidal change`;
-      const m = Math.min(1, Math.abs(share - o.arterial_share_split) / 0.5);
-      if (share >= o.arterial_share_split) {
-        return { kind: 'perfusion', confidence: conf(...margins, m), signal: 'vco2_ml_min', note: `${base}; ${gasText}` };
-      }
-      return { kind: 'dead_space', confidence: conf(...margins, m), signal: 'petco2_mmhg', note: `${base}; ${gasText} (arterial-end-tidal gradient widened)` };
-    }
-    const why = `${base}; without a blood gas before and after, a change in pulmonary blood flow and a change in alveolar dead space look alike`;
-    if (o.fall_without_gas === 'perfusion') {
-      return { kind: 'perfusion', confidence: 0.25 + 0.25 * Math.min(...margins), signal: 'vco2_ml_min', note: why };
-    }
-    return { ...unclassified(p, o, why), signal: 'vco2_ml_min' };
+  if (!together) return null;
+  const margins = [beyond(vco2.pct, o.vco2_min_change_pct), beyond(pet.pct, o.petco2_min_change_pct), within(ve.pct, o.ve_steady_pct)];
+  const base = `${SIGNAL_LABEL.vco2_ml_min} ${pctText(vco2)}, PETCO2 ${pctText(pet)} with steady ventilation (${pctText(ve)})`;
+  if (gas) return bloodGasDecides(gas, margins, base, o);
+  const why = `${base}; without a blood gas before and after, a change in pulmonary blood flow and a change in alveolar dead space look alike`;
+  if (o.fall_without_gas === 'perfusion') {
+    return { kind: 'perfusion', confidence: 0.25 + 0.25 * Math.min(...margins), signal: 'vco2_ml_min', note: why };
   }
-  return unclassified(p, o, 'no rule matched');
+  return { ...unclassified(p, o, why), signal: 'vco2_ml_min' };
+}
+
+/**
+ * R5 with a blood gas: perfusion when arterial PCO2 followed at least arterial_share_split of the end-tidal change,
+ * else dead space (the arterial-end-tidal gradient widened).
+ */
+function bloodGasDecides(gas: GasComparison, margins: number[], base: string, o: TrendSettings): Classification {
+  const share = gas.arterial_share;
+  const gasText = `PaCO2 ${gas.before.paco2_mmhg.toFixed(1)} -> ${gas.after.paco2_mmhg.toFixed(1)} mmHg followed ${(100 * share).toFixed(0)} % of the end-tidal change`;
+  const m = Math.min(1, Math.abs(share - o.arterial_share_split) / 0.5);
+  if (share >= o.arterial_share_split) {
+    return { kind: 'perfusion', confidence: conf(...margins, m), signal: 'vco2_ml_min', note: `${base}; ${gasText}` };
+  }
+  return { kind: 'dead_space', confidence: conf(...margins, m), signal: 'petco2_mmhg', note: `${base}; ${gasText} (arterial-end-tidal gradient widened)` };
 }
 
 /** Unclassified: confidence is the strength of the change itself (largest |change| / (2 x smallest relevant change)). */
