@@ -18,11 +18,11 @@ export {
   type TimeFormat,
   type ExtraColumn,
 } from './params';
-export { validateParams } from './validate-params';
+export { minimumTidalVolume, validateParams } from './validate-params';
 export { listScenarios, scenarioParams } from './scenarios';
 
 // Streaming simulation and truth
-export { simulateSignals, internalRate, minimumTidalVolume, CHUNK_SECONDS, type SimChunk } from './simulate-signals';
+export { simulateSignals, internalRate, CHUNK_SECONDS, type SimChunk } from './simulate-signals';
 export { simulateRecording, concatBlocks, buildTruth } from './simulate-recording';
 export { writeRecordingCsv } from './write-recording-csv';
 export { summariseBreaths, TRUTH_MODEL_ID, type Truth, type TruthBreath, type ExportStats } from './truth';

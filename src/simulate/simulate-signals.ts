@@ -8,7 +8,7 @@ import { breathGasExchange, steadyCo2State, type BreathGas, type Co2BodyState, t
 import type { SimEvent, SimParams } from './params';
 import { createRng, streamSeed, type Rng } from './prng';
 import type { TruthBreath } from './truth';
-import { validateParams } from './validate-params';
+import { minimumTidalVolume, validateParams } from './validate-params';
 
 /** One streamed piece of a simulated recording (about 10 s). */
 export interface SimChunk {
@@ -30,11 +30,6 @@ export const CHUNK_SECONDS = 10;
 export function internalRate(p: Pick<SimParams, 'rate_hz' | 'internal_min_hz'>): { fsHz: number; decimation: number } {
   const decimation = Math.max(4, Math.ceil(p.internal_min_hz / p.rate_hz - 1e-9));
   return { fsHz: p.rate_hz * decimation, decimation };
-}
-
-/** Smallest tidal volume that still has phases I-III (see validateParams), mL. */
-export function minimumTidalVolume(p: SimParams): number {
-  return (p.vd_aw_ml + 6 * p.sigma_ml + (p.front_shape === 'skewed' ? 4 * p.front_tail_ml : 0)) / (1 - p.leak_fraction);
 }
 
 function clamp(x: number, lo: number, hi: number): number {
