@@ -6,7 +6,7 @@ import { statSync } from 'node:fs';
 import { join, resolve } from 'node:path';
 import { writeFileAtomic } from '../node/atomic-write';
 import { VERSION } from '../version';
-import { expandInputs } from './expand-inputs';
+import { expandInputs, type BatchInput } from './expand-inputs';
 import { settingsForRecording, type SettingsPlan } from './file-settings';
 import { countEntries, manifestJson, MANIFEST_FILE, MANIFEST_FORMAT, readManifest, type Manifest, type ManifestEntry } from './manifest';
 import { outputFolders } from './output-names';
@@ -53,6 +53,12 @@ export function inputListHash(recordings: readonly string[]): string {
   return createHash('sha256').update(recordings.join('\n')).digest('hex');
 }
 
+/** One recording of this run: its input and its output folder inside DIR. */
+interface PickedRecording {
+  input: BatchInput;
+  folder: string;
+}
+
 export async function runBatch(o: BatchOptions): Promise<BatchOutcome> {
   const t0 = performance.now();
   const started = new Date().toISOString();
@@ -60,24 +66,76 @@ export async function runBatch(o: BatchOptions): Promise<BatchOutcome> {
   const outDir = resolve(cwd, o.outDir);
   const { inputs: all, warnings } = expandInputs(o.inputs, cwd, outDir);
   if (!all.length) throw new BatchUsageError(`no recordings found in ${o.inputs.join(' ')}: give files, folders (searched for .csv, .tsv, .txt) or quoted globs such as 'data/**/*.csv'`);
+  const picked = pickRecordings(all, o.shard);
+  const done = resumableResults(o.resume, outDir);
+  // sizes (bytes), read cheaply before hashing: for the progress bar and the choice of lanes
+  const sizes = picked.map(({ input }) => fileSize(input.path));
+  const { entries, tasks } = planRecordings(o.plan, picked, sizes, done, outDir);
+  const manifest = newManifest(o, all, warnings, entries, started);
+  const writeManifest = () => {
+    manifest.counts = countEntries(entries);
+    writeFileAtomic(join(outDir, MANIFEST_FILE), manifestJson(manifest));
+  };
+  writeManifest();
+
+  const progress = createProgress(picked.map(({ input }, k) => ({ recording: input.recording, size: sizes[k]! })), { mode: o.progress });
+  let lastWrite = performance.now();
+  await runTasks(
+    tasks,
+    o.jobs,
+    (r: RecordingResult) => {
+      const e = entries[r.index]!;
+      recordResult(e, r, done.get(e.recording));
+      progress.done({ recording: e.recording, size: sizes[r.index]! }, r, e.rows);
+      if (performance.now() - lastWrite > 1000) {
+        writeManifest();
+        lastWrite = performance.now();
+      }
+    },
+    o.workerFile,
+    o.readerFile,
+    o.readerMinBytes,
+  );
+  progress.stop();
+  writeBatchTables(outDir, entries);
+  manifest.finished_at = new Date().toISOString();
+  manifest.elapsed_s = round3((performance.now() - t0) / 1000);
+  writeManifest();
+  return { manifest, exitCode: manifest.counts.failed > 0 ? BATCH_EXIT_SOME_FAILED : 0, warnings };
+}
+
+/** Every input with its output folder (named from all inputs, so shards agree), then only this run's shard. */
+function pickRecordings(all: readonly BatchInput[], shard: Shard | null): PickedRecording[] {
   const folders = outputFolders(all.map((i) => i.recording));
-  const picked = o.shard ? selectShard(all.map((input, k) => ({ input, folder: folders[k]! })), o.shard) : all.map((input, k) => ({ input, folder: folders[k]! }));
-  const previous = o.resume ? readManifest(outDir) : null;
+  const withFolders = all.map((input, k) => ({ input, folder: folders[k]! }));
+  return shard ? selectShard(withFolders, shard) : withFolders;
+}
+
+/** With --resume: the finished entries of the previous manifest in DIR written by this version, by recording id. */
+function resumableResults(resume: boolean, outDir: string): Map<string, ManifestEntry> {
+  const previous = resume ? readManifest(outDir) : null;
   const done = new Map<string, ManifestEntry>();
   if (previous && previous.version === VERSION) for (const e of previous.inputs) if (e.status === 'ok' && e.sha256) done.set(e.recording, e);
+  return done;
+}
 
-  // sizes (bytes), read cheaply before hashing: for the progress bar and the choice of lanes
-  const sizes = picked.map(({ input }) => {
-    try {
-      return statSync(input.path).size;
-    } catch {
-      return 0;
-    }
-  });
+/** Size of a file in bytes, or 0 when it cannot be read (here only for the progress bar and the choice of lanes). */
+function fileSize(path: string): number {
+  try {
+    return statSync(path).size;
+  } catch {
+    return 0;
+  }
+}
+
+/** The manifest entry and the task of each picked recording, in order (entry k belongs to task k). */
+function planRecordings(
+  plan: SettingsPlan, picked: readonly PickedRecording[], sizes: readonly number[], done: ReadonlyMap<string, ManifestEntry>, outDir: string,
+): { entries: ManifestEntry[]; tasks: RecordingTask[] } {
   const entries: ManifestEntry[] = [];
   const tasks: RecordingTask[] = [];
   for (const [k, { input, folder }] of picked.entries()) {
-    const rs = settingsForRecording(o.plan, input.recording);
+    const rs = settingsForRecording(plan, input.recording);
     const path = input.path;
     const before = done.get(input.recording);
     const outputs = { breaths: `${folder}/${BREATHS_FILE}`, summary: `${folder}/${SUMMARY_FILE}` };
@@ -95,50 +153,28 @@ export async function runBatch(o: BatchOptions): Promise<BatchOutcome> {
     );
     tasks.push({ index: k, recording: input.recording, path, bytes: sizes[k]!, outFolder: join(outDir, folder), settings: rs.settings, given: rs.given, resumeSha256 });
   }
+  return { entries, tasks };
+}
 
-  const manifest: Manifest = {
+/** The manifest at the start of the run: settings, shard, input list and the entries, not yet finished. */
+function newManifest(o: BatchOptions, all: readonly BatchInput[], warnings: string[], entries: ManifestEntry[], started: string): Manifest {
+  return {
     format: MANIFEST_FORMAT, tool: 'phasewise', version: VERSION, command: o.command ?? 'phasewise batch',
     settings: o.plan.base, settings_given: o.plan.baseGiven, settings_file: o.plan.settingsFile,
     settings_files_patterns: o.plan.files, settings_sha256: o.plan.sha256,
     shard: o.shard ?? { index: 0, count: 1 }, inputs_total: all.length, input_list_sha256: inputListHash(all.map((i) => i.recording)),
     merged_from: [], warnings, jobs: o.jobs, counts: countEntries(entries), started_at: started, finished_at: null, elapsed_s: null, inputs: entries,
   };
-  const writeManifest = () => {
-    manifest.counts = countEntries(entries);
-    writeFileAtomic(join(outDir, MANIFEST_FILE), manifestJson(manifest));
-  };
-  writeManifest();
+}
 
-  const progress = createProgress(picked.map(({ input }, k) => ({ recording: input.recording, size: sizes[k]! })), { mode: o.progress });
-  let lastWrite = performance.now();
-  await runTasks(
-    tasks,
-    o.jobs,
-    (r: RecordingResult) => {
-      const e = entries[r.index]!;
-      const before = done.get(e.recording);
-      Object.assign(e, {
-        status: r.status, error: r.error, size: r.size, sha256: r.sha256, resumed: r.resumed, elapsed_s: round3(r.elapsed_s),
-        rows: r.resumed ? (before?.rows ?? null) : r.rows,
-        breaths_found: r.resumed ? (before?.breaths_found ?? null) : r.breaths_found,
-        breaths_ok: r.resumed ? (before?.breaths_ok ?? null) : r.breaths_ok,
-      });
-      progress.done({ recording: e.recording, size: sizes[r.index]! }, r, e.rows);
-      if (performance.now() - lastWrite > 1000) {
-        writeManifest();
-        lastWrite = performance.now();
-      }
-    },
-    o.workerFile,
-    o.readerFile,
-    o.readerMinBytes,
-  );
-  progress.stop();
-  writeBatchTables(outDir, entries);
-  manifest.finished_at = new Date().toISOString();
-  manifest.elapsed_s = round3((performance.now() - t0) / 1000);
-  writeManifest();
-  return { manifest, exitCode: manifest.counts.failed > 0 ? BATCH_EXIT_SOME_FAILED : 0, warnings };
+/** Writes a recording's result into its manifest entry; a resumed recording keeps the counts of its earlier entry `before`. */
+function recordResult(e: ManifestEntry, r: RecordingResult, before: ManifestEntry | undefined): void {
+  Object.assign(e, {
+    status: r.status, error: r.error, size: r.size, sha256: r.sha256, resumed: r.resumed, elapsed_s: round3(r.elapsed_s),
+    rows: r.resumed ? (before?.rows ?? null) : r.rows,
+    breaths_found: r.resumed ? (before?.breaths_found ?? null) : r.breaths_found,
+    breaths_ok: r.resumed ? (before?.breaths_ok ?? null) : r.breaths_ok,
+  });
 }
 
 function round3(x: number): number {
