@@ -104,6 +104,17 @@ export async function runLane(
   }
 }
 
+/** What the lanes of one runTasks call share: the task list, the index of the next task to hand out, the workers. */
+interface SharedQueue {
+  tasks: readonly RecordingTask[];
+  /** index of the next task to hand out */
+  next: number;
+  /** set when the batch ends early with an error: no more tasks are handed out, no more results passed on */
+  failed: boolean;
+  workers: Worker[];
+  readerMinBytes: number;
+}
+
 export async function runTasks(
   tasks: readonly RecordingTask[],
   jobs: number,
@@ -113,76 +124,94 @@ export async function runTasks(
   readerMinBytes: number = READER_MIN_BYTES,
 ): Promise<void> {
   if (!tasks.length) return;
-  // pairs when at least half of the bytes are in recordings large enough for the reader thread
-  const total = tasks.reduce((a, t) => a + t.bytes, 0);
-  const big = tasks.reduce((a, t) => a + (t.bytes >= readerMinBytes ? t.bytes : 0), 0);
-  const lanes = planLanes(jobs, tasks.length, readerFile !== null && total > 0 && big >= 0.5 * total);
+  const lanes = planLanes(jobs, tasks.length, readerFile !== null && mostBytesInLargeFiles(tasks, readerMinBytes));
   if (lanes.length > 1 && !workerFile) throw new Error(`the worker bundle ${WORKER_BUNDLE} was not found next to the CLI; run \`npm run build\``);
-  let next = 0;
-  let done = 0;
-  const workers: Worker[] = [];
-  let failed = false;
+  const queue: SharedQueue = { tasks, next: 0, failed: false, workers: [], readerMinBytes };
   await new Promise<void>((resolve, reject) => {
-    // a failure of the caller's own handler (e.g. the manifest cannot be written) ends the batch with that error
-    const complete = (r: RecordingResult) => {
-      if (failed) return;
-      try {
-        onResult(r);
-      } catch (e) {
-        failed = true;
-        for (const w of workers) void w.terminate();
-        reject(e);
-        return;
-      }
-      if (++done === tasks.length) resolve();
-    };
+    const complete = resultHandler(queue, onResult, resolve, reject);
     // the main thread's lane
-    runLane(() => (failed || next >= tasks.length ? null : tasks[next++]!), complete, lanes[0] ? readerFile : null, readerMinBytes).catch((e: unknown) => {
-      failed = true;
+    runLane(() => (queue.failed || queue.next >= tasks.length ? null : tasks[queue.next++]!), complete, lanes[0] ? readerFile : null, readerMinBytes).catch((e: unknown) => {
+      queue.failed = true;
       reject(e);
     });
-    for (let k = 1; k < lanes.length; k++) startWorker(workerFile!, lanes[k] ? readerFile : null);
-
-    function startWorker(file: string, laneReader: string | null): void {
-      const data: BatchWorkerData = { readerFile: laneReader, readerMinBytes };
-      const w = new Worker(file, { workerData: data });
-      workers.push(w);
-      const depth = laneReader ? 2 : 1;
-      const held = new Map<number, RecordingTask>();
-      let finished = false;
-      const give = () => {
-        while (!failed && held.size < depth && next < tasks.length) {
-          const t = tasks[next++]!;
-          held.set(t.index, t);
-          w.postMessage(t);
-        }
-        if (held.size === 0) {
-          finished = true;
-          void w.terminate();
-        }
-      };
-      w.on('message', (r: RecordingResult) => {
-        held.delete(r.index);
-        complete(r);
-        give();
-      });
-      const died = (why: string) => {
-        if (finished) return;
-        finished = true;
-        for (const t of held.values()) {
-          complete({
-            index: t.index, status: 'failed', resumed: false, size: null, sha256: null,
-            error: { code: 'internal', message: `${t.recording}: the worker stopped (${why}) (please report it)` },
-            rows: null, breaths_found: null, breaths_ok: null, elapsed_s: 0,
-          });
-        }
-        held.clear();
-        void w.terminate();
-        if (!failed && next < tasks.length) startWorker(file, laneReader);
-      };
-      w.on('error', (e) => died(e.message.replace(/[\r\n]+/g, ' ')));
-      w.on('exit', (code) => died(`exit code ${code}`));
-      give();
-    }
+    for (let k = 1; k < lanes.length; k++) startWorker(queue, complete, workerFile!, lanes[k] ? readerFile : null);
   });
+}
+
+/** Whether at least half of the bytes are in recordings large enough for the reader thread (then threads go in pairs). */
+function mostBytesInLargeFiles(tasks: readonly RecordingTask[], readerMinBytes: number): boolean {
+  const total = tasks.reduce((a, t) => a + t.bytes, 0);
+  const big = tasks.reduce((a, t) => a + (t.bytes >= readerMinBytes ? t.bytes : 0), 0);
+  return total > 0 && big >= 0.5 * total;
+}
+
+/**
+ * The function every lane calls with a result: passes it to `onResult` and resolves once every task has one.
+ * A failure of the caller's own handler (e.g. the manifest cannot be written) ends the batch with that error.
+ */
+function resultHandler(
+  queue: SharedQueue, onResult: (r: RecordingResult) => void, resolve: () => void, reject: (e: unknown) => void,
+): (r: RecordingResult) => void {
+  let done = 0;
+  return (r: RecordingResult) => {
+    if (queue.failed) return;
+    try {
+      onResult(r);
+    } catch (e) {
+      queue.failed = true;
+      for (const w of queue.workers) void w.terminate();
+      reject(e);
+      return;
+    }
+    if (++done === queue.tasks.length) resolve();
+  };
+}
+
+/**
+ * Starts a batch worker as one lane: it is given tasks from the queue (two at a time when it has a reader thread,
+ * so the reader never waits) until none are left. If it dies, the tasks it held fail and a new worker takes its place.
+ */
+function startWorker(queue: SharedQueue, complete: (r: RecordingResult) => void, file: string, laneReader: string | null): void {
+  const data: BatchWorkerData = { readerFile: laneReader, readerMinBytes: queue.readerMinBytes };
+  const w = new Worker(file, { workerData: data });
+  queue.workers.push(w);
+  const depth = laneReader ? 2 : 1;
+  const held = new Map<number, RecordingTask>();
+  let finished = false;
+  const give = () => {
+    while (!queue.failed && held.size < depth && queue.next < queue.tasks.length) {
+      const t = queue.tasks[queue.next++]!;
+      held.set(t.index, t);
+      w.postMessage(t);
+    }
+    if (held.size === 0) {
+      finished = true;
+      void w.terminate();
+    }
+  };
+  w.on('message', (r: RecordingResult) => {
+    held.delete(r.index);
+    complete(r);
+    give();
+  });
+  const died = (why: string) => {
+    if (finished) return;
+    finished = true;
+    for (const t of held.values()) complete(workerStoppedResult(t, why));
+    held.clear();
+    void w.terminate();
+    if (!queue.failed && queue.next < queue.tasks.length) startWorker(queue, complete, file, laneReader);
+  };
+  w.on('error', (e) => died(e.message.replace(/[\r\n]+/g, ' ')));
+  w.on('exit', (code) => died(`exit code ${code}`));
+  give();
+}
+
+/** The failed result of a task held by a worker that stopped (`why`: its error message or exit code). */
+function workerStoppedResult(t: RecordingTask, why: string): RecordingResult {
+  return {
+    index: t.index, status: 'failed', resumed: false, size: null, sha256: null,
+    error: { code: 'internal', message: `${t.recording}: the worker stopped (${why}) (please report it)` },
+    rows: null, breaths_found: null, breaths_ok: null, elapsed_s: 0,
+  };
 }
