@@ -174,6 +174,31 @@ function findHeaderAndData(classes: LineClass[]): Found | null {
 
 /** Split the head into lines and find delimiter, decimal mark, header and data start. */
 export function sniffStructure(headText: string, settings: IngestSettings, file: string): TableStructure {
+  const { lines, line_end } = splitHead(headText, file);
+  const notes: string[] = [];
+  const givenDelimiter = settings.delimiter === null ? null : normaliseDelimiter(settings.delimiter, file);
+  const candidates = (givenDelimiter ? [givenDelimiter] : DELIMITERS).map((d) => delimiterCandidate(lines, d));
+  const best = pickDelimiter(candidates, lines);
+  if (!best || !best.found) throw noDataError(lines, file, givenDelimiter);
+  const delimiter = best.d;
+  notes.push(givenDelimiter ? `delimiter ${delimiterName(delimiter)} (given)` : `delimiter ${delimiterName(delimiter)} detected`);
+
+  const { data_start_index: start, units_row_index } = best.found;
+  const { header_index, header, units_row } = readHeader(best.classes, best.found, lines, delimiter, notes);
+  const header_trailing_empty = header.length > 1 && header[header.length - 1] === '';
+  const decimal = chooseDecimal(settings, best.classes, start, notes);
+  return {
+    lines, line_end, delimiter, decimal, header_index, units_row_index, data_start_index: start, header, units_row,
+    field_count: header.length, header_trailing_empty, notes,
+    origins: { delimiter: givenDelimiter ? 'given' : 'inferred', decimal: settings.decimal !== null ? 'given' : 'inferred' },
+  };
+}
+
+/**
+ * The head's complete lines (a byte-order mark dropped, the line end detected, a partial last line left out) after
+ * refusing a head that holds binary data, is empty, or has a line longer than MAX_LINE_CHARS.
+ */
+function splitHead(headText: string, file: string): { lines: string[]; line_end: '\n' | '\r' } {
   const head = headText.charCodeAt(0) === 0xfeff ? headText.slice(1) : headText;
   const nul = head.indexOf('\u0000');
   if (nul >= 0) {
@@ -192,34 +217,37 @@ export function sniffStructure(headText: string, settings: IngestSettings, file:
     const line = long >= 0 ? long + 1 : 1;
     throw new InputError('line_too_long', `line ${line} is longer than ${MAX_LINE_CHARS / 1000} kB`, 'This does not look like a table of samples; export it as CSV with one sample per line.', { file, line });
   }
+  return { lines, line_end };
+}
 
-  const notes: string[] = [];
-  const givenDelimiter = settings.delimiter === null ? null : normaliseDelimiter(settings.delimiter, file);
-  const candidates: Candidate[] = (givenDelimiter ? [givenDelimiter] : DELIMITERS).map((d) => {
-    const classes = lines.map((l) => classify(l, d));
-    const found = findHeaderAndData(classes);
-    let score = 0;
-    if (found) {
-      for (let k = found.data_start_index; k < classes.length; k++) {
-        const c = classes[k]!;
-        if (c.dataLike && c.fields!.length === found.count) score += c.weight;
-      }
+/** The lines classified with delimiter `d`, the header and data found, and the score: the weight of the data rows. */
+function delimiterCandidate(lines: string[], d: string): Candidate {
+  const classes = lines.map((l) => classify(l, d));
+  const found = findHeaderAndData(classes);
+  let score = 0;
+  if (found) {
+    for (let k = found.data_start_index; k < classes.length; k++) {
+      const c = classes[k]!;
+      if (c.dataLike && c.fields!.length === found.count) score += c.weight;
     }
-    return { d, classes, found, score };
-  });
-  const best = pickDelimiter(candidates, lines);
-  if (!best || !best.found) throw noDataError(lines, file, givenDelimiter);
-  const delimiter = best.d;
-  notes.push(givenDelimiter ? `delimiter ${delimiterName(delimiter)} (given)` : `delimiter ${delimiterName(delimiter)} detected`);
+  }
+  return { d, classes, found, score };
+}
 
-  // header and optional units row
-  const { count: n, data_start_index: start, units_row_index } = best.found;
-  let header_index = best.found.header_index;
+/**
+ * The header's cells and units row (unquoted), with a note on each. Without a header line, a comment line just
+ * before the data that splits like a header ('# time,flow,co2') is read as one; else the columns get plain names.
+ */
+function readHeader(
+  classes: LineClass[], found: Found, lines: string[], delimiter: string, notes: string[],
+): { header_index: number; header: string[]; units_row: string[] | null } {
+  const { count: n, data_start_index: start, units_row_index } = found;
+  let header_index = found.header_index;
   let header: string[] = [];
   let units_row: string[] | null = null;
   if (header_index >= 0) {
-    header = best.classes[header_index]!.fields!.map(unquoteCell);
-    if (units_row_index >= 0) units_row = best.classes[units_row_index]!.fields!.map(unquoteCell);
+    header = classes[header_index]!.fields!.map(unquoteCell);
+    if (units_row_index >= 0) units_row = classes[units_row_index]!.fields!.map(unquoteCell);
   } else {
     // a header written as a comment ('# time,flow,co2') just before the data
     let k = start - 1;
@@ -241,22 +269,18 @@ export function sniffStructure(headText: string, settings: IngestSettings, file:
     if (header_index > 0) notes.push(`${header_index} line(s) before the header skipped (preamble)`);
     if (units_row_index >= 0) notes.push(`line ${units_row_index + 1} read as a units row`);
   }
-  const header_trailing_empty = header.length > 1 && header[header.length - 1] === '';
+  return { header_index, header, units_row };
+}
 
-  // decimal mark
-  let decimal: '.' | ',';
+/** The decimal mark: the given one, else the one detected in the data rows from line index `start` on; notes which. */
+function chooseDecimal(settings: IngestSettings, classes: LineClass[], start: number, notes: string[]): '.' | ',' {
   if (settings.decimal !== null) {
-    decimal = settings.decimal;
-    notes.push(`decimal mark '${decimal}' (given)`);
-  } else {
-    decimal = detectDecimal(best.classes, start);
-    notes.push(`decimal mark '${decimal}' detected`);
+    notes.push(`decimal mark '${settings.decimal}' (given)`);
+    return settings.decimal;
   }
-  return {
-    lines, line_end, delimiter, decimal, header_index, units_row_index, data_start_index: start, header, units_row,
-    field_count: header.length, header_trailing_empty, notes,
-    origins: { delimiter: givenDelimiter ? 'given' : 'inferred', decimal: settings.decimal !== null ? 'given' : 'inferred' },
-  };
+  const decimal = detectDecimal(classes, start);
+  notes.push(`decimal mark '${decimal}' detected`);
+  return decimal;
 }
 
 function pickDelimiter(candidates: Candidate[], lines: string[]): Candidate | null {
