@@ -5,7 +5,7 @@ import type { IngestSettings } from '../settings';
 import { DEFAULT_INGEST } from '../settings';
 import type { RecordedSetting } from '../types';
 import { parseNumberCell, unquoteCell } from './cell';
-import { chooseColumns, type ColumnSample } from './choose-columns';
+import { chooseColumns, type ColumnChoice, type ColumnSample } from './choose-columns';
 import { clockKind, parseClockSeconds, type ClockKind } from './clock-time';
 import { InputError } from './errors';
 import type { TableLayout, TimeFormat } from './layout';
@@ -19,6 +19,20 @@ import {
 
 /** Share of non-increasing time steps in the first rows above which the file is refused. */
 const MAX_BACKWARD_SHARE = 0.1;
+
+/** Where the header is, for messages: the file and the 1-based line of the header (or of the first data row). */
+interface Place {
+  file: string;
+  line: number;
+}
+
+/** The time format, clock kind and sampling rate chosen, with where the time unit came from. */
+interface TimeChoice {
+  format: TimeFormat;
+  clock: ClockKind | null;
+  origin: RecordedSetting['origin'];
+  rate_hz: number;
+}
 
 /**
  * Work out the layout of a text table from its head (the first ~64 kB of text).
@@ -40,63 +54,14 @@ export function sniffTable(head: string, settings: IngestSettings, min_rate_hz: 
   if (rateMode) notes.push(`time from the sampling rate ${settings.rate_hz} Hz (given); any time column is ignored`);
   else if (settings.rate_hz !== null) notes.push(`--rate ${settings.rate_hz} ignored: the time column is used`);
 
-  const unitOf = (i: number, kind: HeaderUnit['kind']): { u: HeaderUnit | null; text: string | null } => {
-    const text = splitNameAndUnit(st.header[i] ?? '')[1] ?? (st.units_row ? st.units_row[i] || null : null);
-    if (text === null) return { u: null, text: null };
-    const u = parseUnitText(text);
-    return { u: u && u.kind === kind ? u : null, text };
-  };
-  const place = { file: fileName, line: headerLine };
-
-  // --- flow unit
-  const flowValues = sample.values[cols.flow]!;
-  if (flowValues.length === 0) {
-    throw new InputError('no_numeric_rows', `the flow column "${st.header[cols.flow]}" holds no numbers in the first ${sample.lines.length} rows`, 'Check --flow-col and --decimal.', { file: fileName, line: sample.lines[0] ?? headerLine, column: cols.flow + 1 });
-  }
-  const flowPeak = robustMax(flowValues.map(Math.abs));
-  const flowUnit = decideUnit<FlowUnit>('flow', settings.flow_unit, unitOf(cols.flow, 'flow'), () => inferFlowUnit(flowPeak), notes);
-  if (flowUnit.origin !== 'inferred-values') {
-    const bad = flowUnitMismatch(flowUnit.unit, flowPeak);
-    if (bad) throw new InputError('unit_mismatch', bad.detail + (flowUnit.origin === 'header' ? ' (unit read from the header)' : ''), bad.hint, { ...place, column: cols.flow + 1 });
-  }
-  // --- CO2 unit
-  const co2Values = sample.values[cols.co2]!;
-  const co2High = robustMax(co2Values);
-  const co2Unit = decideUnit<Co2Unit>('co2', settings.co2_unit, unitOf(cols.co2, 'co2'), () => inferCo2Unit(co2Values.length ? co2High : NaN), notes);
-  if (co2Unit.origin !== 'inferred-values') {
-    const bad = co2UnitMismatch(co2Unit.unit, co2High);
-    if (bad) throw new InputError('unit_mismatch', bad.detail + (co2Unit.origin === 'header' ? ' (unit read from the header)' : ''), bad.hint, { ...place, column: cols.co2 + 1 });
-  }
-  if (co2Values.length === 0) notes.push(`warning: the CO2 column holds no numbers in the first ${sample.lines.length} rows`);
-  if (co2Unit.unit === '%') notes.push(`CO2 % converted with PB ${settings.pb_mmhg} mmHg, ${settings.co2_percent} convention (${settings.co2_percent === 'dry' ? 'PCO2 = F x (PB - 47)' : 'PCO2 = F x PB'})`);
-
-  // --- time format and rate
-  let timeFormat: TimeFormat = 'rate';
-  let clock_kind: ClockKind | null = null;
-  let timeOrigin: RecordedSetting['origin'] = 'given';
-  let rate_hz = settings.rate_hz ?? NaN;
-  if (!rateMode) {
-    const t = decideTime(st, cols.time, settings, unitOf(cols.time, 'time'), sample, notes, { file: fileName, line: headerLine, column: cols.time + 1 });
-    timeFormat = t.format;
-    clock_kind = t.clock;
-    timeOrigin = t.origin;
-    rate_hz = estimateRate(st, cols.time, cols.flow, t.format, t.clock, fileName);
-    if (Number.isFinite(rate_hz)) notes.push(`sampling rate of flow about ${fmt(rate_hz)} Hz (median step of the first rows)`);
-  }
-  if (rate_hz < min_rate_hz) {
-    const hintMs = timeFormat === 's' ? ' If the times are milliseconds, give --time-unit ms.' : '';
-    throw new InputError('rate_too_low', `the sampling rate is about ${fmt(rate_hz)} Hz, below the minimum ${min_rate_hz} Hz needed for phase II work`, `Record or export at ${min_rate_hz} Hz or more (min_rate_hz in the settings file sets the limit).${hintMs}`, { file: fileName, line: sample.lines[0] ?? headerLine });
-  }
+  const place: Place = { file: fileName, line: headerLine };
+  const flowUnit = chooseFlowUnit(st, cols.flow, settings, sample, notes, place);
+  const co2Unit = chooseCo2Unit(st, cols.co2, settings, sample, notes, place);
+  const time = rateMode ? rateTime(settings) : chooseTime(st, cols, settings, sample, notes, place);
+  refuseLowRate(time, min_rate_hz, sample, place);
   const mixed = mixedRateNote(st, cols.flow, cols.co2, sample);
   if (mixed) notes.push(mixed);
-
-  const recorded = (value: unknown, origin: RecordedSetting['origin'], note?: string): RecordedSetting => (note ? { value, origin, note } : { value, origin });
-  const givenOrDefault = (k: keyof IngestSettings): RecordedSetting => recorded(settings[k], settings[k] === DEFAULT_INGEST[k] ? 'default' : 'given');
-  // flow volumes to BTPS (derived here, docs/methods.md: F_BTPS = (310.15 / (273.15 + T)) (PB - PH2O(T)) / (PB - 47); dry gas: PH2O(T) = 0)
-  const conditionFactor = settings.flow_condition === 'btps' ? 1 : btpsFactor(settings.flow_temp_c, settings.pb_mmhg, settings.flow_condition === 'atps');
-  if (settings.flow_condition !== 'btps') {
-    notes.push(`flow converted from ${settings.flow_condition.toUpperCase()} at ${settings.flow_temp_c} C to BTPS (x ${conditionFactor.toFixed(4)})`);
-  }
+  const conditionFactor = flowConditionFactor(settings, notes);
   return {
     delimiter: st.delimiter,
     decimal: st.decimal,
@@ -109,27 +74,104 @@ export function sniffTable(head: string, settings: IngestSettings, min_rate_hz: 
     header_trailing_empty: st.header_trailing_empty,
     columns: { time: rateMode ? -1 : cols.time, flow: cols.flow, co2: cols.co2 },
     names: { time: rateMode ? null : st.header[cols.time]!, flow: st.header[cols.flow]!, co2: st.header[cols.co2]! },
-    units: { time: timeFormat, flow: flowUnit.unit, co2: co2Unit.unit },
-    clock_kind,
+    units: { time: time.format, flow: flowUnit.unit, co2: co2Unit.unit },
+    clock_kind: time.clock,
     flow_factor: flowFactorToLps(flowUnit.unit) * conditionFactor,
     co2_factor: co2FactorToMmhg(co2Unit.unit, settings.pb_mmhg, settings.co2_percent),
-    time_divisor: timeFormat === 'ms' ? 1000 : 1,
-    rate_hz,
+    time_divisor: time.format === 'ms' ? 1000 : 1,
+    rate_hz: time.rate_hz,
     notes,
-    settings: {
-      delimiter: recorded(st.delimiter, st.origins.delimiter),
-      decimal: recorded(st.decimal, st.origins.decimal),
-      time_col: recorded(rateMode ? null : st.header[cols.time], rateMode ? 'default' : cols.origins.time_col),
-      flow_col: recorded(st.header[cols.flow], cols.origins.flow_col),
-      co2_col: recorded(st.header[cols.co2], cols.origins.co2_col),
-      time_unit: recorded(timeFormat, timeOrigin),
-      rate_hz: recorded(rate_hz, rateMode ? 'given' : 'inferred'),
-      flow_unit: recorded(flowUnit.unit, flowUnit.origin === 'given' ? 'given' : 'inferred', flowUnit.note),
-      co2_unit: recorded(co2Unit.unit, co2Unit.origin === 'given' ? 'given' : 'inferred', co2Unit.note),
-      pb_mmhg: givenOrDefault('pb_mmhg'),
-      co2_percent: givenOrDefault('co2_percent'),
-      max_silence_s: givenOrDefault('max_silence_s'),
-    },
+    settings: recordedSettings(st, cols, settings, rateMode, time, flowUnit, co2Unit),
+  };
+}
+
+/** The unit text of column `i` (from its header cell, else from the units row) and the unit it names if of `kind`. */
+function headerUnit(st: TableStructure, i: number, kind: HeaderUnit['kind']): { u: HeaderUnit | null; text: string | null } {
+  const text = splitNameAndUnit(st.header[i] ?? '')[1] ?? (st.units_row ? st.units_row[i] || null : null);
+  if (text === null) return { u: null, text: null };
+  const u = parseUnitText(text);
+  return { u: u && u.kind === kind ? u : null, text };
+}
+
+/** The flow unit (given, from the header, or from the sampled values); refuses a flow column without numbers and a unit the values contradict. */
+function chooseFlowUnit(st: TableStructure, col: number, settings: IngestSettings, sample: ColumnSample, notes: string[], place: Place): UnitChoice<FlowUnit> {
+  const flowValues = sample.values[col]!;
+  if (flowValues.length === 0) {
+    throw new InputError('no_numeric_rows', `the flow column "${st.header[col]}" holds no numbers in the first ${sample.lines.length} rows`, 'Check --flow-col and --decimal.', { file: place.file, line: sample.lines[0] ?? place.line, column: col + 1 });
+  }
+  const flowPeak = robustMax(flowValues.map(Math.abs));
+  const flowUnit = decideUnit<FlowUnit>('flow', settings.flow_unit, headerUnit(st, col, 'flow'), () => inferFlowUnit(flowPeak), notes);
+  if (flowUnit.origin !== 'inferred-values') {
+    const bad = flowUnitMismatch(flowUnit.unit, flowPeak);
+    if (bad) throw new InputError('unit_mismatch', bad.detail + (flowUnit.origin === 'header' ? ' (unit read from the header)' : ''), bad.hint, { ...place, column: col + 1 });
+  }
+  return flowUnit;
+}
+
+/** The CO2 unit (given, from the header, or from the sampled values); refuses a unit the values contradict, notes a CO2 column without numbers and the % conversion. */
+function chooseCo2Unit(st: TableStructure, col: number, settings: IngestSettings, sample: ColumnSample, notes: string[], place: Place): UnitChoice<Co2Unit> {
+  const co2Values = sample.values[col]!;
+  const co2High = robustMax(co2Values);
+  const co2Unit = decideUnit<Co2Unit>('co2', settings.co2_unit, headerUnit(st, col, 'co2'), () => inferCo2Unit(co2Values.length ? co2High : NaN), notes);
+  if (co2Unit.origin !== 'inferred-values') {
+    const bad = co2UnitMismatch(co2Unit.unit, co2High);
+    if (bad) throw new InputError('unit_mismatch', bad.detail + (co2Unit.origin === 'header' ? ' (unit read from the header)' : ''), bad.hint, { ...place, column: col + 1 });
+  }
+  if (co2Values.length === 0) notes.push(`warning: the CO2 column holds no numbers in the first ${sample.lines.length} rows`);
+  if (co2Unit.unit === '%') notes.push(`CO2 % converted with PB ${settings.pb_mmhg} mmHg, ${settings.co2_percent} convention (${settings.co2_percent === 'dry' ? 'PCO2 = F x (PB - 47)' : 'PCO2 = F x PB'})`);
+  return co2Unit;
+}
+
+/** Time from the given sampling rate (no time column is read). */
+function rateTime(settings: IngestSettings): TimeChoice {
+  return { format: 'rate', clock: null, origin: 'given', rate_hz: settings.rate_hz ?? NaN };
+}
+
+/** Time from the time column: its format (seconds, milliseconds or clock stamps) and the sampling rate of flow. */
+function chooseTime(st: TableStructure, cols: ColumnChoice, settings: IngestSettings, sample: ColumnSample, notes: string[], place: Place): TimeChoice {
+  const t = decideTime(st, cols.time, settings, headerUnit(st, cols.time, 'time'), sample, notes, { ...place, column: cols.time + 1 });
+  const rate_hz = estimateRate(st, cols.time, cols.flow, t.format, t.clock, place.file);
+  if (Number.isFinite(rate_hz)) notes.push(`sampling rate of flow about ${fmt(rate_hz)} Hz (median step of the first rows)`);
+  return { format: t.format, clock: t.clock, origin: t.origin, rate_hz };
+}
+
+/** Refuses a recording sampled slower than `min_rate_hz`. */
+function refuseLowRate(time: TimeChoice, min_rate_hz: number, sample: ColumnSample, place: Place): void {
+  if (!(time.rate_hz < min_rate_hz)) return;
+  const hintMs = time.format === 's' ? ' If the times are milliseconds, give --time-unit ms.' : '';
+  throw new InputError('rate_too_low', `the sampling rate is about ${fmt(time.rate_hz)} Hz, below the minimum ${min_rate_hz} Hz needed for phase II work`, `Record or export at ${min_rate_hz} Hz or more (min_rate_hz in the settings file sets the limit).${hintMs}`, { file: place.file, line: sample.lines[0] ?? place.line });
+}
+
+/** The factor that brings flow volumes to BTPS, with a note when flow is converted. */
+function flowConditionFactor(settings: IngestSettings, notes: string[]): number {
+  // flow volumes to BTPS (derived here, docs/methods.md: F_BTPS = (310.15 / (273.15 + T)) (PB - PH2O(T)) / (PB - 47); dry gas: PH2O(T) = 0)
+  const conditionFactor = settings.flow_condition === 'btps' ? 1 : btpsFactor(settings.flow_temp_c, settings.pb_mmhg, settings.flow_condition === 'atps');
+  if (settings.flow_condition !== 'btps') {
+    notes.push(`flow converted from ${settings.flow_condition.toUpperCase()} at ${settings.flow_temp_c} C to BTPS (x ${conditionFactor.toFixed(4)})`);
+  }
+  return conditionFactor;
+}
+
+/** Each reading setting as used, with where it came from (given, default or inferred), for the report. */
+function recordedSettings(
+  st: TableStructure, cols: ColumnChoice, settings: IngestSettings, rateMode: boolean, time: TimeChoice,
+  flowUnit: UnitChoice<FlowUnit>, co2Unit: UnitChoice<Co2Unit>,
+): TableLayout['settings'] {
+  const recorded = (value: unknown, origin: RecordedSetting['origin'], note?: string): RecordedSetting => (note ? { value, origin, note } : { value, origin });
+  const givenOrDefault = (k: keyof IngestSettings): RecordedSetting => recorded(settings[k], settings[k] === DEFAULT_INGEST[k] ? 'default' : 'given');
+  return {
+    delimiter: recorded(st.delimiter, st.origins.delimiter),
+    decimal: recorded(st.decimal, st.origins.decimal),
+    time_col: recorded(rateMode ? null : st.header[cols.time], rateMode ? 'default' : cols.origins.time_col),
+    flow_col: recorded(st.header[cols.flow], cols.origins.flow_col),
+    co2_col: recorded(st.header[cols.co2], cols.origins.co2_col),
+    time_unit: recorded(time.format, time.origin),
+    rate_hz: recorded(time.rate_hz, rateMode ? 'given' : 'inferred'),
+    flow_unit: recorded(flowUnit.unit, flowUnit.origin === 'given' ? 'given' : 'inferred', flowUnit.note),
+    co2_unit: recorded(co2Unit.unit, co2Unit.origin === 'given' ? 'given' : 'inferred', co2Unit.note),
+    pb_mmhg: givenOrDefault('pb_mmhg'),
+    co2_percent: givenOrDefault('co2_percent'),
+    max_silence_s: givenOrDefault('max_silence_s'),
   };
 }
 
