@@ -162,123 +162,171 @@ export interface ByteReadCallbacks {
 export async function readRecordingBytes(
   src: ByteSource, settings: IngestSettings, minRateHz: number, cb: ByteReadCallbacks,
 ): Promise<IngestReport> {
-  let decoder: TextDecoder | null = null;
-  let encodingNote: string | null = null;
-  let reader: TableReader | null = null;
-  let head = '';
-  let offset = 0;
-  let replaced = 0;
-  let firstReplacedByte = -1;
+  const reading = new ByteReading(src, settings, minRateHz, cb);
+  for await (const buf of src.chunks) await reading.chunk(buf);
+  await reading.end();
+  return reading.report();
+}
+
+/** The state of one readRecordingBytes call: the decoder, the head until it is sniffed, then the table reader. */
+class ByteReading {
+  private decoder: TextDecoder | null = null;
+  private encodingNote: string | null = null;
+  private reader: TableReader | null = null;
+  private head = '';
+  private offset = 0;
+  private replaced = 0;
+  private firstReplacedByte = -1;
   // byte mode: valid UTF-8 so far; `pending` = the start of a character that continues in the next chunk
-  let utf8: Utf8Stream | null = null;
-  let pending: Uint8Array | null = null;
-  const headBytes: Uint8Array[] = [];
-  const feed = (text: string) => {
-    for (const b of reader!.push(text)) cb.onBlock(b);
-  };
-  const feedBytes = (bytes: Uint8Array) => {
-    for (const b of reader!.pushBytes(bytes)) cb.onBlock(b);
-  };
-  const start = () => {
-    const sniffed = head.slice(0, SNIFF_CHARS);
-    const layout = sniffTable(sniffed, settings, minRateHz, src.name);
-    cb.onLayout?.(layout, sniffed);
-    reader = createTableReader(layout, settings, src.name, { countBytes: false }); // report.bytes = src.size below
-    if (utf8) for (const b of headBytes.splice(0)) feedBytes(b);
-    else feed(head);
-    head = '';
-  };
-  const decode = async (buf: Uint8Array | null): Promise<string> => {
-    const d = decoder!;
+  private utf8: Utf8Stream | null = null;
+  private pending: Uint8Array | null = null;
+  private readonly headBytes: Uint8Array[] = [];
+
+  constructor(
+    private readonly src: ByteSource,
+    private readonly settings: IngestSettings,
+    private readonly minRateHz: number,
+    private readonly cb: ByteReadCallbacks,
+  ) {}
+
+  /** Takes the file's next chunk: into the head until the reader starts, then to the reader as bytes or as text. */
+  async chunk(buf: Uint8Array): Promise<void> {
+    if (this.decoder === null) this.open(buf);
+    if (this.reader === null) await this.headChunk(buf);
+    else if (this.utf8) this.byteChunk(buf);
+    else await this.textChunk(buf);
+    this.offset += buf.length;
+    this.cb.onProgress?.(Math.min(this.src.size, this.offset));
+  }
+
+  /** After the last chunk: starts the reader on a short head, or hands it what the decoder still holds; then ends it. */
+  async end(): Promise<void> {
+    if (this.reader === null) {
+      this.head += this.decoder ? await this.decode(null) : '';
+      this.start();
+    } else if (this.utf8) {
+      // a character cut by the end of the file is not text: the text path notes it the same way
+      if (this.utf8.unfinished) {
+        this.firstReplacedByte = Math.max(0, this.src.size - 1);
+        this.decoder = new TextDecoder('utf-8', { fatal: false, ignoreBOM: true });
+      }
+    } else {
+      const tail = this.decoder ? await this.decode(null) : '';
+      if (tail) this.feed(tail);
+    }
+    for (const b of this.reader!.end()) this.cb.onBlock(b);
+  }
+
+  /** The reader's report, with the file size, the encoding note and a note on bytes that were not text. */
+  async report(): Promise<IngestReport> {
+    const report = this.reader!.report();
+    report.bytes = this.src.size;
+    if (this.encodingNote) report.notes.unshift(this.encodingNote);
+    if (this.firstReplacedByte >= 0) {
+      const line = await this.src.lineAtByte(this.firstReplacedByte);
+      report.notes.push(`warning: ${Math.max(this.replaced, 1)} byte sequence(s) after the first ${CHUNK_BYTES >> 20} MiB are not ${this.decoder!.encoding.toUpperCase()} text (first at line ${line}, byte ${this.firstReplacedByte}); lines where they hit a time, flow or CO2 cell were skipped`);
+    }
+    return report;
+  }
+
+  /** On the first chunk: the decoder from the byte-order mark (known binaries refused); UTF-8 goes as bytes unless decodeAll. */
+  private open(buf: Uint8Array): void {
+    const d = openDecoder(buf, this.src.name);
+    this.decoder = d.decoder;
+    this.encodingNote = d.note;
+    if (d.decoder.encoding === 'utf-8' && !this.src.decodeAll) this.utf8 = new Utf8Stream(this.src.isAscii ?? null);
+  }
+
+  /** A chunk of the head: decoded for the sniffer (a fatal decoder refuses text that is not UTF-8/UTF-16 here), kept as bytes too in byte mode. */
+  private async headChunk(buf: Uint8Array): Promise<void> {
+    const text = await this.decode(buf);
+    if (this.utf8) {
+      const bytes = this.completeBytes(buf);
+      if (bytes) this.headBytes.push(bytes);
+      else {
+        // cannot happen (the decoder accepted these bytes); stay on the text path if it does
+        this.utf8 = null;
+        this.pending = null;
+        this.headBytes.length = 0;
+      }
+    }
+    this.head += text;
+    if (this.head.length >= SNIFF_CHARS) this.start();
+  }
+
+  /** A chunk after the head in byte mode: its complete characters go to the reader as bytes, or the text path takes over at damage. */
+  private byteChunk(buf: Uint8Array): void {
+    const bytes = this.completeBytes(buf);
+    if (bytes) {
+      this.feedBytes(bytes);
+      return;
+    }
+    // damage: from here on as decoded text with replacements, as a fatal decoder's failure is handled in decode
+    // (the unfinished character carried from the previous chunk is dropped, as that decoder drops it)
+    this.utf8 = null;
+    this.pending = null;
+    this.firstReplacedByte = this.offset + firstInvalidUtf8(buf);
+    this.decoder = new TextDecoder('utf-8', { fatal: false, ignoreBOM: true });
+    const text = this.decoder.decode(buf, { stream: true });
+    this.replaced += countReplacements(text);
+    this.feed(text);
+  }
+
+  /** A chunk after the head on the text path: decoded, replacements counted once damage was seen, handed to the reader. */
+  private async textChunk(buf: Uint8Array): Promise<void> {
+    const text = await this.decode(buf);
+    if (this.firstReplacedByte >= 0) this.replaced += countReplacements(text);
+    this.feed(text);
+  }
+
+  /** Sniffs the head, creates the reader and hands it the head (as the bytes kept in byte mode, else as text). */
+  private start(): void {
+    const sniffed = this.head.slice(0, SNIFF_CHARS);
+    const layout = sniffTable(sniffed, this.settings, this.minRateHz, this.src.name);
+    this.cb.onLayout?.(layout, sniffed);
+    this.reader = createTableReader(layout, this.settings, this.src.name, { countBytes: false }); // report.bytes = src.size in report()
+    if (this.utf8) for (const b of this.headBytes.splice(0)) this.feedBytes(b);
+    else this.feed(this.head);
+    this.head = '';
+  }
+
+  /** Decodes a chunk (null: the end of the file). Bytes that are not text refuse the file in the head, and are replaced (U+FFFD) after it. */
+  private async decode(buf: Uint8Array | null): Promise<string> {
+    const d = this.decoder!;
     try {
       return buf ? d.decode(buf, { stream: true }) : d.decode();
     } catch {
-      const at = buf ? offset + firstInvalidUtf8(buf) : Math.max(0, src.size - 1);
-      if (reader === null) throw notTextError(src.name, at, d.encoding, await src.lineAtByte(at), src.notTextHint);
+      const at = buf ? this.offset + firstInvalidUtf8(buf) : Math.max(0, this.src.size - 1);
+      if (this.reader === null) throw notTextError(this.src.name, at, d.encoding, await this.src.lineAtByte(at), this.src.notTextHint);
       // the file started as good text: replace what follows (U+FFFD) and let the reader skip those lines
-      decoder = new TextDecoder(d.encoding, { fatal: false, ignoreBOM: true });
-      firstReplacedByte = at;
-      return buf ? decoder.decode(buf, { stream: true }) : '';
+      this.decoder = new TextDecoder(d.encoding, { fatal: false, ignoreBOM: true });
+      this.firstReplacedByte = at;
+      return buf ? this.decoder.decode(buf, { stream: true }) : '';
     }
-  };
-  /** the complete characters of `buf` as bytes (with the carried start of a character), or null when `buf` is not valid */
-  const completeBytes = (buf: Uint8Array): Uint8Array | null => {
-    const cut = utf8!.check(buf);
+  }
+
+  /** The complete characters of `buf` as bytes (with the carried start of a character), or null when `buf` is not valid. */
+  private completeBytes(buf: Uint8Array): Uint8Array | null {
+    const cut = this.utf8!.check(buf);
     if (cut < 0) return null;
     let out = buf.subarray(0, cut);
-    if (pending) {
-      const joined = new Uint8Array(pending.length + out.length);
-      joined.set(pending);
-      joined.set(out, pending.length);
+    if (this.pending) {
+      const joined = new Uint8Array(this.pending.length + out.length);
+      joined.set(this.pending);
+      joined.set(out, this.pending.length);
       out = joined;
     }
-    pending = cut < buf.length ? buf.slice(cut) : null;
+    this.pending = cut < buf.length ? buf.slice(cut) : null;
     return out;
-  };
-  for await (const buf of src.chunks) {
-    if (decoder === null) {
-      const d = openDecoder(buf, src.name);
-      decoder = d.decoder;
-      encodingNote = d.note;
-      if (d.decoder.encoding === 'utf-8' && !src.decodeAll) utf8 = new Utf8Stream(src.isAscii ?? null);
-    }
-    if (reader === null) {
-      // the head: decoded for the sniffer (a fatal decoder refuses text that is not UTF-8/UTF-16 here)
-      const text = await decode(buf);
-      if (utf8) {
-        const bytes = completeBytes(buf);
-        if (bytes) headBytes.push(bytes);
-        else {
-          // cannot happen (the decoder accepted these bytes); stay on the text path if it does
-          utf8 = null;
-          pending = null;
-          headBytes.length = 0;
-        }
-      }
-      head += text;
-      if (head.length >= SNIFF_CHARS) start();
-    } else if (utf8) {
-      const bytes = completeBytes(buf);
-      if (bytes) feedBytes(bytes);
-      else {
-        // damage: from here on as decoded text with replacements, as a fatal decoder's failure is handled above
-        // (the unfinished character carried from the previous chunk is dropped, as that decoder drops it)
-        utf8 = null;
-        pending = null;
-        firstReplacedByte = offset + firstInvalidUtf8(buf);
-        decoder = new TextDecoder('utf-8', { fatal: false, ignoreBOM: true });
-        const text = decoder.decode(buf, { stream: true });
-        replaced += countReplacements(text);
-        feed(text);
-      }
-    } else {
-      const text = await decode(buf);
-      if (firstReplacedByte >= 0) replaced += countReplacements(text);
-      feed(text);
-    }
-    offset += buf.length;
-    cb.onProgress?.(Math.min(src.size, offset));
   }
-  if (reader === null) {
-    head += decoder ? await decode(null) : '';
-    start();
-  } else if (utf8) {
-    // a character cut by the end of the file is not text: the text path notes it the same way
-    if (utf8.unfinished) {
-      firstReplacedByte = Math.max(0, src.size - 1);
-      decoder = new TextDecoder('utf-8', { fatal: false, ignoreBOM: true });
-    }
-  } else {
-    const tail = decoder ? await decode(null) : '';
-    if (tail) feed(tail);
+
+  /** Hands text to the reader and its finished blocks to the caller. */
+  private feed(text: string): void {
+    for (const b of this.reader!.push(text)) this.cb.onBlock(b);
   }
-  for (const b of reader!.end()) cb.onBlock(b);
-  const report = reader!.report();
-  report.bytes = src.size;
-  if (encodingNote) report.notes.unshift(encodingNote);
-  if (firstReplacedByte >= 0) {
-    const line = await src.lineAtByte(firstReplacedByte);
-    report.notes.push(`warning: ${Math.max(replaced, 1)} byte sequence(s) after the first ${CHUNK_BYTES >> 20} MiB are not ${decoder!.encoding.toUpperCase()} text (first at line ${line}, byte ${firstReplacedByte}); lines where they hit a time, flow or CO2 cell were skipped`);
+
+  /** Hands UTF-8 bytes to the reader and its finished blocks to the caller. */
+  private feedBytes(bytes: Uint8Array): void {
+    for (const b of this.reader!.pushBytes(bytes)) this.cb.onBlock(b);
   }
-  return report;
 }
