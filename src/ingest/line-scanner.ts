@@ -27,6 +27,10 @@ const ROLE_CO2 = 3;
 const ROLE_CLOCK = 4;
 /** cell results besides a number */
 const BAD = 1;
+/** results of the cell readers besides the index of the cell's end */
+const INCOMPLETE = -1; // the line goes on past the bytes given
+const QUOTED = -2; // a quote: the whole line goes to slowLine
+const NOT_READ = -3; // not this kind of cell: try the next reader
 
 export class LineScanner {
   /** 0-based index of the next line to read */
@@ -51,6 +55,8 @@ export class LineScanner {
   private cv = NaN;
   private badCol = 0;
   private timeBlank = false;
+  /** value of the cell just read */
+  private value = NaN;
 
   constructor(layout: TableLayout, private readonly rows: RowAssembler, private readonly file: string) {
     this.roleOf = new Int8Array(layout.field_count + 2);
@@ -127,128 +133,163 @@ export class LineScanner {
 
   /** Parse one data line starting at `start`; returns the index after its terminator, or -1 if incomplete. */
   private line(s: Uint8Array, start: number, len: number, final: boolean): number {
-    const delim = this.delim;
-    const eol = this.eol;
-    const dec = this.dec;
-    const ws2 = this.ws2;
-    const ws3 = this.ws3;
     const roleOf = this.roleOf;
     const nRoles = roleOf.length;
+    this.clearLine();
+    let field = 0;
+    let i = start;
+    for (;;) {
+      const fieldStart = i;
+      const role = field < nRoles ? roleOf[field]! : ROLE_NONE;
+      i = role === ROLE_NONE ? this.skipCell(s, i, len) : this.readCell(s, i, len, final, role, field);
+      if (i === QUOTED) return this.slowLine(s, start, len, final);
+      if (i === INCOMPLETE) return -1;
+      field++;
+      if (i < len && s[i] === this.delim) {
+        i++;
+        continue;
+      }
+      return this.endLine(s, field, fieldStart, i, len, final);
+    }
+  }
+
+  /** Steps over a cell of a column not read; returns the index of its delimiter or line end, or QUOTED at a quote. */
+  private skipCell(s: Uint8Array, i: number, len: number): number {
+    const delim = this.delim;
+    const eol = this.eol;
+    let c = s[i]!;
+    while (c !== delim && c !== eol && i < len) {
+      if (c === QUOTE) return QUOTED;
+      c = s[++i]!;
+    }
+    return i;
+  }
+
+  /**
+   * Reads the time, flow or CO2 cell starting at `i` and keeps its value: a clock stamp or plain decimal in place, a
+   * blank cell as NaN, anything else the careful way. Returns the index of the cell's delimiter or line end, QUOTED or
+   * INCOMPLETE.
+   */
+  private readCell(s: Uint8Array, i: number, len: number, final: boolean, role: number, field: number): number {
+    const j = this.skipSpaces(s, i);
+    let end = role === ROLE_CLOCK ? this.clockInPlace(s, j, len) : this.decimalInPlace(s, j, len);
+    // a blank cell; a decimal mark that is also the delimiter starts a number (as in decimalInPlace), not an end
+    if (end === NOT_READ && this.atCellEnd(s, j, len) && s[j] !== this.dec) {
+      this.value = NaN;
+      end = j;
+    }
+    if (end === NOT_READ) end = this.carefulCell(s, i, len, final, role, field);
+    if (end >= 0) this.keep(role, this.value);
+    return end;
+  }
+
+  /** Index of the first byte from `j` on that is not white space (a space, a tab unless it delimits, the CR or LF that is not the line end). */
+  private skipSpaces(s: Uint8Array, j: number): number {
+    const ws2 = this.ws2;
+    const ws3 = this.ws3;
+    let c = s[j]!;
+    while (c === SPACE || c === ws2 || c === ws3) c = s[++j]!;
+    return j;
+  }
+
+  /** Whether a cell ends at `j`: a delimiter, the line end or the end of the bytes. */
+  private atCellEnd(s: Uint8Array, j: number, len: number): boolean {
+    const c = s[j]!;
+    return c === this.delim || c === this.eol || j >= len;
+  }
+
+  /**
+   * A plain decimal at `j` (optional sign, at most 15 digits, the file's decimal mark, no exponent), converted as
+   * integer mantissa / 10^k (see the top of the file) into `this.value`. Returns the index of the cell's end, or
+   * NOT_READ when the cell is something else.
+   */
+  private decimalInPlace(s: Uint8Array, j: number, len: number): number {
+    const dec = this.dec;
+    let c = s[j]!;
+    let neg = false;
+    if (c === MINUS) {
+      neg = true;
+      c = s[++j]!;
+    } else if (c === PLUS) {
+      c = s[++j]!;
+    }
+    let m = 0;
+    let nd = 0;
+    let k = 0;
+    while (c >= DIGIT_0 && c <= DIGIT_9) {
+      m = m * 10 + (c - DIGIT_0);
+      nd++;
+      c = s[++j]!;
+    }
+    if (c === dec) {
+      c = s[++j]!;
+      while (c >= DIGIT_0 && c <= DIGIT_9) {
+        m = m * 10 + (c - DIGIT_0);
+        nd++;
+        k++;
+        c = s[++j]!;
+      }
+    }
+    j = this.skipSpaces(s, j);
+    if (nd === 0 || nd > 15 || !this.atCellEnd(s, j, len)) return NOT_READ;
+    const v = k === 0 ? m : m / POW10[k]!;
+    this.value = neg ? -v : v;
+    return j;
+  }
+
+  /** A clock stamp at `j`, read by the text scanner on this cell's text, into `this.value`; the cell's end, or NOT_READ. */
+  private clockInPlace(s: Uint8Array, j: number, len: number): number {
+    const delim = this.delim;
+    const eol = this.eol;
+    let ce = j;
+    while (ce < len && s[ce] !== delim && s[ce] !== eol) ce++;
+    const cell = cellText(s, j, ce);
+    const e = scanClock(cell, 0, this.clockKind!, this.parts, delim);
+    if (e < 0) return NOT_READ;
+    const q = this.skipSpaces(s, j + utf8Bytes(cell, e));
+    if (!this.atCellEnd(s, q, len)) return NOT_READ;
+    this.value = this.clock!.fromParts(this.parts.day, this.parts.sec);
+    return q;
+  }
+
+  /** The cell from `i` read the careful way into `this.value`; returns the index of its end, QUOTED or INCOMPLETE. */
+  private carefulCell(s: Uint8Array, i: number, len: number, final: boolean, role: number, field: number): number {
+    const e = this.skipCell(s, i, len);
+    if (e === QUOTED) return QUOTED;
+    if (e >= len && !final) return INCOMPLETE;
+    this.value = this.cell(cellText(s, i, e), role, field);
+    return e;
+  }
+
+  /** Forgets the results of the previous line. */
+  private clearLine(): void {
     this.tv = NaN;
     this.fv = NaN;
     this.cv = NaN;
     this.badCol = 0;
     this.timeBlank = false;
-    let field = 0;
-    let i = start;
-    let lastFieldStart = start;
-    let c = 0;
-    for (;;) {
-      lastFieldStart = i;
-      const role = field < nRoles ? roleOf[field]! : ROLE_NONE;
-      if (role === ROLE_NONE) {
-        c = s[i]!;
-        while (c !== delim && c !== eol && i < len) {
-          if (c === QUOTE) return this.slowLine(s, start, len, final);
-          c = s[++i]!;
-        }
-      } else {
-        let j = i;
-        c = s[j]!;
-        while (c === SPACE || c === ws2 || c === ws3) c = s[++j]!;
-        let v = NaN;
-        let done = false;
-        if (role === ROLE_CLOCK) {
-          // clock stamps are read by the text scanner, on this cell's text
-          let ce = j;
-          while (ce < len && s[ce] !== delim && s[ce] !== eol) ce++;
-          const cell = cellText(s, j, ce);
-          const e = scanClock(cell, 0, this.clockKind!, this.parts, delim);
-          if (e >= 0) {
-            let q = j + utf8Bytes(cell, e);
-            c = s[q]!;
-            while (c === SPACE || c === ws2 || c === ws3) c = s[++q]!;
-            if (c === delim || c === eol || q >= len) {
-              v = this.clock!.fromParts(this.parts.day, this.parts.sec);
-              i = q;
-              done = true;
-            }
-          }
-          if (!done) c = s[j]!;
-        }
-        if (!done) {
-          let neg = false;
-          let signed = false;
-          if (c === MINUS) {
-            neg = true;
-            signed = true;
-            c = s[++j]!;
-          } else if (c === PLUS) {
-            signed = true;
-            c = s[++j]!;
-          }
-          let m = 0;
-          let nd = 0;
-          let k = 0;
-          let dot = false;
-          while (c >= DIGIT_0 && c <= DIGIT_9) {
-            m = m * 10 + (c - DIGIT_0);
-            nd++;
-            c = s[++j]!;
-          }
-          if (c === dec) {
-            dot = true;
-            c = s[++j]!;
-            while (c >= DIGIT_0 && c <= DIGIT_9) {
-              m = m * 10 + (c - DIGIT_0);
-              nd++;
-              k++;
-              c = s[++j]!;
-            }
-          }
-          while (c === SPACE || c === ws2 || c === ws3) c = s[++j]!;
-          const atEnd = c === delim || c === eol || j >= len;
-          if (atEnd && nd > 0 && nd <= 15 && role !== ROLE_CLOCK) {
-            v = k === 0 ? m : m / POW10[k]!;
-            if (neg) v = -v;
-            i = j;
-          } else if (atEnd && nd === 0 && !signed && !dot) {
-            v = NaN; // blank cell
-            i = j;
-          } else {
-            // careful path for this cell
-            let e = i;
-            c = s[e]!;
-            while (c !== delim && c !== eol && e < len) {
-              if (c === QUOTE) return this.slowLine(s, start, len, final);
-              c = s[++e]!;
-            }
-            if (e >= len && !final) return -1;
-            v = this.cell(cellText(s, i, e), role, field);
-            i = e;
-          }
-        }
-        if (role === ROLE_FLOW) this.fv = v;
-        else if (role === ROLE_CO2) this.cv = v;
-        else {
-          this.tv = v;
-          if (Number.isNaN(v) && this.badCol === 0) this.timeBlank = true;
-        }
-      }
-      field++;
-      if (c === delim && i < len) {
-        i++;
-        continue;
-      }
-      if (i < len) {
-        // c === eol
-        this.finishLine(field, false, s, lastFieldStart, i);
-        return i + 1;
-      }
-      if (!final) return -1;
-      this.finishLine(field, true, s, lastFieldStart, i);
-      return len;
+  }
+
+  /** Keeps a cell's value as the line's time, flow or CO2; a blank time (not an unreadable one) is noted. */
+  private keep(role: number, v: number): void {
+    if (role === ROLE_FLOW) this.fv = v;
+    else if (role === ROLE_CO2) this.cv = v;
+    else {
+      this.tv = v;
+      if (Number.isNaN(v) && this.badCol === 0) this.timeBlank = true;
     }
+  }
+
+  /** At the end of a line's last cell (`end`: its line end, or the end of the bytes): hands the line over; returns the index after it, or -1 if more bytes may follow. */
+  private endLine(s: Uint8Array, fields: number, lastFieldStart: number, end: number, len: number, final: boolean): number {
+    if (end < len) {
+      // s[end] is the line end
+      this.finishLine(fields, false, s, lastFieldStart, end);
+      return end + 1;
+    }
+    if (!final) return -1;
+    this.finishLine(fields, true, s, lastFieldStart, end);
+    return len;
   }
 
   /** Read one cell the careful way; NaN for blank, records the first unreadable column. */
@@ -304,21 +345,11 @@ export class LineScanner {
       this.rows.skip(line, unterminated ? 'truncated_line' : 'field_count');
       return unterminated ? len : e + 1;
     }
-    this.tv = NaN;
-    this.fv = NaN;
-    this.cv = NaN;
-    this.badCol = 0;
-    this.timeBlank = false;
+    this.clearLine();
     for (let f = 0; f < fields.length && f < this.roleOf.length; f++) {
       const role = this.roleOf[f]!;
       if (role === ROLE_NONE) continue;
-      const v = this.cell(fields[f]!, role, f);
-      if (role === ROLE_FLOW) this.fv = v;
-      else if (role === ROLE_CO2) this.cv = v;
-      else {
-        this.tv = v;
-        if (Number.isNaN(v) && this.badCol === 0) this.timeBlank = true;
-      }
+      this.keep(role, this.cell(fields[f]!, role, f));
     }
     const n = fields.length;
     const lastEmpty = fields[n - 1]!.trim() === '';
