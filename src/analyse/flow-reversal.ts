@@ -4,7 +4,8 @@
 // threshold. That is exact for a clean signal, but when cardiogenic oscillations hold the end-expiratory flow below
 // zero as the inspiration begins, the last zero crossing lies up to half a cardiac period too early, and every CO2
 // downstroke measured from it reads a transport delay that much too long. This module keeps the zero crossing when
-// it is consistent with the rise of inspiratory flow and otherwise extrapolates that rise back to zero flow.
+// it is consistent with the rise of inspiratory flow and otherwise extrapolates that rise back to zero flow. For a fast
+// valve edge, whose smooth start the crossing places late, the start of the rise is fitted (risingEdgeOnset).
 // Method: common practice, no source (linear extrapolation of the flow rise between 15 % and 40 % of its peak; for a
 // half-sine rise the extrapolation error is below 0.5 % of the inspiratory time, derived here from sin x ≈ x − x³/6).
 

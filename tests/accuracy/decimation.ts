@@ -5,6 +5,7 @@
 // Used by tests/accuracy/decimation.test.ts and printed as the README's accuracy table by
 // `npx tsx tests/accuracy/print-decimation.ts`.
 import { createAnalyser } from '../../src/analyse/analyser';
+import { usableForSummary } from '../../src/analyse/quality';
 import { quantile } from '../../src/numeric/stats';
 import { defaultSettings } from '../../src/settings';
 import { MMHG_PER_KPA, scenarioParams, simulateSignals, type SimParams } from '../../src/simulate/index';
@@ -119,8 +120,6 @@ export interface RateResult {
   rows: BreathRow[];
 }
 
-/** Codes that leave a breath in the accuracy medians (everything else is an exclusion). */
-const KEEP = new Set(['rebreathing', 'delay_uncertain', 'leak', 'co2_quantised']);
 
 export function analyseBlock(block: SampleBlock, paco2: number, rateHz: number, rounding: Rounding): RateResult {
   const settings = defaultSettings();
@@ -132,7 +131,8 @@ export function analyseBlock(block: SampleBlock, paco2: number, rateHz: number, 
     analyser.push({ t_s: block.t_s.subarray(i, i + m), flow_lps: block.flow_lps.subarray(i, i + m), co2_mmhg: block.co2_mmhg.subarray(i, i + m), n: m });
   }
   const core = analyser.finish();
-  const used = core.breaths.filter((b) => b.flags.every((f) => KEEP.has(f)));
+  // the breaths the summary's medians use (ok and caution breaths)
+  const used = core.breaths.filter((b) => usableForSummary(b));
   const medians: Record<string, number> = {};
   for (const k of METRICS) medians[k] = used.length ? quantile(used.map((b) => b[k] as number), 0.5) : NaN;
   return { rate_hz: rateHz, rounding, breaths: core.breaths.length, used: used.length, delay_s: core.calibration.delay_s, medians, rows: core.breaths };

@@ -4,39 +4,13 @@
 // worked out by hand in the test names. The curves are laid out in time at a constant expiratory flow so that
 // V = flow x t exactly; both CO2 signals (compensated and sensor reading) carry the same curve.
 import { describe, expect, it } from 'vitest';
-import { decomposeBreath, type BreathSignals } from '../../src/analyse/decompose';
+import { decomposeBreath } from '../../src/analyse/decompose';
+import { breathFromCurve } from './analytic-breath';
 import { fowlerDeadSpace } from '../../src/physiology/fowler-dead-space';
 import { vtco2FromArea } from '../../src/physiology/vtco2-from-area';
 import { defaultSettings } from '../../src/settings';
 import { expectClose } from '../helpers/expect-close';
 
-function breathFromCurve(curve: (vMl: number) => number, vtMl = 500, rateHz = 1000, flowLps = 0.5): BreathSignals {
-  const ti = vtMl / 1000 / flowLps; // inspiration and expiration of equal length
-  const n = Math.round(2 * ti * rateHz) + 1;
-  const t = new Float64Array(n);
-  const f = new Float64Array(n);
-  const p = new Float64Array(n);
-  for (let i = 0; i < n; i++) {
-    t[i] = i / rateHz;
-    const exp = t[i]! >= ti;
-    f[i] = exp ? flowLps : -flowLps;
-    p[i] = exp ? curve((t[i]! - ti) * flowLps * 1000) : 0;
-  }
-  f[0] = 0;
-  f[n - 1] = 0;
-  return {
-    t_s: t,
-    flow_lps: f,
-    fast_mmhg: p,
-    raw_mmhg: p,
-    i_insp: 0,
-    i_exp: Math.round(ti * rateHz),
-    i_end: n - 1,
-    t_insp_s: 0,
-    t_exp_s: ti,
-    t_end_s: t[n - 1]!,
-  };
-}
 
 const settings = () => {
   const s = defaultSettings().analysis;
@@ -102,13 +76,13 @@ describe('decomposeBreath on analytic curve C (smooth symmetric front)', () => {
 describe('decomposeBreath quality codes on analytic breaths (common practice, no source)', () => {
   it('no_phase3 when the expiration ends inside phase II (curve A cut at 180 mL)', () => {
     const curve = (v: number) => (v < 100 ? 0 : v < 200 ? (40 * (v - 100)) / 100 : 40);
-    const d = decomposeBreath(breathFromCurve(curve, 180), { breath: 1, delay_s: 0, tau_s: 0, settings: settings() });
+    const d = decomposeBreath(breathFromCurve(curve, { tidalVolumeMl: 180 }), { breath: 1, delay_s: 0, tau_s: 0, settings: settings() });
     expect(d.flags).toContain('no_phase3');
     expect(Number.isNaN(d.row.vd_aw_ml)).toBe(true);
   });
   it('short_exp when the expiration is shorter than min_phase_s', () => {
     const curve = (v: number) => (v < 100 ? 0 : 40);
-    const d = decomposeBreath(breathFromCurve(curve, 50, 1000, 0.5), { breath: 1, delay_s: 0, tau_s: 0, settings: settings() });
+    const d = decomposeBreath(breathFromCurve(curve, { tidalVolumeMl: 50, rateHz: 1000, flowLps: 0.5 }), { breath: 1, delay_s: 0, tau_s: 0, settings: settings() });
     expect(d.flags).toContain('short_exp');
   });
 });

@@ -3,18 +3,8 @@
 // PaCO2 40. tests/published/niklason-2008.test.ts compares the same numbers with a published model's results.
 import { describe, it } from 'vitest';
 import { expectClose } from '../helpers/expect-close';
-import { shuntCo2Effect } from '../../src/physiology/index';
+import { shuntDeadSpaceFraction } from '../helpers/shunt-dead-space';
 
-function shuntDeadSpaceFraction(shuntFraction: number, cardiacOutputLPerMin: number): number {
-  const gradient = shuntCo2Effect({
-    route: 'fick',
-    shuntFraction,
-    vco2MlPerMin: 200,
-    cardiacOutputLPerMin,
-    co2SlopeMlPerDlPerMmhg: 0.67,
-  });
-  return gradient / 40;
-}
 
 describe('shunt-induced alveolar dead-space fraction, hand arithmetic', () => {
   // derived here: s 0.4, Q' 5: 80 / (0.67 x 50 x 0.6) = 3.980 mmHg / 40 = 0.0995; Q' 3: 80 / 12.06 = 6.633 / 40 =

@@ -5,19 +5,8 @@
 // arithmetic of the approximation is in tests/derived/shunt-dead-space-arithmetic.test.ts.
 import { describe, it } from 'vitest';
 import { expectClose } from '../helpers/expect-close';
-import { shuntCo2Effect } from '../../src/physiology/index';
+import { shuntDeadSpaceFraction } from '../helpers/shunt-dead-space';
 
-const PACO2 = 40;
-function shuntDeadSpaceFraction(shuntFraction: number, cardiacOutputLPerMin: number): number {
-  const gradient = shuntCo2Effect({
-    route: 'fick',
-    shuntFraction,
-    vco2MlPerMin: 200,
-    cardiacOutputLPerMin,
-    co2SlopeMlPerDlPerMmhg: 0.67,
-  });
-  return gradient / PACO2;
-}
 
 describe('shunt-induced alveolar dead-space fraction vs Niklason 2008', () => {
   // published targets: Niklason et al. 2008 Crit Care, abstract; tolerance +/-0.02 (ours)
