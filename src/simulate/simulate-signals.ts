@@ -180,16 +180,26 @@ function simulateBreath(run: SimRun, breathStart: number, state: Co2BodyState): 
 
 /**
  * Gas PCO2 at the sampling point for breath sample k (internal index gi): inspired gas, or the expired curve with
- * cardiogenic ripple.
+ * cardiogenic ripple. The cardiogenic flow oscillation moves gas past the sensor: during expiration the expired curve
+ * is read at the net volume that has passed it (the breath's own expired volume plus the oscillation's volume since
+ * the expiration began, not below zero), so CO2 and flow move together as they do at a real airway opening.
  */
 function gasAtSensor(run: SimRun, breath: SimBreath, k: number, gi: number): number {
   const { p, wave } = run;
-  let gasMmhg = k < wave.nExp ? breath.g.pi_co2_mmhg : curvePco2(breath.curve, wave.expVolume[k]!);
+  let gasMmhg = k < wave.nExp ? breath.g.pi_co2_mmhg : curvePco2(breath.curve, Math.max(0, wave.expVolume[k]! + rippleVolumeMl(run, gi - k + wave.nExp, gi)));
   if (p.cardio_co2_mmhg > 0 && k >= wave.nExp) {
     const w = 1 / (1 + (wave.sensorFlow[k]! / run.rippleRefLps) ** 2);
     gasMmhg += p.cardio_co2_mmhg * w * Math.sin(run.omega * gi * run.dt);
   }
   return gasMmhg;
+}
+
+/** Volume (mL, expiration positive) the cardiogenic flow oscillation moves past the sensor from internal sample `from` to `to`. */
+function rippleVolumeMl(run: SimRun, from: number, to: number): number {
+  const a = run.p.cardio_flow_lps;
+  if (!(a > 0)) return 0;
+  // integral of a sin(omega t) dt from t_from to t_to
+  return ((1000 * a) / run.omega) * (Math.cos(run.omega * from * run.dt) - Math.cos(run.omega * to * run.dt));
 }
 
 /**
