@@ -176,7 +176,11 @@ class StreamAnalyser implements Analyser {
       this.segmenter ? this.segmenter.oldestNeeded() : Infinity,
       this.absNext,
     );
-    const drop = Math.max(0, keepFrom - 4 - this.base);
+    // four samples before the oldest sample still needed, and as many more as a negative delay reaches back
+    let keepLocal = keepFrom - this.base;
+    const delay = this.cal ? this.cal.delay_s : 0;
+    if (delay < 0 && keepLocal >= 0 && keepLocal < bt.length) keepLocal = Math.min(keepLocal, lowerBound(bt.view(), bt.view()[keepLocal]! + delay));
+    const drop = Math.max(0, keepLocal - 4);
     if (drop > 50_000 || (drop > 0 && drop > bt.length / 2)) {
       bt.dropFront(drop);
       this.bf.dropFront(drop);
@@ -190,9 +194,10 @@ class StreamAnalyser implements Analyser {
     const cfg = this.cfg;
     const base = this.base;
     const tau = c.response_ms / 1000;
-    const i0 = Math.max(0, b.i_insp - base - 3);
-    const tNeed = this.needUntil(b);
     const tv = this.bt.view();
+    // three samples before the inspiration, and as many more as a negative delay reaches back
+    const i0 = Math.max(0, Math.min(b.i_insp - base, lowerBound(tv, b.t_insp_s + Math.min(0, c.delay_s))) - 3);
+    const tNeed = this.needUntil(b);
     const i1 = Math.min(this.bt.length, lowerBound(tv, tNeed) + 2);
     const t = tv.subarray(i0, i1);
     const f = this.bf.view().subarray(i0, i1);
@@ -204,7 +209,7 @@ class StreamAnalyser implements Analyser {
     const dec = deconvolveFirstOrder(t, co2, tau, scratch);
     const fast = interpolateAt(dec.t, dec.x, t, c.delay_s, this.fastBuf);
     const raw = interpolateAt(t, co2, t, c.delay_s, this.rawBuf);
-    const reversal = inspirationReversalTime(t, f, b.t_end_s);
+    const reversal = inspirationReversalTime(t, f, b.t_end_s, c.ripple);
     const fall = fitInspiratoryFall(t, co2, reversal + c.delay_s - 0.35, reversal + c.delay_s + 0.65);
     const breathDelay = fall ? fall.t0_s - reversal : NaN;
     if (fall) this.breathDelays.push(breathDelay);

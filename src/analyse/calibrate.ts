@@ -7,7 +7,8 @@ import type { SettingOrigin } from '../types';
 import { fitInspiratoryFall, type FallFit } from './fall-fit';
 import { mad, median, medianStep, quantile } from '../numeric/stats';
 import { createSegmenter, type BreathBounds } from './segment';
-import { inspirationReversalTime } from './flow-reversal';
+import { inspirationReversalTime, rippleRestSpan } from './flow-reversal';
+import { restsOscillate, type RestSpan } from './ripple-baseline';
 import { robustDelay } from './robust-delay';
 
 export interface Calibration {
@@ -41,6 +42,9 @@ export interface Calibration {
   /** false when the per-breath delays do not agree on one value (no cluster holds most breaths) */
   delay_trusted: boolean;
   fall_fits: number;
+  /** whether the end-expiratory rests carry cardiogenic flow oscillation; then each inspiration's onset is the kink
+   *  where its own rise leaves the oscillation (flow-reversal.ts) */
+  ripple: boolean;
   notes: string[];
 }
 
@@ -413,12 +417,13 @@ function estimateTiming(
   notes: string[],
 ): Pick<
   Calibration,
-  'delay_s' | 'delay_origin' | 'response_ms' | 'response_origin' | 'response_uncertainty_ms' | 'delay_iqr_s' | 'delay_uncertainty_s' | 'delay_agreement' | 'delay_trusted' | 'fall_fits'
+  'delay_s' | 'delay_origin' | 'response_ms' | 'response_origin' | 'response_uncertainty_ms' | 'delay_iqr_s' | 'delay_uncertainty_s' | 'delay_agreement' | 'delay_trusted' | 'fall_fits' | 'ripple'
 > {
   const a = settings.analysis;
   const delayGiven = a.delay_s !== null;
   const bounds = breathBounds(t, flow, grid.thr, grid.minVol, a.min_phase_s);
-  const fits = fallFits(t, flow, co2, bounds, delayGiven ? a.delay_s! : grid.coarseLag);
+  const ripple = recordingHasRipple(t, flow, bounds);
+  const fits = fallFits(t, flow, co2, bounds, delayGiven ? a.delay_s! : grid.coarseLag, ripple);
   const delaySamples = fits.map((f) => f.delay);
   const taus = fits.map((f) => f.fit.tau_s);
   const responseGiven = a.response_ms !== null;
@@ -452,7 +457,21 @@ function estimateTiming(
     delay_agreement: est.share,
     delay_trusted: delayGiven || (fits.length > 0 && est.trusted),
     fall_fits: fits.length,
+    ripple,
   };
+}
+
+/**
+ * Whether the end-expiratory rests before the calibration breaths carry cardiogenic oscillation (ripple-baseline.ts;
+ * at least 3 rests long enough to tell).
+ */
+function recordingHasRipple(t: Float64Array, flow: Float64Array, bounds: BreathBounds[]): boolean {
+  const spans: RestSpan[] = [];
+  for (const b of bounds) {
+    const span = rippleRestSpan(t, flow, b.t_end_s);
+    if (span) spans.push(span);
+  }
+  return spans.length >= 3 && restsOscillate(t, flow, spans);
 }
 
 // Small array helpers used by calibrate.
@@ -508,10 +527,10 @@ function lastBefore(t: Float64Array, i: number, x: number): number {
 }
 
 /** The inspiratory CO2 fall of each breath, searched from `lag` - 0.35 s after its inspiration onset. */
-function fallFits(t: Float64Array, flow: Float64Array, co2: Float64Array, bounds: BreathBounds[], lag: number): { delay: number; fit: FallFit }[] {
+function fallFits(t: Float64Array, flow: Float64Array, co2: Float64Array, bounds: BreathBounds[], lag: number, ripple: boolean): { delay: number; fit: FallFit }[] {
   const fits: { delay: number; fit: FallFit }[] = [];
   for (const b of bounds) {
-    const tr = inspirationReversalTime(t, flow, b.t_end_s);
+    const tr = inspirationReversalTime(t, flow, b.t_end_s, ripple);
     const lo = tr + lag - 0.35;
     const fit = fitInspiratoryFall(t, co2, Math.max(tr - 0.05, lo), lo + 1.0);
     if (fit) fits.push({ delay: fit.t0_s - tr, fit });

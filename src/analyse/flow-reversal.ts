@@ -11,6 +11,7 @@
 
 import { lowerBound } from './fall-fit';
 import { fitLine } from '../numeric/stats';
+import { restSpan, solve3, type RestSpan } from './ripple-baseline';
 
 /** Fractions of the peak inspiratory flow between which the rise is extrapolated. */
 const LOW_LEVEL = 0.15;
@@ -20,35 +21,126 @@ const HIGH_LEVEL = 0.4;
  * Time (s) of the flow reversal at the start of an inspiration, for the delay measurement.
  * @param t sample times (s), ascending; flow L/s with expiration positive
  * @param crossS the segmenter's interpolated zero crossing (s)
+ * @param ripple whether the recording's end-expiratory rests carry cardiogenic oscillation (recordingHasRipple)
  * @param searchS how far after the crossing the inspiratory peak is sought (s)
  */
-export function inspirationReversalTime(t: ArrayLike<number>, flow: ArrayLike<number>, crossS: number, searchS = 0.7): number {
+export function inspirationReversalTime(t: ArrayLike<number>, flow: ArrayLike<number>, crossS: number, ripple = false, searchS = 0.7): number {
   const n = t.length;
   const start = lowerBound(t, crossS);
   const stop = Math.min(n - 1, lowerBound(t, crossS + searchS));
-  let peak = 0;
-  for (let i = start; i <= stop; i++) if (flow[i]! < peak) peak = flow[i]!;
-  if (!(peak < 0) || stop - start < 2) return crossS;
-  const high = HIGH_LEVEL * peak;
-  const low = LOW_LEVEL * peak;
-  let k = start;
-  while (k <= stop && flow[k]! > high) k++;
-  if (k > stop || k === 0) return crossS;
-  const tHigh = crossing(t, flow, k, high);
-  let j = k;
-  while (j > 0 && flow[j - 1]! <= low) j--;
-  if (j === 0) return crossS;
-  const tLow = crossing(t, flow, j, low);
-  const rise = tHigh - tLow;
-  const extrapolated = tLow - (LOW_LEVEL / (HIGH_LEVEL - LOW_LEVEL)) * rise;
+  const line = riseLine(t, (i) => flow[i]!, start, stop);
+  if (!line) return crossS;
+  const { peak, rise, extrapolated, j } = line;
   const step = t[j]! - t[j - 1]!;
-  // oscillation before the onset (cardiogenic ripple) moves the zero crossing: then the extrapolation is used
+  // in a recording with cardiogenic oscillation in its rests, the oscillation moves both the zero crossing and the
+  // level of the rise (by ripple level / rise slope, tens of ms): the start of a breath's own rise is found as the
+  // kink between the oscillation and the rise instead
+  if (ripple && rise > FAST_EDGE_S) return riseKink(t, flow, extrapolated);
+  // oscillation before the onset moves the zero crossing: then the extrapolation is used
   if (oscillatesBefore(t, flow, crossS, Math.abs(peak))) return extrapolated;
   // the zero crossing belongs to this rise when it lies within one rise time (at least one sample) before the
   // extrapolated reversal; otherwise the flow was already below zero before the inspiration began
   if (crossS < extrapolated - Math.max(rise, step) - step) return extrapolated;
   // a fast valve edge (from 15 % to 40 % of the peak within 15 ms): its smooth start is modelled
   return rise <= FAST_EDGE_S ? risingEdgeOnset(t, flow, lowerBound(t, crossS - 2 * step), peak, crossS) : crossS;
+}
+
+/** The inspiratory rise between 15 % and 40 % of its peak, extrapolated back to zero flow. */
+interface RiseLine {
+  /** most negative flow in the search window, L/s */
+  peak: number;
+  /** time from the 15 % to the 40 % crossing, s */
+  rise: number;
+  /** where the line through the two crossings reaches zero flow, s */
+  extrapolated: number;
+  /** first sample at or below the 15 % level */
+  j: number;
+}
+
+/** The rise of flow(i) (i from start to stop), or null when there is no clear inspiratory peak. */
+function riseLine(t: ArrayLike<number>, flow: (i: number) => number, start: number, stop: number): RiseLine | null {
+  let peak = 0;
+  for (let i = start; i <= stop; i++) if (flow(i) < peak) peak = flow(i);
+  if (!(peak < 0) || stop - start < 2) return null;
+  const high = HIGH_LEVEL * peak;
+  const low = LOW_LEVEL * peak;
+  let k = start;
+  while (k <= stop && flow(k) > high) k++;
+  if (k > stop || k === 0) return null;
+  const tHigh = crossing(t, flow(k - 1), flow(k), k, high);
+  let j = k;
+  while (j > 0 && flow(j - 1) <= low) j--;
+  if (j === 0) return null;
+  const tLow = crossing(t, flow(j - 1), flow(j), j, low);
+  const rise = tHigh - tLow;
+  return { peak, rise, extrapolated: tLow - (LOW_LEVEL / (HIGH_LEVEL - LOW_LEVEL)) * rise, j };
+}
+
+/** |flow| below this fraction of the inspiratory peak counts as the end-expiratory rest where the ripple is sought. */
+const REST_LEVEL = 0.15;
+/** The rest ends this long before the extrapolated onset (the rise must not enter it), s. */
+const REST_GAP_S = 0.05;
+/** The kink is sought within this distance of the extrapolated onset, s, on a grid of this step, s. */
+const KINK_RANGE_S = 0.06;
+const KINK_STEP_S = 0.001;
+
+/**
+ * Start of a breath's own inspiratory rise under cardiogenic oscillation: the kink s of the two-piece line
+ *   f(t) = a + b (t - s) + g max(0, t - s)
+ * fitted (a, b, g by least squares, s on a 1 ms grid within 60 ms of the extrapolated onset) to the flow from 150 ms
+ * before to 100 ms after the extrapolated onset. The level a and slope b take up the oscillation around the onset,
+ * which the plain extrapolation reads as part of the rise. Method: common practice, no source (segmented regression
+ * with a grid search for the breakpoint).
+ */
+function riseKink(t: ArrayLike<number>, flow: ArrayLike<number>, extrapolated: number): number {
+  const lo = lowerBound(t, extrapolated - 0.15);
+  const hi = lowerBound(t, extrapolated + 0.1);
+  if (hi - lo < 8) return extrapolated;
+  let best = extrapolated;
+  let bestSs = Infinity;
+  const steps = Math.round((2 * KINK_RANGE_S) / KINK_STEP_S);
+  for (let q = 0; q <= steps; q++) {
+    const s = extrapolated - KINK_RANGE_S + q * KINK_STEP_S;
+    const ss = hingeResidual(t, flow, lo, hi, s);
+    if (ss < bestSs) {
+      bestSs = ss;
+      best = s;
+    }
+  }
+  return best;
+}
+
+/** Residual sum of squares of the least-squares two-piece line with its kink at s over samples [lo, hi). */
+function hingeResidual(t: ArrayLike<number>, flow: ArrayLike<number>, lo: number, hi: number, s: number): number {
+  const m = [0, 0, 0, 0, 0, 0, 0, 0, 0];
+  const r = [0, 0, 0];
+  for (let i = lo; i < hi; i++) {
+    const x = [1, t[i]! - s, Math.max(0, t[i]! - s)];
+    for (let p = 0; p < 3; p++) {
+      r[p]! += x[p]! * flow[i]!;
+      for (let q = 0; q < 3; q++) m[3 * p + q]! += x[p]! * x[q]!;
+    }
+  }
+  const sol = solve3(m, r);
+  if (!sol) return Infinity;
+  let ss = 0;
+  for (let i = lo; i < hi; i++) {
+    const e = flow[i]! - (sol[0] + sol[1] * (t[i]! - s) + sol[2] * Math.max(0, t[i]! - s));
+    ss += e * e;
+  }
+  return ss;
+}
+
+/**
+ * The end-expiratory rest before an inspiration on which cardiogenic oscillation rides (null when the flow does not
+ * oscillate there or the rest is too short): the samples that commonRippleRate fits for the recording's heart rate.
+ */
+export function rippleRestSpan(t: ArrayLike<number>, flow: ArrayLike<number>, crossS: number, searchS = 0.7): RestSpan | null {
+  const start = lowerBound(t, crossS);
+  const stop = Math.min(t.length - 1, lowerBound(t, crossS + searchS));
+  const line = riseLine(t, (i) => flow[i]!, start, stop);
+  if (!line || !oscillatesBefore(t, flow, crossS, Math.abs(line.peak))) return null;
+  return restSpan(t, flow, line.extrapolated - REST_GAP_S, REST_LEVEL * Math.abs(line.peak));
 }
 
 /** A rise from 15 % to 40 % of the peak faster than this is a valve edge (ventilator), not a breath's own rise. */
@@ -108,10 +200,8 @@ function oscillatesBefore(t: ArrayLike<number>, flow: ArrayLike<number>, crossS:
   return hi > 0.02 * peakAbs && lo < -0.02 * peakAbs;
 }
 
-/** Interpolated time at which flow passes `level` between samples i - 1 and i (flow[i - 1] > level >= flow[i]). */
-function crossing(t: ArrayLike<number>, flow: ArrayLike<number>, i: number, level: number): number {
-  const a = flow[i - 1]!;
-  const b = flow[i]!;
+/** Interpolated time at which flow passes `level` between samples i - 1 and i (values a > level >= b there). */
+function crossing(t: ArrayLike<number>, a: number, b: number, i: number, level: number): number {
   if (!(a > b)) return t[i]!;
   return t[i - 1]! + ((a - level) / (a - b)) * (t[i]! - t[i - 1]!);
 }

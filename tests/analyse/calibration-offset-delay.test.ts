@@ -112,6 +112,34 @@ describe('transport delay robust to cardiogenic ripple', () => {
     expectClose(inspirationReversalTime(Float64Array.from(t), Float64Array.from(f), cross), 1.0, { abs: 0.04 });
   });
 
+  it('with ripple known to be present, the onset is the kink where the own rise leaves the ripple (analytic)', () => {
+    // flow = ripple 0.03 sin(2 pi 1.1 t + phase) throughout, plus -0.42 sin(pi (t-1)/1.5) from t = 1 s: the breath's
+    // own rise starts at 1.0 s by construction. Over eight ripple phases the plain 15-40 % extrapolation is off by up
+    // to (ripple level) / (rise slope), about 0.03 / 0.88 = 34 ms (derived here); the kink must stay within 6 ms.
+    const fs = 100;
+    const kinkErrors: number[] = [];
+    const lineErrors: number[] = [];
+    for (let q = 0; q < 8; q++) {
+      const phase = (2 * Math.PI * q) / 8;
+      const t: number[] = [];
+      const f: number[] = [];
+      for (let k = 0; k < 3 * fs; k++) {
+        const tt = k / fs;
+        f.push(0.03 * Math.sin(2 * Math.PI * 1.1 * tt + phase) + (tt > 1 ? -0.42 * Math.sin((Math.PI * (tt - 1)) / 1.5) : 0));
+        t.push(tt);
+      }
+      let cross = NaN;
+      for (let k = 1; k < f.length; k++) {
+        if (f[k - 1]! >= 0 && f[k]! < 0) cross = t[k - 1]! + (f[k - 1]! / (f[k - 1]! - f[k]!)) * (t[k]! - t[k - 1]!);
+        if (f[k]! < -0.05 && t[k]! > 1) break;
+      }
+      kinkErrors.push(Math.abs(inspirationReversalTime(Float64Array.from(t), Float64Array.from(f), cross, true) - 1));
+      lineErrors.push(Math.abs(inspirationReversalTime(Float64Array.from(t), Float64Array.from(f), cross, false) - 1));
+    }
+    expect(Math.max(...kinkErrors)).toBeLessThan(0.006);
+    expect(Math.max(...lineErrors)).toBeGreaterThan(0.015);
+  });
+
   it('the bundled spontaneous scenario with ripple gets a delay near zero (was 41 ms)', () => {
     const { block } = simulate('adult-spontaneous', { minutes: 3 }, 3);
     const cal = calibrate(block.t_s, block.flow_lps, block.co2_mmhg, defaultSettings());
