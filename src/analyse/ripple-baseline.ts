@@ -90,39 +90,39 @@ export function restsOscillate(t: ArrayLike<number>, flow: ArrayLike<number>, sp
   return amplitudes.length > 0 && median(amplitudes) >= 2 * median(residuals);
 }
 
-/** Least-squares a, b, c for one angular frequency over samples [from, to). */
+/** Least-squares a, b, c for one angular frequency over samples [from, to); one pass (RSS = y'y - beta' X'y). */
 function fitAt(t: ArrayLike<number>, flow: ArrayLike<number>, from: number, to: number, w: number): RippleFit | null {
-  // normal equations of [sin, cos, 1]
-  const m = [0, 0, 0, 0, 0, 0, 0, 0, 0];
-  const r = [0, 0, 0];
+  let sss = 0, ssc = 0, scc = 0, ss1 = 0, sc1 = 0, n = 0, sys = 0, syc = 0, sy = 0, syy = 0;
   for (let i = from; i < to; i++) {
-    const s = Math.sin(w * t[i]!);
-    const c = Math.cos(w * t[i]!);
+    const sn = Math.sin(w * t[i]!);
+    const cs = Math.cos(w * t[i]!);
     const y = flow[i]!;
-    const x = [s, c, 1];
-    for (let p = 0; p < 3; p++) {
-      r[p]! += x[p]! * y;
-      for (let q = 0; q < 3; q++) m[3 * p + q]! += x[p]! * x[q]!;
-    }
+    sss += sn * sn;
+    ssc += sn * cs;
+    scc += cs * cs;
+    ss1 += sn;
+    sc1 += cs;
+    n++;
+    sys += y * sn;
+    syc += y * cs;
+    sy += y;
+    syy += y * y;
   }
-  const sol = solve3(m, r);
+  const sol = solve3([sss, ssc, ss1, ssc, scc, sc1, ss1, sc1, n], [sys, syc, sy]);
   if (!sol) return null;
   const [a, b, c] = sol;
-  let ss = 0;
-  for (let i = from; i < to; i++) {
-    const e = flow[i]! - (c + a * Math.sin(w * t[i]!) + b * Math.cos(w * t[i]!));
-    ss += e * e;
-  }
-  return { a, b, c, w, rms: Math.sqrt(ss / (to - from)) };
+  const rss = Math.max(0, syy - (a * sys + b * syc + c * sy));
+  return { a, b, c, w, rms: Math.sqrt(rss / (to - from)) };
 }
 
 /** Solves the 3 x 3 system m x = r (row-major m) by Cramer's rule; null when it is near singular. */
-export function solve3(m: number[], r: number[]): [number, number, number] | null {
-  const det = (q: number[]): number =>
-    q[0]! * (q[4]! * q[8]! - q[5]! * q[7]!) - q[1]! * (q[3]! * q[8]! - q[5]! * q[6]!) + q[2]! * (q[3]! * q[7]! - q[4]! * q[6]!);
-  const d = det(m);
-  const scale = Math.abs(m[0]! * m[4]! * m[8]!);
-  if (!(Math.abs(d) > 1e-9 * scale)) return null;
-  const col = (k: number): number[] => m.map((v, i) => (i % 3 === k ? r[Math.floor(i / 3)]! : v));
-  return [det(col(0)) / d, det(col(1)) / d, det(col(2)) / d];
+export function solve3(m: readonly number[], r: readonly number[]): [number, number, number] | null {
+  const [a, b, c, d, e, f, g, h, k] = m as [number, number, number, number, number, number, number, number, number];
+  const [p, q, u] = r as [number, number, number];
+  const det = a * (e * k - f * h) - b * (d * k - f * g) + c * (d * h - e * g);
+  if (!(Math.abs(det) > 1e-9 * Math.abs(a * e * k))) return null;
+  const x = p * (e * k - f * h) - b * (q * k - f * u) + c * (q * h - e * u);
+  const y = a * (q * k - f * u) - p * (d * k - f * g) + c * (d * u - q * g);
+  const z = a * (e * u - q * h) - b * (d * u - q * g) + p * (d * h - e * g);
+  return [x / det, y / det, z / det];
 }
