@@ -263,3 +263,27 @@ export function defaultSettings(): Settings {
 }
 
 export const SETTING_GROUPS = ['ingest', 'analysis', 'events'] as const;
+
+/** A given response time outside this range (ms) is not a CO2 sensor's (0 turns the compensation off). */
+const RESPONSE_MS_RANGE = [1, 2000] as const;
+/** A given delay below this (s) is not a transport delay (export timing moves it by a few samples at most). */
+const MIN_GIVEN_DELAY_S = -0.1;
+
+/**
+ * The one-line problem with a given delay or response time that cannot be right (beyond the longest delay searched,
+ * or a unit slip of a factor 1000), naming the likely mistake; null when both are plausible or not given.
+ */
+export function givenTimingProblem(a: AnalysisSettings): string | null {
+  const d = a.delay_s;
+  if (d !== null && d > a.max_delay_s) {
+    const hint = d / 1000 <= a.max_delay_s ? ` If you gave milliseconds, use --delay ${Number((d / 1000).toPrecision(6))}.` : '';
+    return `--delay ${d} s is longer than the longest transport delay searched (max_delay_s ${a.max_delay_s} s); the delay is in seconds.${hint}`;
+  }
+  if (d !== null && d < MIN_GIVEN_DELAY_S) return `--delay ${d} s: a transport delay cannot be negative by more than a few samples; the delay is in seconds.`;
+  const r = a.response_ms;
+  if (r !== null && r > 0 && r < RESPONSE_MS_RANGE[0]) {
+    return `--response-ms ${r} ms is shorter than any CO2 sensor's time constant; the value is in milliseconds: if you gave seconds, use --response-ms ${Number((r * 1000).toPrecision(6))}.`;
+  }
+  if (r !== null && r > RESPONSE_MS_RANGE[1]) return `--response-ms ${r} ms is longer than a breath; the value is the sensor's first-order time constant in milliseconds.`;
+  return null;
+}

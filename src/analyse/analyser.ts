@@ -329,18 +329,8 @@ class StreamAnalyser implements Analyser {
     markOutliers(rows, this.cfg);
     for (const r of rows) r.status = statusOf(r.flags);
     const c = this.cal!;
-    const recordingCautions = c.delay_trusted
-      ? []
-      : [
-          {
-            code: 'delay_untrusted',
-            message:
-              `the breaths do not agree on one CO2 transport delay (${(100 * c.delay_agreement).toFixed(0)} % in the largest cluster); ` +
-              'volumes of the dead spaces depend on it: give --delay if it is known',
-          },
-        ];
     return {
-      recording_cautions: recordingCautions,
+      recording_cautions: calibrationCautions(c, this.medianDt),
       breaths: rows,
       calibration: this.cal!,
       partial_breaths: this.partial,
@@ -351,4 +341,47 @@ class StreamAnalyser implements Analyser {
       breath_delays_s: this.breathDelays,
     };
   }
+}
+
+/** Below this flow sampling rate (Hz) the recording carries the caution low_sampling_rate (docs/accuracy.md). */
+const LOW_RATE_HZ = 50;
+
+/** Smallest disagreement between a given and the measured delay that is reported, s. */
+const GIVEN_DELAY_TOLERANCE_S = 0.01;
+
+/**
+ * Recording-level cautions: a flow sampling rate below 50 Hz, a delay the breaths do not agree on, and a given delay that the CO2
+ * downstrokes contradict (beyond max(3 standard errors, 2 samples, 10 ms) of the delay they show).
+ */
+function calibrationCautions(c: Calibration, dt: number): { code: string; message: string }[] {
+  const out: { code: string; message: string }[] = [];
+  const rate = 1 / dt;
+  if (rate < LOW_RATE_HZ) {
+    out.push({
+      code: 'low_sampling_rate',
+      message:
+        `flow is sampled at ${rate.toFixed(rate < 10 ? 1 : 0)} Hz: below ${LOW_RATE_HZ} Hz the CO2 front passes the sensor within one or two samples; on ` +
+        'simulated recordings exported at 25 Hz airway dead space was off by up to 6 % (fast expirations, sidestream sensors) and a fast ' +
+        'infant pattern gave no usable breaths (docs/accuracy.md); record at 100 Hz or faster',
+    });
+  }
+  if (!c.delay_trusted) {
+    out.push({
+      code: 'delay_untrusted',
+      message:
+        `the breaths do not agree on one CO2 transport delay (${(100 * c.delay_agreement).toFixed(0)} % in the largest cluster); ` +
+        'volumes of the dead spaces depend on it: give --delay if it is known',
+    });
+  }
+  const tolerance = Math.max(3 * (Number.isFinite(c.delay_data_uncertainty_s) ? c.delay_data_uncertainty_s : 0), 2 * dt, GIVEN_DELAY_TOLERANCE_S);
+  if (c.delay_origin === 'given' && c.delay_data_trusted && Number.isFinite(c.delay_data_s) && Math.abs(c.delay_s - c.delay_data_s) > tolerance) {
+    out.push({
+      code: 'given_delay_disagrees',
+      message:
+        `the given CO2 delay ${c.delay_s.toFixed(3)} s disagrees with the ${c.delay_data_s.toFixed(3)} s ` +
+        `(± ${(Number.isFinite(c.delay_data_uncertainty_s) ? c.delay_data_uncertainty_s : 0).toFixed(3)} s) that the inspiratory CO2 downstrokes show: ` +
+        'the dead-space volumes depend on it; check the value or leave --delay out to use the measured one',
+    });
+  }
+  return out;
 }

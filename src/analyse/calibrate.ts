@@ -41,6 +41,11 @@ export interface Calibration {
   delay_agreement: number;
   /** false when the per-breath delays do not agree on one value (no cluster holds most breaths) */
   delay_trusted: boolean;
+  /** the delay the CO2 downstrokes show (densest cluster), s, also when a delay was given (NaN: none measurable) */
+  delay_data_s: number;
+  /** its standard error, s, and whether its cluster holds most breaths */
+  delay_data_uncertainty_s: number;
+  delay_data_trusted: boolean;
   fall_fits: number;
   /** whether the end-expiratory rests carry cardiogenic flow oscillation; then each inspiration's onset is the kink
    *  where its own rise leaves the oscillation (flow-reversal.ts) */
@@ -417,7 +422,7 @@ function estimateTiming(
   notes: string[],
 ): Pick<
   Calibration,
-  'delay_s' | 'delay_origin' | 'response_ms' | 'response_origin' | 'response_uncertainty_ms' | 'delay_iqr_s' | 'delay_uncertainty_s' | 'delay_agreement' | 'delay_trusted' | 'fall_fits' | 'ripple'
+  'delay_s' | 'delay_origin' | 'response_ms' | 'response_origin' | 'response_uncertainty_ms' | 'delay_iqr_s' | 'delay_uncertainty_s' | 'delay_agreement' | 'delay_trusted' | 'fall_fits' | 'ripple' | 'delay_data_s' | 'delay_data_uncertainty_s' | 'delay_data_trusted'
 > {
   const a = settings.analysis;
   const delayGiven = a.delay_s !== null;
@@ -458,6 +463,9 @@ function estimateTiming(
     delay_trusted: delayGiven || (fits.length > 0 && est.trusted),
     fall_fits: fits.length,
     ripple,
+    delay_data_s: fits.length ? est.delay_s : NaN,
+    delay_data_uncertainty_s: est.uncertainty_s,
+    delay_data_trusted: fits.length > 0 && est.trusted,
   };
 }
 

@@ -2,7 +2,7 @@
 // defaults, then the settings file given by `settings`, then each option, marked as given. Node-only (reads the file);
 // shared by the CLI and batch mode so that batch needs nothing from src/cli.
 import { readFileSync, existsSync } from 'node:fs';
-import { defaultSettings, type Settings } from '../settings';
+import { defaultSettings, givenTimingProblem, type Settings } from '../settings';
 import { applySettings, parseSettingsFile, SettingsError, type SettingsFile } from '../settings-file';
 
 export interface ResolvedSettings {
@@ -52,5 +52,7 @@ export function resolveSettings(opts: Record<string, unknown>): ResolvedSettings
     ((group === 'ingest' ? ingest : analysis) as Record<string, unknown>)[key] = v;
   }
   applySettings(settings, { ingest, analysis }, given);
+  const timing = givenTimingProblem(settings.analysis);
+  if (timing) throw new SettingsError(timing);
   return { settings, given, file };
 }
