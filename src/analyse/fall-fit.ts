@@ -71,16 +71,19 @@ export function fitInspiratoryFall(
   // walk back to the last sample still near the top, then collect the falling run
   let start = j;
   while (start > before && (co2[start]! - lo) / range < 0.85) start--;
-  const xs: number[] = [];
-  const ys: number[] = [];
-  for (let i = start; i <= after; i++) {
-    const q = (co2[i]! - lo) / range;
-    if (i > j && q < 0.12) break;
-    if (q < 0.85 && q > 0.12) {
-      xs.push(t[i]!);
-      ys.push(detLog(q));
+  const collect = (top: number, bottom: number): number[] => {
+    const run: number[] = [];
+    for (let i = start; i <= after; i++) {
+      const q = (co2[i]! - lo) / range;
+      if (i > j && q < bottom) break;
+      if (q < top && q > bottom) run.push(i);
     }
-  }
+    return run;
+  };
+  const measured = measuredSamples(t, co2, collect);
+  if (!measured) return null;
+  const xs = measured.map((i) => t[i]!);
+  const ys = measured.map((i) => detLog((co2[i]! - lo) / range));
   if (xs.length >= 2) {
     const line = fitLine(xs, ys);
     if (line.slope < 0) {
@@ -92,6 +95,32 @@ export function fitInspiratoryFall(
   let k = j;
   while (k > before && (co2[k]! - lo) / range < 0.5) k--;
   return { t0_s: 0.5 * (t[k]! + t[k + 1]!), tau_s: 0, hi_mmhg: hi, lo_mmhg: lo, points: xs.length };
+}
+
+/**
+ * The samples of the falling run that the fit uses. A CO2 channel slower than flow reaches the analysis with the rows
+ * between its samples interpolated linearly by the reader; those rows lie exactly on the chord between their
+ * neighbours and would pull the log-linear fit towards the chord (a longer time constant and a later onset: at a
+ * quarter of the flow rate 28 instead of 18 ms on simulated data). When most of the run between 85 % and 12 % lies on
+ * such chords, only the measured rows are fitted: those between 85 % and 12 %, or when fewer than two are there,
+ * those between 96 % and 4 %; with fewer than two in either, the fall cannot be fitted (null). A run that is not
+ * interpolated is fitted whole, as before. Method: derived here (a linear interpolant has zero second difference).
+ */
+function measuredSamples(t: ArrayLike<number>, co2: ArrayLike<number>, collect: (top: number, bottom: number) => number[]): number[] | null {
+  const run = collect(0.85, 0.12);
+  const kept = run.filter((i) => !onChord(t, co2, i));
+  if (run.length === 0 || 2 * kept.length > run.length) return run;
+  if (kept.length >= 2) return kept;
+  const wide = collect(0.96, 0.04).filter((i) => !onChord(t, co2, i));
+  return wide.length >= 2 ? wide : null;
+}
+
+/** True when sample i lies exactly on the straight line between its neighbours (a row the reader interpolated). */
+function onChord(t: ArrayLike<number>, co2: ArrayLike<number>, i: number): boolean {
+  if (i < 1 || i + 1 >= t.length) return false;
+  const w = (t[i]! - t[i - 1]!) / (t[i + 1]! - t[i - 1]!);
+  const chord = co2[i - 1]! + w * (co2[i + 1]! - co2[i - 1]!);
+  return Math.abs(co2[i]! - chord) <= 1e-9 * Math.max(1, Math.abs(co2[i]!));
 }
 
 /** First index with t[i] >= x (t ascending). */
