@@ -5,7 +5,9 @@
 // zero as the inspiration begins, the last zero crossing lies up to half a cardiac period too early, and every CO2
 // downstroke measured from it reads a transport delay that much too long. This module keeps the zero crossing when
 // it is consistent with the rise of inspiratory flow and otherwise extrapolates that rise back to zero flow. For a fast
-// valve edge, whose smooth start the crossing places late, the start of the rise is fitted (risingEdgeOnset).
+// valve edge, whose smooth start the crossing places late, the start of the rise is fitted (risingEdgeOnset). In a
+// recording whose end-expiratory rests oscillate (ripple-baseline.ts), every slow rise's onset is the kink where it
+// leaves the oscillation (riseKink), since the oscillation's level moves the extrapolated onset by tens of ms.
 // Method: common practice, no source (linear extrapolation of the flow rise between 15 % and 40 % of its peak; for a
 // half-sine rise the extrapolation error is below 0.5 % of the inspiratory time, derived here from sin x ≈ x − x³/6).
 
@@ -139,7 +141,7 @@ function hingeResidual(t: ArrayLike<number>, flow: ArrayLike<number>, lo: number
 
 /**
  * The end-expiratory rest before an inspiration on which cardiogenic oscillation rides (null when the flow does not
- * oscillate there or the rest is too short): the samples that commonRippleRate fits for the recording's heart rate.
+ * oscillate there or the rest is too short): the samples fitted for the recording's heart rate (ripple-baseline.ts).
  */
 export function rippleRestSpan(t: ArrayLike<number>, flow: ArrayLike<number>, crossS: number, searchS = 0.7): RestSpan | null {
   const start = lowerBound(t, crossS);

@@ -1,20 +1,21 @@
-// The cardiogenic oscillation under the start of a spontaneous inspiration, predicted from the end-expiratory rest
-// before it.
+// Does a recording carry cardiogenic oscillation in its end-expiratory rests?
 //
 // During the end-expiratory rest of spontaneous breathing the flow at the airway opening oscillates with the heart
 // beat. The oscillation goes on while the inspiration begins and adds its level to the rise of inspiratory flow, which
 // moves the extrapolated start of that rise by (oscillation level) / (rise slope): tens of milliseconds for an
-// oscillation of a few percent of the inspiratory peak. Here the rest is fitted by
+// oscillation of a few percent of the inspiratory peak. When the rests oscillate, flow-reversal.ts finds each onset
+// as the kink where the breath's own rise leaves the oscillation. Each rest is fitted by
 //   f(t) = c + a sin(w t) + b cos(w t)
-// with w from a grid of heart rates (40-180 per minute; a, b, c by linear least squares for each w, the w with the
-// smallest residual kept), and the fit is carried forward under the rise so that it can be subtracted.
-// Method: common practice, no source (least-squares sinusoid fit with a frequency grid search).
+// with one w for the recording from a grid of heart rates (40-180 per minute; a, b, c by linear least squares per rest,
+// the w with the smallest total residual kept); the rests oscillate when the median amplitude sqrt(a^2 + b^2) is at
+// least twice the median residual RMS. Method: common practice, no source (least-squares sinusoid fit with a
+// frequency grid search).
 
 import { lowerBound } from './fall-fit';
 import { median } from '../numeric/stats';
 
 /** A fitted oscillation: level c + a sin(w t) + b cos(w t) (t in s, flow L/s). */
-export interface RippleFit {
+interface RippleFit {
   a: number;
   b: number;
   c: number;
@@ -53,7 +54,7 @@ export function restSpan(t: ArrayLike<number>, flow: ArrayLike<number>, endS: nu
  * The heart rate shared by the rests of a recording (angular frequency, rad/s): the grid rate whose sinusoid fits all
  * rests together with the least squared residual (each rest with its own a, b, c). Null without rests.
  */
-export function commonRippleRate(t: ArrayLike<number>, flow: ArrayLike<number>, spans: readonly RestSpan[]): number | null {
+function commonRippleRate(t: ArrayLike<number>, flow: ArrayLike<number>, spans: readonly RestSpan[]): number | null {
   if (!spans.length) return null;
   let bestW: number | null = null;
   let bestSs = Infinity;
