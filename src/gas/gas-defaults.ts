@@ -19,7 +19,12 @@ export const GAS_DEFAULTS = {
     value: DEFAULT_DISSOLVED_O2_ML_PER_DL_PER_MMHG,
     source: 'common practice, no source: 0.003 and 0.0031 mL/dL/mmHg are in use; the choice is a setting',
   },
-  end_capillary_saturation: { value: 'one' as 'one' | 'odc', source: "common practice, no source: Sc'O2 taken as 1.0 when PAO2 is high" },
+  end_capillary_saturation: {
+    value: 'odc' as 'one' | 'odc',
+    source:
+      "Severinghaus JW 1979, J Appl Physiol 46:599-602: Sc'O2 from the O2 dissociation curve at PAO2 (end-capillary blood in " +
+      "equilibrium with alveolar gas); 'one' takes 1.0, which overstates venous admixture on room air",
+  },
   alveolar_gas_form: { value: 'full' as 'full' | 'simplified', source: 'Riley RL, Cournand A 1949, J Appl Physiol 1:825-847 (alveolar gas equation)' },
   default_pv_a_co2_mmhg: {
     value: 6,

@@ -48,7 +48,7 @@ export interface GasOptions {
   hb_o2_capacity_ml_per_g?: number;
   /** dissolved O2 coefficient, mL/dL/mmHg (default 0.003) */
   o2_dissolved_ml_per_dl_per_mmhg?: number;
-  /** end-capillary saturation: 'one' = assume 1.0 (default), 'odc' = Severinghaus curve at PAO2 */
+  /** end-capillary saturation: 'odc' = Severinghaus curve at PAO2 (default), 'one' = assume 1.0 */
   end_capillary_saturation?: 'one' | 'odc';
   /** alveolar gas equation form (default 'full') */
   alveolar_gas_form?: 'full' | 'simplified';

@@ -261,7 +261,7 @@ export const GAS_METRICS = [
   n('vd_alv_ml_per_kg', 'Alveolar dead space per kg', 'mL/kg', 2, false, '`vd_alv_ml` per kg, same weight as above', ARDSNET),
   n('vd_phys_ml_per_kg', 'Physiological dead space per kg', 'mL/kg', 2, false, '`vd_phys_ml` per kg, same weight as above', ARDSNET),
   n('pao2_alv_mmhg', 'Ideal alveolar PO2', 'mmHg', 1, false, 'ideal alveolar PO2 from the alveolar gas equation (RQ setting, 0.8 by default)', FENN),
-  n('shunt_fraction', 'Venous admixture', '', 2, false, 'venous admixture from oxygen contents (end-capillary saturation 1.0) or from saturations only', BERGGREN),
+  n('shunt_fraction', 'Venous admixture', '', 2, false, 'venous admixture from oxygen contents (end-capillary saturation from the Severinghaus curve at PAO2, or 1.0 when FiO2 is missing or by setting) or from saturations only', BERGGREN),
   txt('shunt_method', 'Venous admixture method', '`contents`, `saturations` or empty', DERIVED),
   n('pvco2_mmhg', 'PvCO2 used', 'mmHg', 1, false, 'venous PCO2 used for the shunt part: measured, or PaCO2 + a default P(v−a)CO2 of 6 mmHg', NO_SOURCE),
   txt('pvco2_source', 'PvCO2 source', '`measured`, `default`, `fick` or empty', DERIVED),

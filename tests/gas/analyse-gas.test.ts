@@ -72,7 +72,7 @@ describe('analyseGas: dead-space arithmetic (synthetic curve B)', () => {
       rq: 0.8,
       hb_o2_capacity_ml_per_g: 1.34,
       o2_dissolved_ml_per_dl_per_mmhg: 0.003,
-      end_capillary_saturation: 'one',
+      end_capillary_saturation: 'odc',
       alveolar_gas_form: 'full',
       default_pv_a_co2_mmhg: 6,
       co2_slope_k: 0.67,
