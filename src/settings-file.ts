@@ -2,7 +2,10 @@
 // its thresholds once. Unknown keys and wrong types are refused with a message naming the key.
 //
 //   { "ingest": { "co2_unit": "kPa" }, "analysis": { "leak_fraction": 0.1 },
-//     "files": [ { "pattern": "**/site-b/*.csv", "ingest": { "decimal": ",", "delimiter": ";" } } ] }
+//     "files": [ { "pattern": "site-b/**", "ingest": { "decimal": ",", "delimiter": ";" } } ] }
+//
+// `files` patterns are matched in src/batch (file-settings.ts, glob.ts patternMatches): in a batch against each
+// recording's path relative to the input folder it was found in.
 
 import { z } from 'zod';
 import { SETTING_GROUPS, type Settings } from './settings';

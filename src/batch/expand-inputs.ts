@@ -5,7 +5,7 @@
 // batch manifest.json, or the breaths.csv + summary.json pair of `analyse`), so `phasewise batch .` does not read
 // earlier results as recordings.
 import { closeSync, existsSync, openSync, readdirSync, readSync, realpathSync, statSync } from 'node:fs';
-import { isAbsolute, join, relative, resolve, sep } from 'node:path';
+import { basename, isAbsolute, join, relative, resolve, sep } from 'node:path';
 import { globToRegExp, hasGlobChars, toPosix } from './glob';
 
 /** Extensions taken when a folder is searched (case-insensitive). */
@@ -18,6 +18,11 @@ export interface BatchInput {
   path: string;
   /** true when the input was named explicitly but does not exist */
   missing: boolean;
+  /**
+   * what the settings file's `files` patterns are matched against: the path below the folder (or a glob's leading
+   * folders) the recording was found in, the file name for a file named directly; one per input that found it, sorted
+   */
+  patternPaths: string[];
 }
 
 export interface ExpandedInputs {
@@ -119,8 +124,10 @@ export function expandInputs(args: readonly string[], cwd: string = process.cwd(
   const found = new Map<string, BatchInput>();
   const warnings: string[] = [];
   const skipped: string[] = [];
-  const add = (abs: string, missing = false) => {
-    if (!found.has(abs)) found.set(abs, { recording: recordingId(abs, cwd), path: abs, missing });
+  const add = (abs: string, patternPath: string, missing = false) => {
+    const input = found.get(abs) ?? { recording: recordingId(abs, cwd), path: abs, missing, patternPaths: [] };
+    if (!input.patternPaths.includes(patternPath)) input.patternPaths = [...input.patternPaths, patternPath].sort();
+    found.set(abs, input);
   };
   for (const arg of args) {
     const abs = resolve(cwd, arg);
@@ -130,14 +137,14 @@ export function expandInputs(args: readonly string[], cwd: string = process.cwd(
         const files: string[] = [];
         walk(abs, exclude, (f) => hasRecordingExtension(f), files, new Set(), skipped);
         if (!files.length) warnings.push(`${arg}: the folder holds no .csv, .tsv or .txt files`);
-        for (const f of files) add(f);
+        for (const f of files) add(f, toPosix(relative(abs, f)));
       } else {
-        add(abs);
+        add(abs, basename(abs));
       }
       continue;
     }
     if (!hasGlobChars(arg)) {
-      add(abs, true);
+      add(abs, basename(abs), true);
       continue;
     }
     const absPattern = toPosix(isAbsolute(arg) ? arg : join(cwd, arg));
@@ -146,7 +153,7 @@ export function expandInputs(args: readonly string[], cwd: string = process.cwd(
     const files: string[] = [];
     walk(base, exclude, (f) => re.test(toPosix(f)), files, new Set(), skipped);
     if (!files.length) warnings.push(`${arg}: no file matches this pattern`);
-    for (const f of files) add(f);
+    for (const f of files) add(f, toPosix(relative(base, f)));
   }
   for (const d of [...new Set(skipped)].sort()) warnings.push(`${recordingId(d, cwd)}: skipped, it holds phasewise outputs (manifest.json, or breaths.csv with summary.json)`);
   const inputs = [...found.values()].sort((a, b) => (a.recording < b.recording ? -1 : a.recording > b.recording ? 1 : 0));

@@ -1,12 +1,15 @@
 // Settings of a batch: one base set for every recording, plus the settings file's per-file-pattern overrides.
 // Precedence for one recording (later wins): defaults < settings file (top level) < each `files` entry whose pattern
 // matches the recording, in file order < command-line options. Command-line options win everywhere, as they do
-// for `analyse` ("options given here win").
+// for `analyse` ("options given here win"). A pattern is matched against the recording's path below the input it was
+// found in (BatchInput.patternPaths, rule in patternMatches), so a settings file works from any working folder; a
+// pattern that matches no recording of the batch is a warning (unmatchedPatternWarnings).
 import { defaultSettings, type Settings } from '../settings';
 import { applySettings, type SettingsFile } from '../settings-file';
 import { resolveSettings } from '../node/resolve-settings';
 import { sha256Json } from './hash';
-import { patternMatches } from './glob';
+import type { BatchInput } from './expand-inputs';
+import { patternMatches, toPosix } from './glob';
 
 type Patch = { ingest?: Partial<Settings['ingest']>; analysis?: Partial<Settings['analysis']>; events?: Partial<Settings['events']> };
 export type FilePattern = NonNullable<SettingsFile['files']>[number];
@@ -67,18 +70,45 @@ export function settingsPlan(opts: Record<string, unknown>): SettingsPlan {
   };
 }
 
-/** The settings one recording is analysed with. */
-export function settingsForRecording(plan: SettingsPlan, recording: string): RecordingSettings {
+/**
+ * The settings one recording is analysed with.
+ * @param patternPaths the paths the `files` patterns are matched against (a pattern applies when it matches any)
+ */
+export function settingsForRecording(plan: SettingsPlan, patternPaths: readonly string[]): RecordingSettings {
   const settings = defaultSettings();
   const given = new Set<string>();
   applySettings(settings, plan.fileTop, given);
   const patterns: string[] = [];
   for (const f of plan.files) {
-    if (!patternMatches(f.pattern, recording)) continue;
+    if (!patternPaths.some((p) => patternMatches(f.pattern, p))) continue;
     applySettings(settings, f, given);
     patterns.push(f.pattern);
   }
   applySettings(settings, plan.cli, given);
   const sortedGiven = [...given].sort();
   return { settings, given: sortedGiven, patterns, sha256: sha256Json({ settings, given: sortedGiven }) };
+}
+
+/**
+ * One warning per `files` pattern that matches none of the batch's recordings (all of them, before sharding, so a
+ * shard does not warn about a pattern that applies in another shard). It names the pattern, says what patterns are
+ * matched against with an example from this batch, and, when the pattern matches a recording's path from the
+ * working folder instead (`data/site-b/*.csv` for `phasewise batch data/`), names that recording.
+ */
+export function unmatchedPatternWarnings(plan: SettingsPlan, inputs: readonly Pick<BatchInput, 'recording' | 'patternPaths'>[]): string[] {
+  const warnings: string[] = [];
+  const paths = inputs.flatMap((i) => i.patternPaths);
+  for (const pattern of new Set(plan.files.map((f) => f.pattern))) {
+    if (inputs.some((i) => i.patternPaths.some((p) => patternMatches(pattern, p)))) continue;
+    // an example of what the pattern was compared with, with a folder in it when the pattern has one
+    const example = (toPosix(pattern).includes('/') ? paths.find((p) => p.includes('/')) : undefined) ?? paths[0];
+    const fromCwd = inputs.find((i) => patternMatches(pattern, i.recording));
+    warnings.push(
+      `settings file pattern "${pattern}" matches no recording; patterns are matched against each recording's path relative to the input folder it was found in` +
+        ` (for a file given directly, its file name; a pattern without "/" against each folder and file name in that path)` +
+        (example === undefined ? '' : `, e.g. "${example}"`) +
+        (fromCwd ? `; it matches "${fromCwd.recording}" only as a path from the working folder: write the path below the input folder` : ''),
+    );
+  }
+  return warnings;
 }

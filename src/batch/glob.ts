@@ -83,13 +83,15 @@ export function toPosix(path: string): string {
 }
 
 /**
- * Does a settings-file pattern apply to a recording? A pattern without `/` matches the file name
- * (`*.tsv`); a pattern with `/` matches the recording path relative to the working folder (`site-b/**\/*.csv`,
- * `**\/site-b/*.csv`).
+ * Does a settings-file pattern apply to a recording, given the path the pattern is matched against (in a batch: the
+ * path below the input folder the recording was found in, see BatchInput.patternPaths)? A pattern without `/` matches
+ * when it matches any one folder or file name of the path (`*.tsv`, `*sidestream*`, `site-b`); a pattern with `/`
+ * must match the whole path (`site-b/**`, `**\/site-b/*.csv`).
+ * @example patternMatches('*sidestream*', 'sidestream-lab/p3.csv') // => true
  */
-export function patternMatches(pattern: string, recordingPath: string): boolean {
-  const path = toPosix(recordingPath);
+export function patternMatches(pattern: string, path: string): boolean {
   const p = toPosix(pattern);
-  if (!p.includes('/')) return globToRegExp(p).test(path.slice(path.lastIndexOf('/') + 1));
-  return globToRegExp(p).test(path);
+  const re = globToRegExp(p);
+  if (!p.includes('/')) return toPosix(path).split('/').some((name) => re.test(name));
+  return re.test(toPosix(path));
 }

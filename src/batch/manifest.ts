@@ -20,7 +20,7 @@ export interface ManifestEntry {
   sha256: string | null;
   /** SHA-256 of the settings this recording was analysed with (base + matching file patterns) */
   settings_sha256: string;
-  /** settings-file patterns that applied to this recording */
+  /** settings-file patterns that applied to this recording (matched against its path below its input folder) */
   patterns: string[];
   status: EntryStatus;
   error: { code: string; message: string } | null;
@@ -49,7 +49,7 @@ export interface Manifest {
   inputs_total: number;
   input_list_sha256: string;
   merged_from: string[];
-  /** input arguments that matched nothing, folders skipped as phasewise outputs */
+  /** input arguments that matched nothing, folders skipped as phasewise outputs, settings-file patterns that matched no recording */
   warnings: string[];
   jobs: number;
   counts: { ok: number; failed: number; pending: number; resumed: number };

@@ -7,7 +7,7 @@ import { join, resolve } from 'node:path';
 import { writeFileAtomic } from '../node/atomic-write';
 import { VERSION } from '../version';
 import { expandInputs, type BatchInput } from './expand-inputs';
-import { settingsForRecording, type SettingsPlan } from './file-settings';
+import { settingsForRecording, unmatchedPatternWarnings, type SettingsPlan } from './file-settings';
 import { countEntries, manifestJson, MANIFEST_FILE, MANIFEST_FORMAT, readManifest, type Manifest, type ManifestEntry } from './manifest';
 import { outputFolders } from './output-names';
 import { runTasks } from './pool';
@@ -40,6 +40,8 @@ export interface BatchOptions {
   cwd?: string;
   /** the command line, recorded in the manifest */
   command?: string;
+  /** called with each warning before any recording is analysed (the CLI prints them there) */
+  onWarning?: (warning: string) => void;
 }
 
 export interface BatchOutcome {
@@ -64,8 +66,10 @@ export async function runBatch(o: BatchOptions): Promise<BatchOutcome> {
   const started = new Date().toISOString();
   const cwd = o.cwd ?? process.cwd();
   const outDir = resolve(cwd, o.outDir);
-  const { inputs: all, warnings } = expandInputs(o.inputs, cwd, outDir);
+  const { inputs: all, warnings: inputWarnings } = expandInputs(o.inputs, cwd, outDir);
   if (!all.length) throw new BatchUsageError(`no recordings found in ${o.inputs.join(' ')}: give files, folders (searched for .csv, .tsv, .txt) or quoted globs such as 'data/**/*.csv'`);
+  const warnings = [...inputWarnings, ...unmatchedPatternWarnings(o.plan, all)];
+  for (const w of warnings) o.onWarning?.(w);
   const picked = pickRecordings(all, o.shard);
   const done = resumableResults(o.resume, outDir);
   // sizes (bytes), read cheaply before hashing: for the progress bar and the choice of lanes
@@ -135,7 +139,7 @@ function planRecordings(
   const entries: ManifestEntry[] = [];
   const tasks: RecordingTask[] = [];
   for (const [k, { input, folder }] of picked.entries()) {
-    const rs = settingsForRecording(plan, input.recording);
+    const rs = settingsForRecording(plan, input.patternPaths);
     const path = input.path;
     const before = done.get(input.recording);
     const outputs = { breaths: `${folder}/${BREATHS_FILE}`, summary: `${folder}/${SUMMARY_FILE}` };

@@ -25,8 +25,9 @@ export function registerAnalyse(program: Command): void {
     .option('--json', 'print summary.json to the terminal instead of the table')
     .option('--quiet', 'print nothing on success');
   addGasOptions(addInputOptions(cmd)).action(async (file: string, opts: Record<string, unknown>) => {
-    // the same settings resolution as batch: defaults < settings file < its matching `files` patterns < options
-    const rec = settingsForRecording(settingsPlan(opts), recordingId(resolve(file), process.cwd()));
+    // the same settings resolution as batch: defaults < settings file < its matching `files` patterns < options;
+    // here the patterns are matched against the file's path from the working folder
+    const rec = settingsForRecording(settingsPlan(opts), [recordingId(resolve(file), process.cwd())]);
     const settings = rec.settings;
     const given = new Set(rec.given);
     const gas = readGasFile(opts); // read first: a bad gas file fails before the long analysis

@@ -74,8 +74,8 @@ export function registerBatch(program: Command): void {
         resume: Boolean(opts.resume),
         progress: quiet ? 'none' : process.stderr.isTTY ? 'bar' : 'lines',
         command: commandLine(inputs, opts),
+        onWarning: (w) => process.stderr.write(`phasewise batch: warning: ${w}\n`),
       });
-      for (const w of outcome.warnings) process.stderr.write(`phasewise batch: warning: ${w}\n`);
       report(outcome.manifest, out, quiet);
       process.exitCode = outcome.exitCode;
     } catch (e) {

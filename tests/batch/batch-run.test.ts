@@ -53,7 +53,7 @@ describe('batch run (serial)', () => {
   it('writes per recording exactly what `analyse` writes for that file', async () => {
     const e = m.inputs[1]!;
     const plan = settingsPlan({});
-    const rs = settingsForRecording(plan, e.recording);
+    const rs = settingsForRecording(plan, []);
     const analysed = await analyseFile(join(dir, 'data/p1.csv'), rs.settings);
     const direct = { ...analysed, summary: summaryFor(analysed.core, analysed.report, rs.settings, new Set(rs.given)) };
     expect(read(join(dir, 'out1'), e.outputs.breaths)).toBe(breathsCsv(direct.core.breaths));
@@ -137,11 +137,11 @@ describe('--resume', () => {
 describe('per-file-pattern settings', () => {
   it('applies a settings file `files` entry to matching recordings only; command-line options win over it', async () => {
     const settingsPath = join(dir, 'study.json');
-    writeFileSync(settingsPath, JSON.stringify({ analysis: { leak_fraction: 0.2 }, files: [{ pattern: 'data/site-b/*.csv', analysis: { paco2_mmhg: 45 } }] }));
+    writeFileSync(settingsPath, JSON.stringify({ analysis: { leak_fraction: 0.2 }, files: [{ pattern: 'site-b/*.csv', analysis: { paco2_mmhg: 45 } }] }));
     const r = await run({ outDir: 'out3', opts: { settings: settingsPath } });
     const [, p1, p2] = r.manifest.inputs;
     expect(p1!.patterns).toEqual([]);
-    expect(p2!.patterns).toEqual(['data/site-b/*.csv']);
+    expect(p2!.patterns).toEqual(['site-b/*.csv']);
     const s1 = JSON.parse(read(join(dir, 'out3'), p1!.outputs.summary));
     const s2 = JSON.parse(read(join(dir, 'out3'), p2!.outputs.summary));
     expect(s1.settings['analysis.paco2_mmhg'].value).toBeNull();

@@ -46,6 +46,13 @@ describe('globToRegExp / patternMatches', () => {
     expect(patternMatches('sub/*.tsv', 'data/sub/c.tsv')).toBe(false);
     expect(patternMatches('data/sub/*.tsv', './data/sub/c.tsv')).toBe(true);
   });
+  it('a pattern without "/" matches any one folder or file name of the path', () => {
+    expect(patternMatches('*sidestream*', 'sidestream-lab/p3.csv')).toBe(true);
+    expect(patternMatches('*sidestream*', 'a/p3-sidestream.csv')).toBe(true);
+    expect(patternMatches('site-b', 'x/site-b/deep/p.csv')).toBe(true);
+    expect(patternMatches('site-b', 'x/site-bb/p.csv')).toBe(false);
+    expect(patternMatches('*.tsv', 'sub/c.csv')).toBe(false);
+  });
 });
 
 describe('expandInputs', () => {
@@ -80,6 +87,18 @@ describe('expandInputs', () => {
       'w/an: skipped, it holds phasewise outputs (manifest.json, or breaths.csv with summary.json)',
       'w/res: skipped, it holds phasewise outputs (manifest.json, or breaths.csv with summary.json)',
     ]);
+  });
+  it('gives each recording the paths settings-file patterns are matched against: below its folder or glob base, or the file name', () => {
+    const paths = (args: string[]) => Object.fromEntries(expandInputs(args, dir).inputs.map((i) => [i.recording, i.patternPaths]));
+    expect(paths(['data/sub'])).toEqual({ 'data/sub/c.tsv': ['c.tsv'], 'data/sub/deep/d.txt': ['deep/d.txt'] });
+    expect(paths(['data/sub/c.tsv', 'nope.csv'])).toEqual({ 'data/sub/c.tsv': ['c.tsv'], 'nope.csv': ['nope.csv'] });
+    expect(paths(['data/**/*.txt'])).toEqual({ 'data/sub/deep/d.txt': ['sub/deep/d.txt'] });
+    expect(paths(['./data/sub/'])).toEqual(paths(['data/sub']));
+    // found under two inputs: matched against both paths, whatever the order of the arguments
+    const both = { 'data/sub/c.tsv': ['c.tsv', 'sub/c.tsv'], 'data/sub/deep/d.txt': ['deep/d.txt', 'sub/deep/d.txt'] };
+    expect(paths(['data/sub', 'data/*/*/*.txt', 'data/sub/c.tsv'])).toMatchObject({ 'data/sub/deep/d.txt': ['deep/d.txt', 'sub/deep/d.txt'] });
+    expect(paths(['data/sub', 'data'])).toMatchObject(both);
+    expect(paths(['data', 'data/sub'])).toMatchObject(both);
   });
   it('gives the same order whatever the order of the arguments', () => {
     const a = expandInputs(['other', 'data'], dir).inputs.map((i) => i.recording);

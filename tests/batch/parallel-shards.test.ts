@@ -154,6 +154,16 @@ describe('bundled CLI', () => {
     expect(r.stdout).toMatch(/6 recording\(s\): 5 ok \(0 kept from an earlier run\), 1 failed/);
     expect(tables('cli-out')).toEqual(tables('single'));
   });
+  it('a settings-file pattern that matches no recording is a warning on stderr before the recordings are analysed', () => {
+    writeFileSync(join(dir, 'unmatched.json'), JSON.stringify({ files: [{ pattern: 'site-b/**', analysis: { apparatus_ml: 20 } }] }));
+    const r = cli('batch', 'data/r1-adult-healthy.csv', '--out', 'cli-unmatched', '--settings', 'unmatched.json');
+    expect(r.status).toBe(0);
+    const lines = r.stderr.split('\n');
+    const warning = lines.findIndex((l) => l.startsWith('phasewise batch: warning: settings file pattern "site-b/**" matches no recording'));
+    expect(warning).toBeGreaterThanOrEqual(0);
+    expect(lines[warning]).toContain('"r1-adult-healthy.csv"');
+    expect(warning).toBeLessThan(lines.findIndex((l) => /^\[1\/1\] ok/.test(l)));
+  });
   it('usage errors end in one line and exit code 2', () => {
     const bad = cli('batch', 'data', '--out', 'x', '--shard', '3/3');
     expect(bad.status).toBe(2);
