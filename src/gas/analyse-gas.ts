@@ -211,7 +211,7 @@ interface SettingsParts {
   weight: WeightChoice;
   windowS: number;
   gradientChangeMmhg: number;
-  singleGasSpread: number;
+  band: { band_level: number; analyser_sd_mmhg: number; drift_prior_mmhg2_per_h: number };
 }
 
 /** The settings record of a gas analysis: every value used, the rules in words and the sources of the defaults. */
@@ -236,11 +236,11 @@ function gasSettings(s: SettingsParts): Record<string, unknown> {
     cardiac_output_l_min: shuntSettings.cardiac_output_l_min,
     co2_slope_k: shuntSettings.co2_slope_k,
     gradient_change_mmhg: s.gradientChangeMmhg,
-    single_gas_spread_mmhg: s.singleGasSpread,
+    ...s.band,
     weight_basis: weight.basis,
     weight_used_kg: Number.isFinite(weight.weight_kg) ? weight.weight_kg : null,
     weight_note: weight.note,
-    estimate_band: 'min-max of the gradients observed so far; +/- single_gas_spread_mmhg while only one gas is known',
+    estimate_band: 'prediction interval: estimate +/- z SD, SD^2 = analyser SD^2 + breath-to-breath PETCO2 SD^2 + gradient drift x time since the gas (src/gas/estimate-paco2.ts)',
     sources: Object.fromEntries(Object.entries(GAS_DEFAULTS).map(([k, v]) => [k, v.source])),
     given: Object.keys(opts).filter((k) => opts[k as keyof GasOptions] !== undefined).sort(),
   };
@@ -273,7 +273,6 @@ export function analyseGas(
   const d = GAS_DEFAULTS;
   const windowS = opts.window_s ?? d.window_s.value;
   const gradientChangeMmhg = opts.gradient_change_mmhg ?? d.gradient_change_mmhg.value;
-  const singleGasSpread = opts.single_gas_spread_mmhg ?? d.single_gas_spread_mmhg.value;
   const shuntSettings = resolveShuntSettings(opts);
   const weight = chooseWeight(opts);
   const ctx: SampleContext = { breaths, windowS, gradientChangeMmhg, analysis, shuntSettings, weight };
@@ -288,7 +287,12 @@ export function analyseGas(
         `PvCO2 - PaCO2 = ${shuntSettings.default_pv_a_co2_mmhg} mmHg (textbook value; common practice, no source); measure venous PCO2 for a patient-specific split`,
     );
   }
-  const settings = gasSettings({ opts, analysis, shuntSettings, weight, windowS, gradientChangeMmhg, singleGasSpread });
-  const estimates = estimatePaco2(breaths, rows, { single_gas_spread_mmhg: singleGasSpread, summary_breaths: analysis.summary_breaths });
+  const band = {
+    band_level: opts.band_level ?? d.band_level.value,
+    analyser_sd_mmhg: opts.analyser_sd_mmhg ?? d.analyser_sd_mmhg.value,
+    drift_prior_mmhg2_per_h: opts.drift_prior_mmhg2_per_h ?? d.drift_prior_mmhg2_per_h.value,
+  };
+  const settings = gasSettings({ opts, analysis, shuntSettings, weight, windowS, gradientChangeMmhg, band });
+  const estimates = estimatePaco2(breaths, rows, { ...band, summary_breaths: analysis.summary_breaths });
   return { rows, estimates, settings, warnings };
 }

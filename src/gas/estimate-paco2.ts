@@ -1,55 +1,90 @@
 import { usableForSummary, type SummaryBreaths } from '../analyse/quality';
+import { median, normalQuantile } from '../numeric/stats';
 import type { BreathRow } from '../types';
 import { GAS_DEFAULTS } from './gas-defaults';
 import type { GasRow, Paco2Estimate } from './gas-types';
 
+/** Options of the band (defaults in GAS_DEFAULTS). */
+export interface EstimateOptions {
+  band_level?: number;
+  analyser_sd_mmhg?: number;
+  drift_prior_mmhg2_per_h?: number;
+  summary_breaths?: SummaryBreaths;
+}
+
 /**
- * PaCO2 between blood gases: for each breath usable for a summary (usableForSummary) with a finite PETCO2 that starts at or after the first
- * gas sample with a gradient, estimated PaCO2 = PETCO2 + the most recent gradient (the last gas row with
- * time_s <= the breath's t_start_s and a finite gradient_mmhg).
+ * PaCO2 between blood gases: for each breath usable for a summary (usableForSummary) with a finite PETCO2 that starts
+ * at or after the first gas sample with a gradient, estimated PaCO2 = PETCO2 + the most recent gradient (the last gas
+ * row with time_s <= the breath's t_start_s and a finite gradient_mmhg).
  *
- * Band: PETCO2 + [min, max] of all gradients observed up to that breath ('observed_range'). While only one gradient
- * is known the band is estimate +/- single_gas_spread_mmhg ('single_gas_spread'; default 5 mmHg, our choice, no
- * source). The estimate assumes the gradient stays as last measured; a new gas can show otherwise.
+ * Band: a prediction interval, estimate ± z SD with z the normal quantile of (1 + band_level)/2 and
+ *   SD² = sa² + sp² + sd² × (t − t_gas)
+ * sa: the analyser's PCO2 SD (GAS_DEFAULTS.analyser_sd_mmhg); sp: the breath-to-breath SD of PETCO2 (1.4826 × median
+ * absolute successive difference / √2 over the usable breaths); sd²: the gradient's drift per second, pooled over the pairs of
+ * successive gases so far with one hour of the prior drift as a pseudo-observation,
+ *   sd² = (prior × 1 h + Σ (ΔG² − 2 sa²)) / (1 h + Σ Δt), not below 0
+ * (a random walk of the gradient seen through analyser error: E[ΔG²] = sd² Δt + 2 sa²). Model derived here; the
+ * analyser SD and the normal quantile are cited in GAS_DEFAULTS and normalQuantile.
  */
-export function estimatePaco2(
-  breaths: readonly BreathRow[],
-  gasRows: readonly GasRow[],
-  opts: { single_gas_spread_mmhg?: number; summary_breaths?: SummaryBreaths } = {},
-): Paco2Estimate[] {
-  const spread = opts.single_gas_spread_mmhg ?? GAS_DEFAULTS.single_gas_spread_mmhg.value;
+export function estimatePaco2(breaths: readonly BreathRow[], gasRows: readonly GasRow[], opts: EstimateOptions = {}): Paco2Estimate[] {
+  const d = GAS_DEFAULTS;
+  const level = opts.band_level ?? d.band_level.value;
+  const sa = opts.analyser_sd_mmhg ?? d.analyser_sd_mmhg.value;
+  const prior = (opts.drift_prior_mmhg2_per_h ?? d.drift_prior_mmhg2_per_h.value) / 3600;
+  const z = normalQuantile((1 + level) / 2);
   const known = gasRows
     .filter((g) => Number.isFinite(g.gradient_mmhg))
     .sort((a, b) => a.time_s - b.time_s || a.sample - b.sample);
   const out: Paco2Estimate[] = [];
   if (known.length === 0) return out;
-
-  for (const b of breaths) {
-    if (!usableForSummary(b, opts) || !Number.isFinite(b.petco2_mmhg)) continue;
+  const used = breaths.filter((b) => usableForSummary(b, opts) && Number.isFinite(b.petco2_mmhg));
+  const sp = petco2NoiseSd(used);
+  const drift = driftPerSecond(known, sa, prior);
+  for (const b of used) {
     let n = 0;
-    let lo = Infinity;
-    let hi = -Infinity;
-    while (n < known.length && known[n]!.time_s <= b.t_start_s) {
-      lo = Math.min(lo, known[n]!.gradient_mmhg);
-      hi = Math.max(hi, known[n]!.gradient_mmhg);
-      n++;
-    }
+    while (n < known.length && known[n]!.time_s <= b.t_start_s) n++;
     if (n === 0) continue;
     const gas = known[n - 1]!;
     const estimate = b.petco2_mmhg + gas.gradient_mmhg;
-    const single = n === 1;
+    const sd = Math.sqrt(sa * sa + sp * sp + drift[n - 1]! * Math.max(0, b.t_start_s - gas.time_s));
     out.push({
       breath: b.breath,
       t_start_s: b.t_start_s,
       petco2_mmhg: b.petco2_mmhg,
       paco2_est_mmhg: estimate,
-      band_low_mmhg: single ? estimate - spread : b.petco2_mmhg + lo,
-      band_high_mmhg: single ? estimate + spread : b.petco2_mmhg + hi,
+      band_low_mmhg: estimate - z * sd,
+      band_high_mmhg: estimate + z * sd,
       gradient_mmhg: gas.gradient_mmhg,
       gas_sample: gas.sample,
       gases_in_band: n,
-      band_method: single ? 'single_gas_spread' : 'observed_range',
+      estimate_sd_mmhg: sd,
+      band_method: 'prediction',
     });
+  }
+  return out;
+}
+
+/**
+ * Breath-to-breath SD of PETCO2: 1.4826 × the median absolute successive difference / √2 (0 with fewer than 3 breaths).
+ * For independent normal noise of SD s a difference has SD s√2 and a median absolute value 0.6745 s√2 (derived here).
+ */
+function petco2NoiseSd(used: readonly BreathRow[]): number {
+  if (used.length < 3) return 0;
+  const diffs: number[] = [];
+  for (let i = 1; i < used.length; i++) diffs.push(Math.abs(used[i]!.petco2_mmhg - used[i - 1]!.petco2_mmhg));
+  return (1.4826 * median(diffs)) / Math.SQRT2;
+}
+
+/** Drift of the gradient per second known after each gas (index k: gases 0..k), pooled with the prior. */
+function driftPerSecond(known: readonly GasRow[], sa: number, prior: number): number[] {
+  const out: number[] = [prior];
+  let sumSq = 0;
+  let sumDt = 0;
+  for (let k = 1; k < known.length; k++) {
+    const dg = known[k]!.gradient_mmhg - known[k - 1]!.gradient_mmhg;
+    sumSq += dg * dg - 2 * sa * sa;
+    sumDt += Math.max(0, known[k]!.time_s - known[k - 1]!.time_s);
+    out.push(Math.max(0, (prior * 3600 + sumSq) / (3600 + sumDt)));
   }
   return out;
 }

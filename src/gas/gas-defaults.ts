@@ -35,8 +35,14 @@ export const GAS_DEFAULTS = {
     source: 'derived here: (52 - 48) mL/dL / (46 - 40) mmHg, typical arterial and mixed venous CO2 contents (common practice, no source)',
   },
   gradient_change_mmhg: { value: 5, source: 'our choice, no source' },
-  single_gas_spread_mmhg: {
-    value: 5,
-    source: 'our choice, no source: equal to the default gradient-change threshold',
+  band_level: { value: 0.8, source: 'our choice, no source: the share of breaths whose true PaCO2 the band is meant to hold' },
+  analyser_sd_mmhg: {
+    value: 1.02,
+    source:
+      'Kampelmacher MJ, van Kesteren RG, Winckers EK 1997, Eur Respir J 10:1341-1344: SD of a random PCO2 measurement on a random blood-gas analyser',
+  },
+  drift_prior_mmhg2_per_h: {
+    value: 4,
+    source: 'our choice, no source: the gradient drifts by about 2 mmHg (SD) per hour until the gases show their own drift',
   },
 } as const;

@@ -60,8 +60,12 @@ export interface GasOptions {
   co2_slope_k?: number;
   /** flag a gradient change larger than this between consecutive samples, mmHg (default 5) */
   gradient_change_mmhg?: number;
-  /** half-width of the PaCO2 estimate band while only one gas is known, mmHg (default 5) */
-  single_gas_spread_mmhg?: number;
+  /** share of breaths the PaCO2 band is meant to hold (default 0.8) */
+  band_level?: number;
+  /** SD of a blood-gas analyser's PCO2, mmHg (default 1.02) */
+  analyser_sd_mmhg?: number;
+  /** drift of the gradient assumed before two gases show their own, mmHg^2 per hour (default 4) */
+  drift_prior_mmhg2_per_h?: number;
 }
 
 /** Settings of the breath analysis that the gas step follows, so that its dead spaces match the breaths' own. */
@@ -146,7 +150,9 @@ export interface Paco2Estimate {
   gas_sample: number;
   /** gradients observed so far (samples at or before this breath) */
   gases_in_band: number;
-  band_method: 'observed_range' | 'single_gas_spread';
+  /** SD of the estimate's error, mmHg: analyser, breath-to-breath PETCO2 and the gradient's drift since the gas */
+  estimate_sd_mmhg: number;
+  band_method: 'prediction';
 }
 
 export interface GasResult {

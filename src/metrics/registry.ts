@@ -282,12 +282,13 @@ export const PACO2_ESTIMATE_METRICS = [
   n('t_start_s', 'Inspiration start', 's', 2, false, 'inspiration start of the breath', DERIVED),
   n('petco2_mmhg', 'PETCO2', 'mmHg', 1, false, "the breath's PETCO2", NO_SOURCE),
   n('paco2_est_mmhg', 'PaCO2 estimate', 'mmHg', 1, false, 'PETCO2 + the gradient of the most recent gas sample', NO_SOURCE),
-  n('band_low_mmhg', 'Estimate band low', 'mmHg', 1, false, 'PETCO2 + the smallest gradient observed so far (one gas: estimate − 5 mmHg)', DERIVED),
-  n('band_high_mmhg', 'Estimate band high', 'mmHg', 1, false, 'PETCO2 + the largest gradient observed so far (one gas: estimate + 5 mmHg)', DERIVED),
+  n('band_low_mmhg', 'Estimate band low', 'mmHg', 1, false, 'estimate − z × `estimate_sd_mmhg`, z for the band level (default 80 %)', DERIVED),
+  n('band_high_mmhg', 'Estimate band high', 'mmHg', 1, false, 'estimate + z × `estimate_sd_mmhg`', DERIVED),
   n('gradient_mmhg', 'Gradient used', 'mmHg', 1, false, 'gradient added to PETCO2 (from the gas sample used)', NO_SOURCE),
   n('gas_sample', 'Gas sample', '', 0, false, 'sample number of the gas used', DERIVED),
-  n('gases_in_band', 'Gases in band', '', 0, false, 'gas samples at or before this breath whose gradients make the band', DERIVED),
-  txt('band_method', 'Band method', '`observed_range` or `single_gas_spread`', DERIVED),
+  n('gases_in_band', 'Gases in band', '', 0, false, 'gas samples at or before this breath (their successive gradients give the drift)', DERIVED),
+  n('estimate_sd_mmhg', 'Estimate SD', 'mmHg', 2, false, 'SD of the estimate: √(analyser SD² + breath-to-breath PETCO2 SD² + drift × time since the gas)', DERIVED),
+  txt('band_method', 'Band method', '`prediction` (src/gas/estimate-paco2.ts)', DERIVED),
 ] as const satisfies readonly Entry<Paco2Estimate>[];
 
 /** A type check only: a field of GasRow or Paco2Estimate without its registry entry makes this a type error. */

@@ -1,4 +1,5 @@
 // Small robust statistics used throughout the analysis. NaN values are skipped (d3 convention).
+import { detLog } from './det-math';
 
 /** working copy for quantile (grown as needed, reused: the analysis takes ~10^5 quantiles per day of recording) */
 let work = new Float64Array(64);
@@ -146,4 +147,16 @@ export function countFinite(x: ArrayLike<number>): number {
   let n = 0;
   for (let i = 0; i < x.length; i++) if (!Number.isNaN(x[i]!)) n++;
   return n;
+}
+
+/**
+ * Standard normal quantile z with P(Z <= z) = p, 0 < p < 1, by the rational approximation of Abramowitz M, Stegun IA
+ * 1964, Handbook of Mathematical Functions, formula 26.2.23 (|error| < 4.5e-4).
+ */
+export function normalQuantile(p: number): number {
+  if (!(p > 0 && p < 1)) return NaN;
+  const q = p < 0.5 ? p : 1 - p;
+  const t = Math.sqrt(-2 * detLog(q));
+  const z = t - (2.515517 + 0.802853 * t + 0.010328 * t * t) / (1 + 1.432788 * t + 0.189269 * t * t + 0.001308 * t * t * t);
+  return p < 0.5 ? -z : z;
 }

@@ -1,4 +1,4 @@
-// PaCO2 between blood gases: PETCO2 + most recent gradient, with a band from the observed gradients.
+// PaCO2 between blood gases: PETCO2 + most recent gradient, with a prediction band.
 import { describe, expect, it } from 'vitest';
 import { analyseGas, estimatePaco2 } from '../../src/gas/index';
 import { expectClose } from '../helpers/expect-close';
@@ -34,40 +34,51 @@ describe('estimatePaco2', () => {
     expect(result.estimates).toHaveLength(200 - 20 - 2);
   });
 
-  it('single gas: PETCO2 + 5 with a stated default band of +/- 5 mmHg', () => {
-    const e = byBreath.get(21)!; // t = 100, PETCO2 34
-    expect(e).toMatchObject({ t_start_s: 100, petco2_mmhg: 34, gas_sample: 1, gases_in_band: 1, band_method: 'single_gas_spread' });
+  // Band (derived here, the model in src/gas/estimate-paco2.ts): estimate ± z SD, z = 1.281552 for 80 % (standard
+  // normal table, Abramowitz & Stegun 1964 Table 26.1), SD² = 1.02² (analyser; Kampelmacher et al. 1997) + sp² +
+  // drift × (t − t_gas). PETCO2 alternates 34/36: successive differences ±2, median absolute difference 2, sp = 1.4826 × 2 / √2.
+  const z80 = 1.281552;
+  const sp = (1.4826 * 2) / Math.SQRT2;
+  const prior = 4 / 3600;
+
+  it('single gas: PETCO2 + 5, band from analyser and PETCO2 noise plus the prior drift', () => {
+    const e = byBreath.get(21)!; // t = 100, PETCO2 34, gas at 100 s
+    expect(e).toMatchObject({ t_start_s: 100, petco2_mmhg: 34, gas_sample: 1, gases_in_band: 1, band_method: 'prediction' });
+    const sd = Math.sqrt(1.02 ** 2 + sp ** 2);
     expectClose(e.paco2_est_mmhg, 39);
-    expectClose(e.band_low_mmhg, 34);
-    expectClose(e.band_high_mmhg, 44);
+    expectClose(e.estimate_sd_mmhg, sd, { abs: 1e-9 });
+    expectClose(e.band_low_mmhg, 39 - z80 * sd, { abs: 2e-3 });
+    expectClose(e.band_high_mmhg, 39 + z80 * sd, { abs: 2e-3 });
+    const later = byBreath.get(80)!; // t = 395, still gas 1: 295 s of prior drift
+    expectClose(later.estimate_sd_mmhg, Math.sqrt(1.02 ** 2 + sp ** 2 + prior * 295), { abs: 1e-9 });
   });
 
-  it('two gases: most recent gradient 8, band from the observed range 5..8', () => {
+  it('two gases: most recent gradient 8; drift pooled from the change 5 -> 8 over 300 s with one hour of prior', () => {
     const e = byBreath.get(82)!; // t = 405, PETCO2 36
-    expect(e).toMatchObject({ t_start_s: 405, gas_sample: 2, gases_in_band: 2, band_method: 'observed_range' });
+    expect(e).toMatchObject({ t_start_s: 405, gas_sample: 2, gases_in_band: 2, band_method: 'prediction' });
+    const drift = (prior * 3600 + (3 ** 2 - 2 * 1.02 ** 2)) / (3600 + 300);
     expectClose(e.paco2_est_mmhg, 44);
-    expectClose(e.band_low_mmhg, 41);
-    expectClose(e.band_high_mmhg, 44);
+    expectClose(e.estimate_sd_mmhg, Math.sqrt(1.02 ** 2 + sp ** 2 + drift * 5), { abs: 1e-9 });
   });
 
-  it('three gases: gradient 15, band 5..15', () => {
+  it('three gases: gradient 15; a larger band level widens the band by the ratio of the quantiles', () => {
     const e = byBreath.get(200)!; // t = 995, PETCO2 36
     expect(e.gas_sample).toBe(3);
     expectClose(e.paco2_est_mmhg, 51);
-    expectClose(e.band_low_mmhg, 41);
-    expectClose(e.band_high_mmhg, 51);
+    const wide = analyseGas(BREATHS, SAMPLES, { pb_mmhg: 760, band_level: 0.95 }).estimates.find((x) => x.breath === 200)!;
+    expectClose((wide.band_high_mmhg - wide.paco2_est_mmhg) / (e.band_high_mmhg - e.paco2_est_mmhg), 1.959964 / z80, { abs: 1e-3 });
   });
 
-  it('the single-gas spread is a setting; gas rows without a gradient are not used', () => {
+  it('gas rows without a gradient are not used; the analyser SD is a setting', () => {
     const rows = analyseGas(BREATHS, [makeSample({ time_s: 100, paco2_mmhg: 40 }), makeSample({ time_s: 9000, paco2_mmhg: 60 })], {
       pb_mmhg: 760,
     }).rows;
-    const est = estimatePaco2([makeBreath({ breath: 1, t_start_s: 9500, petco2_mmhg: 30 })], rows, { single_gas_spread_mmhg: 3 });
+    const est = estimatePaco2([makeBreath({ breath: 1, t_start_s: 9500, petco2_mmhg: 30 })], rows, { analyser_sd_mmhg: 2 });
     expect(est).toHaveLength(1);
-    expect(est[0]).toMatchObject({ gas_sample: 1, band_method: 'single_gas_spread', gases_in_band: 1 });
+    expect(est[0]).toMatchObject({ gas_sample: 1, band_method: 'prediction', gases_in_band: 1 });
     expectClose(est[0]!.paco2_est_mmhg, 35);
-    expectClose(est[0]!.band_low_mmhg, 32);
-    expectClose(est[0]!.band_high_mmhg, 38);
+    // one breath: no PETCO2 noise estimate (sp 0); 9400 s of prior drift
+    expectClose(est[0]!.estimate_sd_mmhg, Math.sqrt(4 + prior * 9400), { abs: 1e-9 });
   });
 
   it('no gas with a gradient: no estimates', () => {
