@@ -122,3 +122,16 @@ describe('a missing start time is an error naming --start', () => {
     expect(() => parseGasCsv(text, 'bg.csv', { start: '25:00' })).toThrow(/^bg\.csv: --start '25:00' is not a clock time/);
   });
 });
+
+describe('date-time clocks', () => {
+  it('a recording stamped with zoned ISO date-times: gas instants are subtracted from its first stamp', () => {
+    // tests/fixtures/ingest/iso-time.csv starts at 2024-03-05T10:15:30.00+01:00 = 09:15:30 UTC
+    const path = fileURLToPath(new URL('../fixtures/ingest/iso-time.csv', import.meta.url));
+    const s = defaultSettings();
+    const { report } = readRecordingText(readFileSync(path, 'utf8'), s.ingest, s.analysis.min_rate_hz, 'iso.csv');
+    expect(report.clock_start?.text).toBe('2024-03-05T09:15:30.000');
+    const text = 'clock,paco2_mmhg\n2024-03-05T10:16:30+01:00,40\n2024-03-05T09:15:00Z,41\n';
+    // 09:16:30 UTC - 09:15:30 UTC = 60 s; 09:15:00 - 09:15:30 = -30 s (derived here)
+    expect(times(text, { recording: { clock_start: report.clock_start ?? null, duration_s: 10 } })).toEqual([-30, 60]);
+  });
+});
