@@ -95,6 +95,10 @@ export {
 // Blood gases: arterial samples against the breaths around them
 export {
   parseGasCsv,
+  readGasCsv,
+  placeGasTimes,
+  isBeforeRecording,
+  samplesInRecording,
   analyseGas,
   estimatePaco2,
   applyArterialPco2,
@@ -104,6 +108,8 @@ export {
   PACO2_ESTIMATE_COLUMNS,
   type GasSample,
   type GasParseResult,
+  type GasTable,
+  type GasClockOptions,
   type GasOptions,
   type GasRow,
   type GasResult,

@@ -1,7 +1,7 @@
 // The command line as users meet it: every failure is one line on stderr with the documented exit code,
 // never a stack trace; a good run exits 0 and writes its files. Runs the built CLI (npm test builds it first).
 import { spawnSync } from 'node:child_process';
-import { existsSync, mkdtempSync, writeFileSync } from 'node:fs';
+import { existsSync, mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
@@ -58,6 +58,30 @@ describe.skipIf(!existsSync(cli))('phasewise command line', () => {
   it('bad gas file: exit 3, one line naming it', () => {
     writeFileSync(join(dir, 'gas.csv'), 'when,paco2\n1,40\n');
     expectOneLineFailure(run('analyse', sample, '--out', join(dir, 'x'), '--gas', join(dir, 'gas.csv')), 3, 'gas.csv');
+  });
+
+  it('gas clock times without --start on a recording without a clock: exit 3, the message names --start HH:MM:SS', () => {
+    writeFileSync(join(dir, 'gas-clock.csv'), 'clock,paco2_mmhg\n09:31:00,40\n');
+    expectOneLineFailure(run('analyse', sample, '--out', join(dir, 'x'), '--gas', join(dir, 'gas-clock.csv')), 3, '--start HH:MM:SS');
+  });
+
+  it("gas clock times on a clock-stamped recording need no --start; a gas before its first stamp is reported as such", () => {
+    // adult-spontaneous-messy.csv: first stamp 09:30:00.000 (its first data line), 3 min long
+    const messy = fileURLToPath(new URL('../sample-waveforms/adult-spontaneous-messy.csv', import.meta.url));
+    writeFileSync(join(dir, 'gas-messy.csv'), 'clock,paco2_mmhg\n09:31:00,40\n09:29:30,41\n');
+    const out = join(dir, 'messy-gas');
+    const r = run('analyse', messy, '--out', out, '--gas', join(dir, 'gas-messy.csv'));
+    expect(r.status, r.stderr).toBe(0);
+    const lines = readFileSync(join(out, 'gas.csv'), 'utf8').trim().split('\n');
+    const head = lines[0]!.split(',');
+    const cell = (line: string, name: string) => line.split(',')[head.indexOf(name)];
+    // 09:29:30 - 09:30:00 = -30 s; 09:31:00 - 09:30:00 = 60 s (derived here)
+    expect(lines.slice(1).map((l) => cell(l, 'time_s'))).toEqual(['-30', '60']);
+    expect(lines[1]).toContain('before the recording');
+    expect(r.stdout).toMatch(/gas note: gas sample 1 \(line 3, clock 09:29:30, t = -30\.0 s\): before the recording/);
+    const summary = JSON.parse(readFileSync(join(out, 'summary.json'), 'utf8'));
+    expect(summary.gas.clock).toEqual({ start: '09:30:00.000', source: 'recording' });
+    expect(summary.gas.rows[0].notes).toMatch(/^before the recording/);
   });
 
   it('unknown scenario for simulate: exit 2 with the valid names', () => {

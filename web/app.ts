@@ -99,7 +99,9 @@ function onWorker(m: FromWorker): void {
       return;
     case 'gas':
       state.gasParsed = m.result;
-      state.gasInput = { file: m.file, samples: m.result.samples, rejected: m.result.rejected, options: gasOptionsFromForm() };
+      state.gasInput = {
+        file: m.file, samples: m.result.samples, rejected: m.result.rejected, warnings: m.result.warnings, clock: m.result.clock, options: gasOptionsFromForm(),
+      };
       gasChanged = true;
       recompose();
       renderBreath();

@@ -5,7 +5,7 @@
 // The PaCO2 drawn for a breath is the one its per-breath Enghoff values use: the analysis setting paco2_mmhg when
 // given, else the most recent gas sample at or before the breath's start (src/gas/apply-paco2.ts), else none.
 
-import { gasMetric, type GasParseResult, type GasResult, type GasSample, type NumericGasKey, type Settings, type BreathRow } from '../src/index';
+import { gasMetric, samplesInRecording, type GasParseResult, type GasResult, type GasSample, type NumericGasKey, type Settings, type BreathRow } from '../src/index';
 import { h } from './dom';
 import { fixed } from './metrics-table';
 import { clockLabel } from './overview-chart';
@@ -15,7 +15,7 @@ export function paco2ForBreath(
 ): { mmhg: number; source: string } | null {
   if (settings.analysis.paco2_mmhg !== null) return { mmhg: settings.analysis.paco2_mmhg, source: 'setting paco2_mmhg' };
   let best: GasSample | null = null;
-  for (const s of samples) if (s.time_s <= row.t_start_s && (!best || s.time_s >= best.time_s)) best = s;
+  for (const s of samplesInRecording(samples)) if (s.time_s <= row.t_start_s && (!best || s.time_s >= best.time_s)) best = s;
   if (!best || !Number.isFinite(best.paco2_mmhg)) return null;
   return { mmhg: best.paco2_mmhg, source: `gas sample of ${clockLabel(best.time_s, 1e9)}, line ${best.line}` };
 }

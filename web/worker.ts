@@ -161,7 +161,9 @@ self.onmessage = async (ev: MessageEvent<ToWorker>) => {
       post({ type: 'window', id: m.id, data });
     } else if (m.type === 'gas') {
       const text = await m.file.text();
-      const result = parseGasCsv(text, m.file.name, m.start ? { start: m.start } : {});
+      // clock times go on the analysed recording's own clock when it has one, else on the 'recording start' field
+      const recording = last ? { clock_start: last.report.clock_start ?? null, duration_s: last.core.duration_s } : { clock_start: null };
+      const result = parseGasCsv(text, m.file.name, { ...(m.start ? { start: m.start } : {}), recording, start_option: "the 'recording start' field" });
       post({ type: 'gas', result, file: m.file.name });
     }
   } catch (e) {

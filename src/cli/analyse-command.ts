@@ -8,8 +8,8 @@ import { formatNumber } from '../report/format';
 import { composeOutputs, outputFile, outputNames } from '../report/outputs';
 import { formatSummaryText } from '../report/summary';
 import { formatEventLine } from '../trends/index';
-import type { GasResult } from '../gas/index';
-import { addGasOptions, gasOptionsFrom, readGasFile } from './gas-step';
+import { isBeforeRecording, type GasResult } from '../gas/index';
+import { addGasOptions, gasOptionsFrom, placeGasFile, readGasFile } from './gas-step';
 import { join, resolve } from 'node:path';
 import { recordingId } from '../batch/expand-inputs';
 import { settingsForRecording, settingsPlan } from '../batch/file-settings';
@@ -33,7 +33,7 @@ export function registerAnalyse(program: Command): void {
     const gas = readGasFile(opts); // read first: a bad gas file fails before the long analysis
     const result = await analyseFile(file, settings, { read: 'thread' });
     const out = String(opts.out);
-    const gasInput = gas ? { file: String(opts.gas), ...gas } : null;
+    const gasInput = gas ? placeGasFile(gas, opts, result.report, result.core.duration_s) : null;
     const o = composeOutputs(result.core, result.report, settings, given, new Map(), gasInput, gasOptionsFrom(opts, settings));
     const written: string[] = [];
     for (const name of outputNames(o)) {
@@ -73,7 +73,8 @@ function formatGasText(g: GasResult): string {
   lines.push(`${GAS_TERMINAL_COLUMNS.map(([, head, width]) => head.padStart(width)).join('')}  n`);
   for (const r of g.rows) {
     const cells = GAS_TERMINAL_COLUMNS.map(([key, , width]) => f(r[key], gasMetric(key).decimals).padStart(width)).join('');
-    lines.push(`${cells}  ${r.breaths_used}${r.gradient_changed ? '  gradient changed' : ''}`);
+    const mark = isBeforeRecording(r) ? '  before the recording' : r.gradient_changed ? '  gradient changed' : '';
+    lines.push(`${cells}  ${r.breaths_used}${mark}`);
   }
   for (const w of g.warnings) lines.push(`gas note: ${w}`);
   return lines.join('\n');

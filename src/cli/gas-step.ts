@@ -2,7 +2,9 @@
 import { existsSync, readFileSync } from 'node:fs';
 import type { Command } from 'commander';
 import { InvalidArgumentError, Option } from 'commander';
-import { parseGasCsv, type GasOptions, type GasSample } from '../gas/index';
+import { placeGasTimes, readGasCsv, type GasOptions, type GasTable } from '../gas/index';
+import type { IngestReport } from '../ingest/index';
+import type { GasInput } from '../report/outputs';
 import { EXIT_CODES } from '../ingest/errors';
 import type { Settings } from '../settings';
 import { CliError } from './errors';
@@ -18,7 +20,7 @@ function positive(name: string) {
 export function addGasOptions(cmd: Command): Command {
   return cmd
     .option('--gas <file>', 'blood gas samples (CSV: time_s or clock, paco2_mmhg, optional pao2_mmhg, sao2_pct, svo2_pct, pvco2_mmhg, hb_g_dl, fio2_pct, temp_c)')
-    .option('--start <clock>', 'recording start as a clock time, for a gas file with a clock column (e.g. 2026-03-04T10:15:00 or 10:15:00)')
+    .option('--start <clock>', "recording start as a clock time, for a gas file with a clock column when the recording's time column holds no clock stamps (e.g. 2026-03-04T10:15:00 or 10:15:00)")
     .option('--weight <kg>', 'body weight, kg (per-kg dead spaces)', positive('--weight'))
     .option('--height <cm>', 'height, cm (adults: predicted body weight with --sex)', positive('--height'))
     .addOption(new Option('--sex <sex>', 'sex for predicted body weight').choices(['male', 'female']))
@@ -26,14 +28,26 @@ export function addGasOptions(cmd: Command): Command {
     .option('--cardiac-output <l_min>', 'cardiac output, L/min (venous PCO2 by the Fick route when not measured)', positive('--cardiac-output'));
 }
 
-/** Reads the gas file (one-line errors, exit code 3 for unusable files). */
-export function readGasFile(opts: Record<string, unknown>): { samples: GasSample[]; rejected: { line: number; reason: string }[] } | null {
+/** Reads the gas file before the analysis (one-line errors, exit code 3 for unusable files); clock times are placed
+ *  on the recording afterwards (placeGasFile). */
+export function readGasFile(opts: Record<string, unknown>): GasTable | null {
   if (typeof opts.gas !== 'string') return null;
   const path = opts.gas;
   if (!existsSync(path)) throw new CliError(`${path}: gas file not found. Check the path given to --gas.`, EXIT_CODES.input);
   try {
-    const parsed = parseGasCsv(readFileSync(path, 'utf8'), path, typeof opts.start === 'string' ? { start: opts.start } : {});
-    return { samples: parsed.samples, rejected: parsed.rejected };
+    return readGasCsv(readFileSync(path, 'utf8'), path);
+  } catch (e) {
+    throw new CliError((e as Error).message, EXIT_CODES.input);
+  }
+}
+
+/** Places the gas file's times on the analysed recording: its own clock, or --start (exit code 3 when neither). */
+export function placeGasFile(table: GasTable, opts: Record<string, unknown>, report: IngestReport, durationS: number): GasInput {
+  const path = String(opts.gas);
+  try {
+    const start = typeof opts.start === 'string' ? { start: opts.start } : {};
+    const placed = placeGasTimes(table, path, { ...start, recording: { clock_start: report.clock_start ?? null, duration_s: durationS } });
+    return { file: path, samples: placed.samples, rejected: placed.rejected, warnings: placed.warnings, clock: placed.clock };
   } catch (e) {
     throw new CliError((e as Error).message, EXIT_CODES.input);
   }

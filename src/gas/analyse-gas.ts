@@ -3,6 +3,7 @@ import { avdsf } from '../physiology/avdsf';
 import { enghoffDeadSpaceFraction } from '../physiology/enghoff-dead-space-fraction';
 import { patientDeadSpace } from '../physiology/patient-dead-space';
 import type { BreathRow } from '../types';
+import { isBeforeRecording } from './before-recording';
 import { estimatePaco2 } from './estimate-paco2';
 import { GAS_DEFAULTS } from './gas-defaults';
 import type { GasAnalysisSettings, GasOptions, GasResult, GasRow, GasSample } from './gas-types';
@@ -176,9 +177,29 @@ function gasRow(r: RowParts): GasRow {
   };
 }
 
+/** No shunt estimate (a sample that is not analysed). */
+const NO_SHUNT: ShuntPart = {
+  pao2_alv_mmhg: NaN, shunt_fraction: NaN, shunt_method: '', pvco2_mmhg: NaN, pvco2_source: '', gradient_shunt_mmhg: NaN, missing: [], notes: [],
+};
+
+/**
+ * The row of a sample drawn before the recording (time_s < 0): listed with its own values and a note, not matched
+ * with breaths (there are none before it), so every derived value is empty and it starts no gradient comparison.
+ */
+function beforeRecordingRow(sample: GasSample, number: number, label: string, tally: SampleTally): GasRow {
+  const ago = `drawn ${fmt(-sample.time_s)} s before its start`;
+  tally.warnings.push(`${label}: before the recording (${ago}); not matched with breaths and not used for per-breath Enghoff values, PaCO2 estimates or events`);
+  const med = Object.fromEntries(BREATH_FIELDS.map((f) => [f, NaN])) as BreathMedians;
+  const dead: SampleDeadSpace = { gradient: NaN, enghoff: NaN, vdPhys: NaN, vdAlv: NaN };
+  const notes = [`before the recording: ${ago}; not matched with breaths`];
+  return gasRow({ number, sample, used: [], med, dead, weightKg: NaN, shunt: NO_SHUNT, change: { change: NaN, changed: false }, missing: [], notes });
+}
+
 /** Analyses one blood-gas sample (number is 1-based, in time order): its row, with warnings added to the tally. */
 function analyseSample(sample: GasSample, number: number, ctx: SampleContext, tally: SampleTally): GasRow {
-  const label = `gas sample ${number} (line ${sample.line}, t = ${fmt(sample.time_s)} s)`;
+  const clock = sample.clock === undefined ? '' : `clock ${sample.clock}, `;
+  const label = `gas sample ${number} (line ${sample.line}, ${clock}t = ${fmt(sample.time_s)} s)`;
+  if (isBeforeRecording(sample)) return beforeRecordingRow(sample, number, label, tally);
   const used = selectWindowBreaths(ctx.breaths, sample.time_s, ctx.windowS, ctx.analysis.summary_breaths);
   const med = windowMedians(used);
   const missing: string[] = [];

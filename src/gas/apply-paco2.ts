@@ -1,14 +1,15 @@
 // Per-breath Enghoff dead space from blood gases: each breath uses the arterial PCO2 of the most recent sample drawn
-// at or before the breath's start (none before the first sample). Same functions as the analysis with --paco2:
+// at or before the breath's start (none before the first sample; a sample drawn before the recording is not used). Same functions as the analysis with --paco2:
 // enghoffDeadSpaceFraction with the breath's inspired PCO2 when bohr_inspired_term is on, and patientDeadSpace to
 // remove the apparatus volume.
 import { enghoffDeadSpaceFraction } from '../physiology/enghoff-dead-space-fraction';
 import { patientDeadSpace } from '../physiology/patient-dead-space';
 import type { BreathRow } from '../types';
+import { samplesInRecording } from './before-recording';
 import type { GasSample } from './gas-types';
 
 export function applyArterialPco2(rows: BreathRow[], samples: readonly GasSample[], inspiredTerm: boolean, apparatusMl: number): void {
-  const sorted = [...samples].sort((a, b) => a.time_s - b.time_s);
+  const sorted = samplesInRecording(samples).sort((a, b) => a.time_s - b.time_s);
   let k = -1;
   for (const r of rows) {
     while (k + 1 < sorted.length && sorted[k + 1]!.time_s <= r.t_start_s) k++;

@@ -1,4 +1,5 @@
 import type { SummaryBreaths } from '../analyse/quality';
+import type { ClockTime } from './parse-clock';
 // Data shapes of the blood-gas analysis. Units in every field name; NaN = not given / not computable.
 import type { Sex } from '../physiology/predicted-body-weight';
 
@@ -6,8 +7,11 @@ import type { Sex } from '../physiology/predicted-body-weight';
 export interface GasSample {
   /** 1-based line number in the gas file (for messages) */
   line: number;
-  /** seconds from recording start (from time_s, or clock minus the recording start) */
+  /** seconds from recording start (from time_s, or the clock time placed on the recording); negative = drawn before
+   *  the recording */
   time_s: number;
+  /** the clock cell as written, for a file with a clock column */
+  clock?: string;
   paco2_mmhg: number;
   pao2_mmhg: number;
   /** arterial O2 saturation, % (0-100) */
@@ -24,11 +28,35 @@ export interface GasSample {
   temp_c: number;
 }
 
-export interface GasParseResult {
+/** A gas file read but not yet placed on the recording (readGasCsv): clock rows have time_s NaN. */
+export interface GasTable {
+  time_column: 'time_s' | 'clock';
   samples: GasSample[];
   rejected: { line: number; reason: string }[];
   /** header names that are not gas columns and were ignored */
   ignoredColumns: string[];
+}
+
+/** What gas clock times are measured from (placeGasTimes). */
+export interface GasClockOptions {
+  /** the recording's start as the user gave it (the CLI's --start): HH:MM:SS or an ISO date-time */
+  start?: string;
+  /** the recording: its first clock stamp when its time column holds clock stamps, and its length, s */
+  recording?: { clock_start?: (ClockTime & { text?: string }) | null; duration_s?: number };
+  /** how the user gives the start time, for messages (default '--start') */
+  start_option?: string;
+}
+
+export interface GasParseResult {
+  /** sorted by time */
+  samples: GasSample[];
+  rejected: { line: number; reason: string }[];
+  /** header names that are not gas columns and were ignored */
+  ignoredColumns: string[];
+  /** about the placement of clock times (a given start that differs from the recording's clock) */
+  warnings: string[];
+  /** for a clock column: the start the clock times are measured from and where it came from */
+  clock: { start: string; source: 'recording' | 'start option' } | null;
 }
 
 /** Options of analyseGas. Every value actually used is recorded in GasResult.settings. */

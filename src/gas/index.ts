@@ -2,6 +2,8 @@
 export type {
   GasSample,
   GasParseResult,
+  GasTable,
+  GasClockOptions,
   GasAnalysisSettings,
   GasOptions,
   GasRow,
@@ -10,7 +12,7 @@ export type {
   ShuntMethod,
   Pvco2Source,
 } from './gas-types';
-export { parseGasCsv, GAS_INPUT_COLUMNS } from './parse-gas-csv';
+export { parseGasCsv, readGasCsv, placeGasTimes, GAS_INPUT_COLUMNS } from './parse-gas-csv';
 export { parseClockTime, clockOffsetS, type ClockTime } from './parse-clock';
 export { selectWindowBreaths } from './select-window-breaths';
 export { chooseWeight, type WeightBasis, type WeightChoice } from './weight-basis';
@@ -21,3 +23,4 @@ export { GAS_DEFAULTS } from './gas-defaults';
 export { GAS_COLUMNS, PACO2_ESTIMATE_COLUMNS } from './gas-columns';
 export { median as finiteMedian } from '../numeric/stats';
 export { applyArterialPco2 } from './apply-paco2';
+export { isBeforeRecording, samplesInRecording } from './before-recording';

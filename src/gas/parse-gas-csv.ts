@@ -1,8 +1,9 @@
 import Papa from 'papaparse';
-import type { GasParseResult, GasSample } from './gas-types';
+import { formatClockStamp } from '../ingest/clock-time';
+import type { GasClockOptions, GasParseResult, GasSample, GasTable } from './gas-types';
 import { clockOffsetS, parseClockTime, type ClockTime } from './parse-clock';
 
-type NumericColumn = Exclude<keyof GasSample, 'line' | 'time_s'>;
+type NumericColumn = Exclude<keyof GasSample, 'line' | 'time_s' | 'clock'>;
 
 /**
  * Plausibility limits of each numeric gas column (inclusive). Our choice, no source: wide physiological limits meant
@@ -30,7 +31,11 @@ const OPTIONAL_COLUMNS: readonly NumericColumn[] = [
 /** All columns the gas file may have (time_s or clock, then the gas values). */
 export const GAS_INPUT_COLUMNS: readonly string[] = ['time_s', 'clock', 'paco2_mmhg', ...OPTIONAL_COLUMNS];
 
-const HOW = 'the blood-gas file needs a header with time_s (or clock plus the recording start time) and paco2_mmhg';
+const HOW = 'the blood-gas file needs a header with time_s (or clock) and paco2_mmhg';
+
+/** How far a given start time may be from the recording's own first stamp and still agree, s: the 1 s resolution of
+ *  HH:MM:SS (derived here). */
+const START_AGREEMENT_S = 1;
 
 class RowError extends Error {}
 
@@ -38,9 +43,8 @@ class RowError extends Error {}
 interface GasLayout {
   header: string[];
   columnIndex: Map<string, number>;
-  /** true: times from time_s; false: from clock, relative to start */
+  /** true: times from time_s; false: from clock (placed later, placeGasTimes) */
   useTime: boolean;
-  start: ClockTime | null;
   decimalComma: boolean;
 }
 
@@ -77,18 +81,6 @@ function checkRequiredColumns(header: string[], columnIndex: Map<string, number>
   }
 }
 
-/** The recording start time a clock column is measured from; throws when it is missing or not a clock time. */
-function recordingStart(start: string | undefined, fileName: string): ClockTime {
-  if (start === undefined || start.trim() === '') {
-    throw new Error(`${fileName}: column 'clock' needs the recording start time; give it (HH:MM:SS or ISO date-time) or use a time_s column`);
-  }
-  const parsed = parseClockTime(start);
-  if (parsed === null) {
-    throw new Error(`${fileName}: recording start time '${start}' is not a clock time; write HH:MM:SS or an ISO date-time`);
-  }
-  return parsed;
-}
-
 /** The trimmed text of a named column in a row ('' when the row is short). */
 function cellText(row: string[], layout: GasLayout, name: string): string {
   return (row[layout.columnIndex.get(name)!] ?? '').trim();
@@ -106,22 +98,16 @@ function cellNumber(row: string[], line: number, layout: GasLayout, name: string
   return value;
 }
 
-/** Seconds from the recording start of a row (time_s, or clock minus the start); throws a RowError when unusable. */
-function rowTimeS(row: string[], line: number, layout: GasLayout): number {
-  let time_s: number;
-  if (layout.useTime) {
-    time_s = cellNumber(row, line, layout, 'time_s', true);
-  } else {
-    const raw = cellText(row, layout, 'clock');
-    if (raw === '') throw new RowError(`line ${line}, column clock: empty; a clock time is required`);
-    const clock = parseClockTime(raw);
-    if (clock === null) throw new RowError(`line ${line}, column clock: '${raw}' is not a clock time (HH:MM:SS or ISO date-time)`);
-    time_s = clockOffsetS(clock, layout.start!);
-  }
-  if (time_s < 0) {
-    throw new RowError(`line ${line}, column ${layout.useTime ? 'time_s' : 'clock'}: sample lies before the recording start (${time_s} s)`);
-  }
-  return time_s;
+/**
+ * The time of a row: time_s (seconds from the recording start; negative = drawn before the recording), or the clock
+ * cell as written (time_s NaN until placeGasTimes). Throws a RowError when unusable.
+ */
+function rowTime(row: string[], line: number, layout: GasLayout): { time_s: number; clock?: string } {
+  if (layout.useTime) return { time_s: cellNumber(row, line, layout, 'time_s', true) };
+  const raw = cellText(row, layout, 'clock');
+  if (raw === '') throw new RowError(`line ${line}, column clock: empty; a clock time is required`);
+  if (parseClockTime(raw) === null) throw new RowError(`line ${line}, column clock: '${raw}' is not a clock time (HH:MM:SS or ISO date-time)`);
+  return { time_s: NaN, clock: raw };
 }
 
 /** Throws a RowError when a finite value looks like a fraction in a percent column or lies outside its LIMITS. */
@@ -141,29 +127,30 @@ function parseGasRow(row: string[], line: number, layout: GasLayout): GasSample 
   if (row.length < layout.header.length) {
     throw new RowError(`line ${line}: ${row.length} fields but the header has ${layout.header.length}; fill every column (empty cells are allowed)`);
   }
-  const time_s = rowTimeS(row, line, layout);
+  const time = rowTime(row, line, layout);
   const values = {} as Record<NumericColumn, number>;
   for (const name of ['paco2_mmhg', ...OPTIONAL_COLUMNS] as NumericColumn[]) {
     const value = layout.columnIndex.has(name) ? cellNumber(row, line, layout, name, name === 'paco2_mmhg') : NaN;
     if (Number.isFinite(value)) checkPlausible(name, value, line);
     values[name] = value;
   }
-  return { line, time_s, ...values };
+  return { line, ...time, ...values };
 }
 
 /**
- * Reads a blood-gas CSV with papaparse.
+ * Reads a blood-gas CSV with papaparse, without placing clock times on the recording (see placeGasTimes).
  *
- * Columns (header row, names case-insensitive): time_s (seconds from recording start) or clock (HH:MM:SS or ISO
- * date-time, needs opts.start), paco2_mmhg; optional pao2_mmhg, sao2_pct, svo2_pct, pvco2_mmhg, pvo2_mmhg, hb_g_dl,
- * fio2_pct, temp_c. Delimiter detected (comma, semicolon, tab); decimal comma accepted when the delimiter is not a
- * comma. Empty lines and lines starting with '#' are skipped. Line numbers assume no line breaks inside quoted cells.
+ * Columns (header row, names case-insensitive): time_s (seconds from recording start; negative = drawn before the
+ * recording) or clock (HH:MM:SS or ISO date-time), paco2_mmhg; optional pao2_mmhg, sao2_pct, svo2_pct, pvco2_mmhg,
+ * pvo2_mmhg, hb_g_dl, fio2_pct, temp_c. Delimiter detected (comma, semicolon, tab); decimal comma accepted when the
+ * delimiter is not a comma. Empty lines and lines starting with '#' are skipped. Line numbers assume no line breaks
+ * inside quoted cells.
  *
  * Bad rows are rejected with a reason naming the line and column (never thrown). A file that cannot be used at all
- * (empty, required column missing, clock without start time) throws an Error with a one-line message naming the
- * file and what to do. Samples are returned sorted by time.
+ * (empty, required column missing) throws an Error with a one-line message naming the file and what to do.
+ * Rows of a clock column keep the clock text and time_s NaN.
  */
-export function parseGasCsv(text: string, fileName: string, opts: { start?: string } = {}): GasParseResult {
+export function readGasCsv(text: string, fileName: string): GasTable {
   const clean = text.replace(/^\uFEFF/, '');
   const parsed = Papa.parse<string[]>(clean, { header: false, skipEmptyLines: false });
   const rows = parsed.data;
@@ -174,8 +161,7 @@ export function parseGasCsv(text: string, fileName: string, opts: { start?: stri
   const { columnIndex, ignoredColumns } = indexColumns(header, fileName);
   checkRequiredColumns(header, columnIndex, fileName);
   const useTime = columnIndex.has('time_s');
-  const start = useTime ? null : recordingStart(opts.start, fileName);
-  const layout: GasLayout = { header, columnIndex, useTime, start, decimalComma: parsed.meta.delimiter !== ',' };
+  const layout: GasLayout = { header, columnIndex, useTime, decimalComma: parsed.meta.delimiter !== ',' };
 
   const samples: GasSample[] = [];
   const rejected: { line: number; reason: string }[] = [];
@@ -190,7 +176,65 @@ export function parseGasCsv(text: string, fileName: string, opts: { start?: stri
       rejected.push({ line, reason: e.message });
     }
   }
+  return { time_column: useTime ? 'time_s' : 'clock', samples, rejected, ignoredColumns };
+}
 
-  samples.sort((a, b) => a.time_s - b.time_s || a.line - b.line);
-  return { samples, rejected, ignoredColumns };
+/** The clock the gas clock times are measured from, with its text and where it came from. */
+interface ChosenStart {
+  start: ClockTime;
+  text: string;
+  source: 'recording' | 'start option';
+  warnings: string[];
+}
+
+/**
+ * The start of the recording for gas clock times: the recording's own first clock stamp when it has one, else the
+ * given start. A given start that differs from the recording's stamp by more than START_AGREEMENT_S is used (the
+ * user's explicit word) and reported in a warning. Throws when neither is known or the given start is no clock time.
+ */
+function chooseStart(fileName: string, opts: GasClockOptions): ChosenStart {
+  const option = opts.start_option ?? '--start';
+  const how = `give the recording's start time with ${option} HH:MM:SS (or an ISO date-time such as 2026-03-04T10:15:00), or write the gas times as time_s (seconds from the recording start)`;
+  const givenText = opts.start?.trim() ?? '';
+  const given = givenText === '' ? null : parseClockTime(givenText);
+  if (givenText !== '' && given === null) throw new Error(`${fileName}: ${option} '${givenText}' is not a clock time; ${how}`);
+  const own = opts.recording?.clock_start ?? null;
+  if (own === null && given === null) {
+    throw new Error(`${fileName}: column 'clock' holds clock times, but the recording's time column holds no clock stamps, so its start time is not known; ${how}`);
+  }
+  const ownText = own === null ? '' : own.text ?? formatClockStamp(own.kind, own.seconds);
+  if (given === null) return { start: own!, text: ownText, source: 'recording', warnings: [] };
+  if (own === null) return { start: given, text: givenText, source: 'start option', warnings: [] };
+  const later = clockOffsetS(own, given);
+  if (Math.abs(later) <= START_AGREEMENT_S) return { start: own, text: ownText, source: 'recording', warnings: [] };
+  const warning =
+    `${option} ${givenText} is ${Math.abs(later).toFixed(1)} s ${later > 0 ? 'earlier' : 'later'} than the recording's own first clock stamp ${ownText}; ` +
+    `the gas clock times are placed on ${option} ${givenText}; leave ${option} out to place them on the recording's clock`;
+  return { start: given, text: givenText, source: 'start option', warnings: [warning] };
+}
+
+/**
+ * Places the rows of a gas table on the recording's time axis (time_s = seconds from its start; negative = drawn
+ * before the recording). A time_s column is taken as is. Clock times are measured from the recording's first clock
+ * stamp (opts.recording.clock_start) or the given start (opts.start), with the day rule of clockOffsetS over the
+ * recording's length (opts.recording.duration_s; 0 when unknown). Samples are returned sorted by time.
+ */
+export function placeGasTimes(table: GasTable, fileName: string, opts: GasClockOptions = {}): GasParseResult {
+  let samples = table.samples;
+  let clock: GasParseResult['clock'] = null;
+  let warnings: string[] = [];
+  if (table.time_column === 'clock') {
+    const chosen = chooseStart(fileName, opts);
+    const durationS = opts.recording?.duration_s ?? 0;
+    samples = samples.map((s) => ({ ...s, time_s: clockOffsetS(parseClockTime(s.clock!)!, chosen.start, durationS) }));
+    clock = { start: chosen.text, source: chosen.source };
+    warnings = chosen.warnings;
+  }
+  samples = [...samples].sort((a, b) => a.time_s - b.time_s || a.line - b.line);
+  return { samples, rejected: table.rejected, ignoredColumns: table.ignoredColumns, warnings, clock };
+}
+
+/** readGasCsv and placeGasTimes in one step (for a recording already read, or a time_s column). */
+export function parseGasCsv(text: string, fileName: string, opts: GasClockOptions = {}): GasParseResult {
+  return placeGasTimes(readGasCsv(text, fileName), fileName, opts);
 }

@@ -71,11 +71,35 @@ export class ClockReader {
     const p = parseClockParts(text, this.kind);
     return p ? this.fromParts(p.day, p.sec) : NaN;
   }
+  /** Whole seconds of the first stamp's date at 00:00 (0 for times of day); NaN before the first stamp. */
+  get dayS(): number {
+    return this.base;
+  }
   /** Seconds from the first stamp's date for a stamp already split into its parts. */
   fromParts(day: number, sec: number): number {
     if (Number.isNaN(this.base)) this.base = day;
     return day - this.base + sec;
   }
+}
+
+const pad2 = (n: number) => String(n).padStart(2, '0');
+
+/**
+ * A clock stamp as text, to the millisecond: "HH:MM:SS.fff" for a time of day, "YYYY-MM-DDTHH:MM:SS.fff" for a
+ * date-time (UTC when the stamp carried a zone, else its wall-clock time; no zone is written).
+ * @example formatClockStamp('time_of_day', 34200) // => '09:30:00.000'
+ */
+export function formatClockStamp(kind: ClockKind, seconds: number): string {
+  const ms = Math.round(seconds * 1000);
+  const day = Math.floor(ms / 86_400_000);
+  const inDay = ms - day * 86_400_000;
+  const h = Math.floor(inDay / 3_600_000);
+  const m = Math.floor((inDay % 3_600_000) / 60_000);
+  const s = (inDay % 60_000) / 1000;
+  const time = `${pad2(h)}:${pad2(m)}:${s.toFixed(3).padStart(6, '0')}`;
+  if (kind === 'time_of_day') return time;
+  const d = new Date(day * 86_400_000);
+  return `${d.getUTCFullYear()}-${pad2(d.getUTCMonth() + 1)}-${pad2(d.getUTCDate())}T${time}`;
 }
 
 function hms(h: number, min: number, secText: string): number {

@@ -18,4 +18,4 @@ export {
 } from './units';
 // cells
 export { parseNumberCell, MISSING_TOKENS } from './cell';
-export { parseClockSeconds, clockKind, type ClockKind } from './clock-time';
+export { parseClockSeconds, clockKind, formatClockStamp, type ClockKind } from './clock-time';

@@ -126,6 +126,11 @@ export class LineScanner {
     return pos;
   }
 
+  /** Whole seconds of the first clock stamp's date (0 for times of day); NaN without clock stamps. */
+  clockDayS(): number {
+    return this.clock ? this.clock.dayS : NaN;
+  }
+
   tooLong(): InputError {
     const line = this.lineIndex + 1;
     return new InputError('line_too_long', `line ${line} is longer than ${MAX_LINE_CHARS / 1000} kB`, 'This does not look like a table of samples; export it as CSV with one sample per line.', { file: this.file, line });

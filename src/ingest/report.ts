@@ -1,5 +1,6 @@
 // The account of one ingested file: what was chosen, what was read, what was skipped and why.
 import type { RecordedSetting } from '../types';
+import type { ClockKind } from './clock-time';
 
 export interface SkippedExample {
   /** 1-based line number in the file */
@@ -45,6 +46,9 @@ export interface IngestReport {
   co2_missing_samples: number;
   /** every ingest setting used, marked given / inferred / default */
   settings: Record<string, RecordedSetting>;
+  /** when the time column holds clock stamps: the stamp of t = 0 (the first row read); 'time_of_day': seconds since
+   *  midnight, 'date_time': seconds since 1970-01-01 (UTC when the stamps carry a zone), and as text */
+  clock_start?: { kind: ClockKind; seconds: number; text: string };
 }
 
 /** Skip reasons (stable codes). */

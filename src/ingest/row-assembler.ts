@@ -14,6 +14,7 @@
 import type { IngestSettings } from '../settings';
 import type { SampleBlock } from '../types';
 import { BlockBuilder } from './block-builder';
+import { formatClockStamp } from './clock-time';
 import { InputError } from './errors';
 import type { TableLayout } from './layout';
 import { MAX_SKIPPED_EXAMPLES, type IngestReport, type SkipReason, type SkippedExample } from './report';
@@ -155,8 +156,10 @@ export class RowAssembler {
     return this.b.take();
   }
 
-  report(bytes: number): IngestReport {
+  /** The reading report; `clockDayS`: whole seconds of the first clock stamp's date (ClockReader.dayS), for clock_start. */
+  report(bytes: number, clockDayS = NaN): IngestReport {
     const L = this.layout;
+    const clockStart = this.clockStart(clockDayS);
     return {
       file: this.file,
       bytes,
@@ -177,6 +180,7 @@ export class RowAssembler {
       samples: this.samples,
       co2_missing_samples: this.co2_missing,
       settings: { ...L.settings },
+      ...(clockStart ? { clock_start: clockStart } : {}),
     };
   }
 
@@ -189,6 +193,14 @@ export class RowAssembler {
     } else {
       this.co2_missing += this.b.resolvePending(() => NaN);
     }
+  }
+
+  /** The clock stamp of t = 0 (the first row read), when the time column holds clock stamps. */
+  private clockStart(clockDayS: number): IngestReport['clock_start'] {
+    const kind = this.layout.clock_kind;
+    if (!this.clockMode || kind === null || Number.isNaN(this.t0)) return undefined;
+    const seconds = kind === 'date_time' ? clockDayS + this.t0 : this.t0;
+    return Number.isFinite(seconds) ? { kind, seconds, text: formatClockStamp(kind, seconds) } : undefined;
   }
 
   private clockTime(raw: number): number {

@@ -119,7 +119,7 @@ export function createTableReader(
       return rows.finish();
     },
     report(): IngestReport {
-      return rows.report(bytes);
+      return rows.report(bytes, scanner.clockDayS());
     },
   };
 }

@@ -243,7 +243,7 @@ export function blankTrendRow(): TrendRow {
 export const GAS_METRICS = [
   n('sample', 'Sample', '', 0, false, 'sample number in time order (1-based)', DERIVED),
   n('line', 'Line', '', 0, false, 'line of the sample in the gas file', DERIVED),
-  n('time_s', 'Time', 's', 0, false, 'sample time, seconds from recording start', DERIVED),
+  n('time_s', 'Time', 's', 0, false, 'sample time, seconds from recording start (negative: drawn before the recording)', DERIVED),
   n('paco2_mmhg', 'PaCO2', 'mmHg', 1, false, 'arterial PCO2 as given in the gas file', DERIVED),
   n('breaths_used', 'Breaths used', '', 0, false, 'ok breaths in the window before the sample (`--gas-window`) used for the medians', DERIVED),
   n('petco2_mmhg', 'PETCO2', 'mmHg', 1, false, 'window median of PETCO2', NO_SOURCE),
@@ -270,7 +270,7 @@ export const GAS_METRICS = [
   n('gradient_change_mmhg', 'Gradient change', 'mmHg', 1, false, "gradient minus the previous sample's gradient", DERIVED),
   txt('gradient_changed', 'Gradient changed', '`true` when the gradient changed by more than `gradient_change_mmhg` (5 mmHg) since the previous sample', DERIVED),
   txt('missing_inputs', 'Missing inputs', 'inputs that were missing, `;`-separated (breath metrics as `breath.<field>`)', DERIVED),
-  txt('notes', 'Notes', 'assumptions and fallbacks used for this row, `;`-separated', DERIVED),
+  txt('notes', 'Notes', 'assumptions and fallbacks used for this row, `;`-separated; `before the recording: …` for a sample drawn before it', DERIVED),
   n('temp_c', 'Patient temperature', '°C', 1, false, 'patient temperature from the gas file, passed through', DERIVED),
 ] as const satisfies readonly Entry<GasRow>[];
 

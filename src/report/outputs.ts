@@ -6,7 +6,9 @@
 // exactly as an automatic exclusion would; the CLI passes none.
 
 import type { AnalysisCore } from '../analyse/analyser';
-import { analyseGas, applyArterialPco2, GAS_COLUMNS, PACO2_ESTIMATE_COLUMNS, type GasOptions, type GasResult, type GasSample } from '../gas/index';
+import {
+  analyseGas, applyArterialPco2, GAS_COLUMNS, PACO2_ESTIMATE_COLUMNS, samplesInRecording, type GasOptions, type GasParseResult, type GasResult, type GasSample,
+} from '../gas/index';
 import type { IngestReport } from '../ingest/index';
 import { breathsCsv } from './breaths-csv';
 import { csvTable } from './format';
@@ -26,6 +28,10 @@ export interface GasInput {
   /** patient and method options of the gas analysis (weight, height, sex, window, cardiac output); the CLI's
    *  --weight/--height/--sex/--gas-window/--cardiac-output */
   options?: Partial<GasOptions>;
+  /** placement of clock times (placeGasTimes): warnings (a --start that differs from the recording's clock) and the
+   *  start the clock times were measured from; absent for a time_s column */
+  warnings?: string[];
+  clock?: GasParseResult['clock'];
 }
 
 export interface Outputs {
@@ -78,9 +84,11 @@ export function composeOutputs(
       inspired_term: settings.analysis.bohr_inspired_term,
       summary_breaths: settings.analysis.summary_breaths,
     });
+    if (gas.warnings?.length) gasResult.warnings.unshift(...gas.warnings);
     summary = summaryFor(reviewed, report, settings, given);
     summary.gas = jsonSafe({
       file: gas.file,
+      ...(gas.clock ? { clock: gas.clock } : {}),
       samples_read: gas.samples.length,
       samples_rejected: gas.rejected,
       per_breath_enghoff:
@@ -94,7 +102,8 @@ export function composeOutputs(
   }
   const note = exclusionNote(core.breaths, excluded);
   if (note) summary.notes.push(note);
-  const te = trendsAndEvents(rows, { ...settings.events, summary_breaths: settings.analysis.summary_breaths }, gas ? gas.samples : [], settings.analysis.apparatus_ml);
+  const gasesInRecording = gas ? samplesInRecording(gas.samples) : [];
+  const te = trendsAndEvents(rows, { ...settings.events, summary_breaths: settings.analysis.summary_breaths }, gasesInRecording, settings.analysis.apparatus_ml);
   summary.events = jsonSafe(te.events);
   return { rows, summary, gas: gasResult, trends: te.trends, events: te.events };
 }

@@ -89,7 +89,7 @@ export function referenceRead(text: string, layout: TableLayout, settings: Inges
     blocks.push(...rows.take());
   }
   blocks.push(...rows.finish());
-  return { samples: concatBlocks(blocks), report: rows.report(0) };
+  return { samples: concatBlocks(blocks), report: rows.report(0, clock ? clock.dayS : NaN) };
 }
 
 export interface Columns {
