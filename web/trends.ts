@@ -22,7 +22,7 @@ export const TREND_SPECS: TrendSpec[] = [
     id: 'deadspace',
     title: 'dead space',
     unit: 'mL',
-    series: [['vd_aw_ml', 'airway (Fowler)'], ['vd_alv_ml', 'alveolar (Bohr − airway)'], ['vd_bohr_ml', 'Bohr'], ['vd_enghoff_ml', 'physiological (Enghoff)']],
+    series: [['vd_aw_ml', 'airway (Fowler)'], ['vd_alv_bohr_ml', 'alveolar by Bohr (Bohr − airway)'], ['vd_bohr_ml', 'Bohr'], ['vd_enghoff_ml', 'physiological (Enghoff)']],
     gas: { key: 'vd_phys_ml', label: 'physiological, gas sample' },
   },
   {

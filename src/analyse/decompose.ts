@@ -127,7 +127,7 @@ class BreathRowRecord implements BreathRow {
   fico2_mmhg = NaN;
   vd_bohr_ml = NaN;
   vdvt_bohr = NaN;
-  vd_alv_ml = NaN;
+  vd_alv_bohr_ml = NaN;
   vd_enghoff_ml = NaN;
   vdvt_enghoff = NaN;
   delay_s = NaN;
@@ -332,7 +332,7 @@ function recordDeadSpaces(
   const bohr = patientDeadSpace(bohrAtSensor, vte, settings.apparatus_ml);
   row.vdvt_bohr = bohr.fraction;
   row.vd_bohr_ml = bohr.volume_ml;
-  if (Number.isFinite(fowler) && fowler > 0) row.vd_alv_ml = alveolarDeadSpaceMl(bohrAtSensor * vte, fowler);
+  if (Number.isFinite(fowler) && fowler > 0) row.vd_alv_bohr_ml = alveolarDeadSpaceMl(bohrAtSensor * vte, fowler);
   if (settings.paco2_mmhg !== null) {
     const enghoffAtSensor = enghoffDeadSpaceFraction(settings.paco2_mmhg, row.peco2_mmhg, inspired);
     const enghoff = patientDeadSpace(enghoffAtSensor, vte, settings.apparatus_ml);

@@ -135,11 +135,11 @@ export interface GasRow {
   vdvt_difference: number;
   vd_aw_ml: number;
   /** vd_phys_ml - vd_aw_ml */
-  vd_alv_ml: number;
+  vd_alv_enghoff_ml: number;
   /** vdvt_enghoff x median VTe */
   vd_phys_ml: number;
   vd_aw_ml_per_kg: number;
-  vd_alv_ml_per_kg: number;
+  vd_alv_enghoff_ml_per_kg: number;
   vd_phys_ml_per_kg: number;
   /** ideal alveolar PO2 from the alveolar gas equation (contents method and ODC option) */
   pao2_alv_mmhg: number;

@@ -135,7 +135,7 @@ export const BREATH_METRICS = [
   n('fico2_mmhg', 'Inspired PCO2', 'mmHg', 2, true, 'volume-weighted mean inspired PCO2', NO_SOURCE),
   n('vd_bohr_ml', 'Bohr dead space', 'mL', 1, true, 'Bohr dead space at the sensor minus `apparatus_ml` (VD/VT Bohr × V_E)', BOHR),
   n('vdvt_bohr', 'VD/VT Bohr', '', 3, true, 'Bohr: (PACO2 − PĒCO2)/(PACO2 − PICO2) × V_E minus `apparatus_ml`, over V_E (the published equation when `apparatus_ml` is 0)', BOHR),
-  n('vd_alv_ml', 'Alveolar dead space (Bohr - airway)', 'mL', 1, true, 'alveolar dead space = Bohr dead space − airway (Fowler) dead space', FLETCHER),
+  n('vd_alv_bohr_ml', 'Alveolar dead space (Bohr-based)', 'mL', 1, true, 'alveolar dead space = Bohr dead space − airway (Fowler) dead space', FLETCHER),
   n('vd_enghoff_ml', 'Enghoff dead space', 'mL', 1, true, 'Enghoff dead space at the sensor minus `apparatus_ml` (VD/VT Enghoff × V_E; needs `--paco2` or `--gas`)', ENGHOFF),
   n('vdvt_enghoff', 'VD/VT Enghoff', '', 3, true, 'Enghoff: (PaCO2 − PĒCO2)/(PaCO2 − PICO2) × V_E minus `apparatus_ml`, over V_E (needs `--paco2` or `--gas`)', ENGHOFF),
   n('delay_s', 'CO2 delay used', 's', 3, true, 'CO2 transport delay used for this breath', DERIVED),
@@ -179,12 +179,12 @@ export function blankBreathRow(): BreathRow {
 /** The terminal summary table (median, p25, p75, n over ok breaths; shown when n > 0). */
 export const TERMINAL_SUMMARY_ROWS: readonly SummaryKey[] = [
   'rr_bpm', 'vt_exp_ml', 'vt_insp_ml', 'vd_aw_ml', 'vd_inflection_ml', 'slope3_mmhg_per_l', 'petco2_mmhg', 'peco2_mmhg',
-  'alv_co2_mmhg', 'vtco2_ml', 'vdvt_bohr', 'vd_bohr_ml', 'vd_alv_ml', 'vdvt_enghoff', 'vd_enghoff_ml',
+  'alv_co2_mmhg', 'vtco2_ml', 'vdvt_bohr', 'vd_bohr_ml', 'vd_alv_bohr_ml', 'vdvt_enghoff', 'vd_enghoff_ml',
 ];
 
 /** The viewer's recording summary panel. */
 export const VIEWER_SUMMARY_ROWS: readonly SummaryKey[] = [
-  'rr_bpm', 'vt_exp_ml', 'vd_aw_ml', 'vd_inflection_ml', 'vd_alv_ml', 'vd_bohr_ml', 'vdvt_bohr', 'vd_enghoff_ml',
+  'rr_bpm', 'vt_exp_ml', 'vd_aw_ml', 'vd_inflection_ml', 'vd_alv_bohr_ml', 'vd_bohr_ml', 'vdvt_bohr', 'vd_enghoff_ml',
   'vdvt_enghoff', 'slope3_mmhg_per_l', 'petco2_mmhg', 'peco2_mmhg', 'vtco2_ml',
 ];
 
@@ -192,7 +192,7 @@ export const VIEWER_SUMMARY_ROWS: readonly SummaryKey[] = [
 export const VIEWER_BREATH_GROUPS: readonly (readonly [string, readonly NumericBreathKey[]])[] = [
   ['timing', ['t_start_s', 'rr_bpm', 'ti_s', 'te_s']],
   ['volumes', ['vt_insp_ml', 'vt_exp_ml']],
-  ['dead space', ['vd_aw_ml', 'vd_inflection_ml', 'vd_alv_ml', 'vd_bohr_ml', 'vdvt_bohr', 'vd_enghoff_ml', 'vdvt_enghoff']],
+  ['dead space', ['vd_aw_ml', 'vd_inflection_ml', 'vd_alv_bohr_ml', 'vd_bohr_ml', 'vdvt_bohr', 'vd_enghoff_ml', 'vdvt_enghoff']],
   ['phases', ['v_phase2_start_ml', 'v_phase3_start_ml', 'slope2_mmhg_per_l', 'slope3_mmhg_per_l', 'slope3_norm_per_l', 'slope3_r2']],
   ['CO2', ['petco2_mmhg', 'peco2_mmhg', 'alv_co2_mmhg', 'paeco2_mmhg', 'fico2_mmhg', 'vtco2_ml', 'veco2_ml', 'vico2_ml', 'delay_s']],
 ];
@@ -255,10 +255,10 @@ export const GAS_METRICS = [
   n('vdvt_enghoff', 'VD/VT Enghoff', '', 3, false, '(PaCO2 − median PĒCO2) / (PaCO2 − median PICO2) × median VTe minus `apparatus_ml`, over median VTe (inspired term with `bohr_inspired_term`)', ENGHOFF),
   n('vdvt_difference', 'VD/VT Enghoff - Bohr', '', 3, false, '`vdvt_enghoff` − `vdvt_bohr`', DERIVED),
   n('vd_aw_ml', 'Airway dead space (Fowler)', 'mL', 1, false, 'window median of the airway dead space', FOWLER),
-  n('vd_alv_ml', 'Alveolar dead space', 'mL', 1, false, '`vd_phys_ml` − `vd_aw_ml`', FLETCHER),
+  n('vd_alv_enghoff_ml', 'Alveolar dead space (Enghoff-based)', 'mL', 1, false, '`vd_phys_ml` − `vd_aw_ml` (Enghoff; not the Bohr-based `vd_alv_bohr_ml` of breaths.csv)', FLETCHER),
   n('vd_phys_ml', 'Physiological dead space', 'mL', 0, false, '`vdvt_enghoff` × median expired tidal volume (apparatus removed)', ENGHOFF),
   n('vd_aw_ml_per_kg', 'Airway dead space per kg', 'mL/kg', 2, false, '`vd_aw_ml` per kg of predicted body weight (adults with `--height --sex`) or of `--weight`', ARDSNET),
-  n('vd_alv_ml_per_kg', 'Alveolar dead space per kg', 'mL/kg', 2, false, '`vd_alv_ml` per kg, same weight as above', ARDSNET),
+  n('vd_alv_enghoff_ml_per_kg', 'Alveolar dead space (Enghoff-based) per kg', 'mL/kg', 2, false, '`vd_alv_enghoff_ml` per kg, same weight as above', ARDSNET),
   n('vd_phys_ml_per_kg', 'Physiological dead space per kg', 'mL/kg', 2, false, '`vd_phys_ml` per kg, same weight as above', ARDSNET),
   n('pao2_alv_mmhg', 'Ideal alveolar PO2', 'mmHg', 1, false, 'ideal alveolar PO2 from the alveolar gas equation (RQ setting, 0.8 by default)', FENN),
   n('shunt_fraction', 'Venous admixture', '', 2, false, 'venous admixture from oxygen contents (end-capillary saturation from the Severinghaus curve at PAO2, or 1.0 when FiO2 is missing or by setting) or from saturations only', BERGGREN),

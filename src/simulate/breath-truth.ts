@@ -52,7 +52,7 @@ export function breathTruth(
     vd_aw_ml: vd,
     vd_fowler_exact_ml: fowlerRaw,
     vd_fowler_net_exact_ml: fowlerNet,
-    vd_alv_ml: ((ve - vd) * (pa - gas.alv_mean_mmhg)) / (pa - pi),
+    vd_alv_enghoff_ml: ((ve - vd) * (pa - gas.alv_mean_mmhg)) / (pa - pi),
     vd_alv_unperfused_ml: cond.alv_dead_space_fraction * (ve - vd),
     vd_phys_ml: vdvtEnghoff * ve,
     vd_bohr_ml: vdvtBohr * ve,

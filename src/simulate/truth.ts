@@ -25,7 +25,7 @@ export interface TruthBreath {
   /** same on P - PI (differs from the raw form only with rebreathing) */
   vd_fowler_net_exact_ml: number;
   /** alveolar dead space on the Enghoff basis: (V_E - VDaw)(PaCO2 - Pmix)/(PaCO2 - PI), mL (model formula) */
-  vd_alv_ml: number;
+  vd_alv_enghoff_ml: number;
   /** part of it from unperfused units: f_ads (V_E - VDaw), mL */
   vd_alv_unperfused_ml: number;
   /** physiologic dead space, Enghoff basis: vdvt_enghoff x V_E, mL */

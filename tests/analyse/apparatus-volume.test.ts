@@ -38,7 +38,7 @@ describe('apparatus volume in the per-breath dead spaces', () => {
     expectClose(withApparatus.vdvt_enghoff, plain.vdvt_enghoff - 30 / plain.vt_exp_ml, { abs: 1e-12 });
   });
   it('alveolar dead space does not change', () => {
-    expectClose(withApparatus.vd_alv_ml, plain.vd_alv_ml, { abs: 1e-9 });
+    expectClose(withApparatus.vd_alv_bohr_ml, plain.vd_alv_bohr_ml, { abs: 1e-9 });
   });
 });
 
@@ -50,7 +50,7 @@ describe('apparatus volume in gas.csv and trends.csv', () => {
   it('gas.csv: VDphys = Enghoff x VT - 30, VDalv = Enghoff x VT - 150 (PaCO2 40, PECO2 26: Enghoff at the sensor 0.35)', () => {
     const row = analyseGas(breaths, [makeSample({ time_s: 100, paco2_mmhg: 40 })], { pb_mmhg: 760 }, { apparatus_ml: 30, inspired_term: true }).rows[0]!;
     expectClose(row.vd_phys_ml, 0.35 * 500 - 30, { abs: 1e-9 });
-    expectClose(row.vd_alv_ml, 0.35 * 500 - 150, { abs: 1e-9 });
+    expectClose(row.vd_alv_enghoff_ml, 0.35 * 500 - 150, { abs: 1e-9 });
     expectClose(row.vdvt_enghoff, (0.35 * 500 - 30) / 500, { abs: 1e-12 });
   });
   it('trends.csv: V\'A = RR x (VT - 120 - 30)', () => {
@@ -72,12 +72,12 @@ describe('apparatus volume end to end (adult-healthy sample, blood gas at 60 and
   };
   const plain = run(0);
   const withApparatus = run(30);
-  it('gas.csv vd_alv_ml does not change; vd_phys_ml and vd_aw_ml lose 30 mL', () => {
+  it('gas.csv vd_alv_enghoff_ml does not change; vd_phys_ml and vd_aw_ml lose 30 mL', () => {
     for (let i = 0; i < 2; i++) {
       const a = plain.gas!.rows[i]!;
       const b = withApparatus.gas!.rows[i]!;
-      expect(Number.isFinite(a.vd_alv_ml)).toBe(true);
-      expectClose(b.vd_alv_ml, a.vd_alv_ml, { abs: 1e-9 });
+      expect(Number.isFinite(a.vd_alv_enghoff_ml)).toBe(true);
+      expectClose(b.vd_alv_enghoff_ml, a.vd_alv_enghoff_ml, { abs: 1e-9 });
       expectClose(b.vd_phys_ml, a.vd_phys_ml - 30, { abs: 1e-9 });
       expectClose(b.vd_aw_ml, a.vd_aw_ml - 30, { abs: 1e-9 });
     }

@@ -43,7 +43,7 @@ describe('analyseGas: dead-space arithmetic (synthetic curve B)', () => {
   it('Enghoff 0.3475, VDphys 173.75 mL, VDalv 24.10 mL; Bohr 0.3040 side by side, difference 0.0435', () => {
     expectClose(row.vdvt_enghoff, 0.3475);
     expectClose(row.vd_phys_ml, 173.75);
-    expectClose(row.vd_alv_ml, 24.1);
+    expectClose(row.vd_alv_enghoff_ml, 24.1);
     expectClose(row.vdvt_bohr, 0.304);
     expectClose(row.vdvt_difference, 0.3475 - 0.304);
   });
@@ -51,7 +51,7 @@ describe('analyseGas: dead-space arithmetic (synthetic curve B)', () => {
   it('per-kg values on predicted body weight (male 175 cm -> 70.57 kg) and the basis is recorded', () => {
     expectClose(row.vd_aw_ml_per_kg, 149.648 / 70.57);
     expectClose(row.vd_phys_ml_per_kg, 173.75 / 70.57);
-    expectClose(row.vd_alv_ml_per_kg, 24.1 / 70.57);
+    expectClose(row.vd_alv_enghoff_ml_per_kg, 24.1 / 70.57);
     expect(result.settings.weight_basis).toBe('predicted_body_weight');
     expectClose(result.settings.weight_used_kg as number, 70.57);
   });

@@ -92,7 +92,7 @@ describe('Bohr and Enghoff on the truth (Bohr 1891, Enghoff 1938)', () => {
       { shunt_fraction: 0.1, alv_dead_space_fraction: 0.1, pi_co2_mmhg: 3 },
     ];
     for (const c of cases) {
-      for (const b of truthOf(c)) expectClose(b.vd_phys_ml, b.vd_aw_ml + b.vd_alv_ml, { abs: 0.1 }, JSON.stringify(c));
+      for (const b of truthOf(c)) expectClose(b.vd_phys_ml, b.vd_aw_ml + b.vd_alv_enghoff_ml, { abs: 0.1 }, JSON.stringify(c));
     }
   });
   it('Bohr with PACO2 = PAECO2 collapses to VDaw (algebraic trap, derived here)', () => {
