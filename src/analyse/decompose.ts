@@ -17,7 +17,8 @@ import { fowlerDeadSpace } from '../physiology/fowler-dead-space';
 import { meanAlveolarExpiredPco2 } from '../physiology/mean-alveolar-expired-pco2';
 import { mixedExpiredPco2 } from '../physiology/mixed-expired-pco2';
 import { normalisedPhase3Slope } from '../physiology/normalised-phase3-slope';
-import { patientDeadSpace, patientDeadSpaceMl } from '../physiology/patient-dead-space';
+import { alveolarTidalVolumeMl, patientDeadSpace, patientDeadSpaceMl } from '../physiology/patient-dead-space';
+import { co2EliminationMlPerMin } from '../physiology/co2-elimination-rate';
 import { vtco2FromArea } from '../physiology/vtco2-from-area';
 import type { AnalysisSettings } from '../settings';
 import type { BreathRow } from '../types';
@@ -122,11 +123,14 @@ class BreathRowRecord implements BreathRow {
   paeco2_mmhg = NaN;
   alv_co2_mmhg = NaN;
   vtco2_ml = NaN;
+  vco2_ml_min = NaN;
   veco2_ml = NaN;
   vico2_ml = NaN;
   fico2_mmhg = NaN;
   vd_bohr_ml = NaN;
   vdvt_bohr = NaN;
+  vdaw_vt = NaN;
+  vt_alv_ml = NaN;
   vd_alv_bohr_ml = NaN;
   vd_enghoff_ml = NaN;
   vdvt_enghoff = NaN;
@@ -177,6 +181,7 @@ function volumeRow(
   row.vt_exp_ml = expiredMl;
   row.peco2_mmhg = gas.mixed_expired_mmhg;
   row.vtco2_ml = gas.expired_co2_ml - gas.inspired_co2_ml;
+  row.vco2_ml_min = co2EliminationMlPerMin(row.vtco2_ml, s.t_end_s - s.t_insp_s);
   row.veco2_ml = gas.expired_co2_ml;
   row.vico2_ml = gas.inspired_co2_ml;
   row.fico2_mmhg = gas.inspired_mmhg;
@@ -325,6 +330,8 @@ function recordDeadSpaces(
     flags.push('no_fowler');
   } else {
     row.vd_aw_ml = patientDeadSpaceMl(fowler, settings.apparatus_ml);
+    row.vdaw_vt = row.vd_aw_ml / vte;
+    row.vt_alv_ml = alveolarTidalVolumeMl(vte, row.vd_aw_ml, settings.apparatus_ml);
     row.paeco2_mmhg = meanAlveolarExpiredPco2(at.expiredAreaMmhgMl, vte, fowler, inspired);
   }
   row.alv_co2_mmhg = settings.alveolar_method === 'phase3_mid' ? at.alveolarLineMmhg : row.paeco2_mmhg;

@@ -130,11 +130,14 @@ export const BREATH_METRICS = [
     'alveolar PCO2 for Bohr: the phase III line at the midpoint of phase III (setting)', TUSMAN_2011),
   n('vtco2_ml', 'VTCO2 per breath (STPD)', 'mL', 2, true,
     'CO2 eliminated per breath, mL STPD = expired − inspired CO2 volume; 1.1588e-3 × ∫P dV at 37 °C', FLETCHER),
+  n('vco2_ml_min', "V'CO2 (this breath)", 'mL/min', 1, true, 'CO2 elimination rate of the breath, mL/min STPD = VTCO2 × 60 / breath duration', FLETCHER),
   n('veco2_ml', 'Expired CO2 volume (STPD)', 'mL', 2, false, 'expired CO2 volume, mL STPD', FLETCHER),
   n('vico2_ml', 'Re-inspired CO2 volume (STPD)', 'mL', 3, false, 'inspired CO2 volume, mL STPD', FLETCHER),
   n('fico2_mmhg', 'Inspired PCO2', 'mmHg', 2, true, 'volume-weighted mean inspired PCO2', NO_SOURCE),
   n('vd_bohr_ml', 'Bohr dead space', 'mL', 1, true, 'Bohr dead space at the sensor minus `apparatus_ml` (VD/VT Bohr × V_E)', BOHR),
   n('vdvt_bohr', 'VD/VT Bohr', '', 3, true, 'Bohr: (PACO2 − PĒCO2)/(PACO2 − PICO2) × V_E minus `apparatus_ml`, over V_E (the published equation when `apparatus_ml` is 0)', BOHR),
+  n('vdaw_vt', 'VDaw/VT', '', 3, true, 'airway (Fowler) dead space over expired tidal volume, `vd_aw_ml` / `vt_exp_ml`', FOWLER),
+  n('vt_alv_ml', 'Alveolar tidal volume', 'mL', 1, true, 'V_E − airway dead space − `apparatus_ml`: the part of the breath that reached alveoli', FOWLER),
   n('vd_alv_bohr_ml', 'Alveolar dead space (Bohr-based)', 'mL', 1, true, 'alveolar dead space = Bohr dead space − airway (Fowler) dead space', FLETCHER),
   n('vd_enghoff_ml', 'Enghoff dead space', 'mL', 1, true, 'Enghoff dead space at the sensor minus `apparatus_ml` (VD/VT Enghoff × V_E; needs `--paco2` or `--gas`)', ENGHOFF),
   n('vdvt_enghoff', 'VD/VT Enghoff', '', 3, true, 'Enghoff: (PaCO2 − PĒCO2)/(PaCO2 − PICO2) × V_E minus `apparatus_ml`, over V_E (needs `--paco2` or `--gas`)', ENGHOFF),
@@ -179,7 +182,7 @@ export function blankBreathRow(): BreathRow {
 /** The terminal summary table (median, p25, p75, n over ok breaths; shown when n > 0). */
 export const TERMINAL_SUMMARY_ROWS: readonly SummaryKey[] = [
   'rr_bpm', 'vt_exp_ml', 'vt_insp_ml', 'vd_aw_ml', 'vd_inflection_ml', 'slope3_mmhg_per_l', 'petco2_mmhg', 'peco2_mmhg',
-  'alv_co2_mmhg', 'vtco2_ml', 'vdvt_bohr', 'vd_bohr_ml', 'vd_alv_bohr_ml', 'vdvt_enghoff', 'vd_enghoff_ml',
+  'alv_co2_mmhg', 'vtco2_ml', 'vco2_ml_min', 'vdaw_vt', 'vdvt_bohr', 'vd_bohr_ml', 'vd_alv_bohr_ml', 'vdvt_enghoff', 'vd_enghoff_ml',
 ];
 
 /** The viewer's recording summary panel. */
@@ -192,9 +195,9 @@ export const VIEWER_SUMMARY_ROWS: readonly SummaryKey[] = [
 export const VIEWER_BREATH_GROUPS: readonly (readonly [string, readonly NumericBreathKey[]])[] = [
   ['timing', ['t_start_s', 'rr_bpm', 'ti_s', 'te_s']],
   ['volumes', ['vt_insp_ml', 'vt_exp_ml']],
-  ['dead space', ['vd_aw_ml', 'vd_inflection_ml', 'vd_alv_bohr_ml', 'vd_bohr_ml', 'vdvt_bohr', 'vd_enghoff_ml', 'vdvt_enghoff']],
+  ['dead space', ['vd_aw_ml', 'vdaw_vt', 'vt_alv_ml', 'vd_inflection_ml', 'vd_alv_bohr_ml', 'vd_bohr_ml', 'vdvt_bohr', 'vd_enghoff_ml', 'vdvt_enghoff']],
   ['phases', ['v_phase2_start_ml', 'v_phase3_start_ml', 'slope2_mmhg_per_l', 'slope3_mmhg_per_l', 'slope3_norm_per_l', 'slope3_r2']],
-  ['CO2', ['petco2_mmhg', 'peco2_mmhg', 'alv_co2_mmhg', 'paeco2_mmhg', 'fico2_mmhg', 'vtco2_ml', 'veco2_ml', 'vico2_ml', 'delay_s']],
+  ['CO2', ['petco2_mmhg', 'peco2_mmhg', 'alv_co2_mmhg', 'paeco2_mmhg', 'fico2_mmhg', 'vtco2_ml', 'vco2_ml_min', 'veco2_ml', 'vico2_ml', 'delay_s']],
 ];
 
 // ---------------------------------------------------------------------------------------------------------------

@@ -45,3 +45,4 @@ export { shuntCo2Effect, DEFAULT_CO2_SLOPE_ML_PER_DL_PER_MMHG, type ShuntCo2Effe
 
 // Body size
 export { predictedBodyWeight, PBW_BASE_HEIGHT_CM, type Sex, type PbwFormula } from './predicted-body-weight';
+export { co2EliminationMlPerMin } from './co2-elimination-rate';
