@@ -60,8 +60,9 @@ export function placeGasFile(table: GasTable, opts: Record<string, unknown>, rep
  * given in summary.json (gas.settings.given).
  */
 export function gasOptionsFrom(opts: Record<string, unknown>, settings: Settings, fileGas: GasFileSettings = {}): GasOptions {
-  const o: GasOptions = { pb_mmhg: settings.ingest.pb_mmhg };
-  for (const [k, v] of Object.entries(fileGas)) if (v !== undefined) (o as unknown as Record<string, unknown>)[k] = v;
+  // a key of the gas section has its GasOptions type (the compiler checks it; tests/browser/viewer-units.test.ts that
+  // the gas section holds exactly the constants of GAS_DEFAULTS and cardiac_output_l_min)
+  const o: GasOptions = { pb_mmhg: settings.ingest.pb_mmhg, ...fileGas };
   if (typeof opts.gasWindow === 'number') o.window_s = opts.gasWindow;
   if (typeof opts.weight === 'number') o.weight_kg = opts.weight;
   if (typeof opts.height === 'number') o.height_cm = opts.height;
