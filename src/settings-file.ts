@@ -1,7 +1,7 @@
 // The settings file (--settings FILE.json): the same keys as src/settings.ts, validated with zod so a study can fix
 // its thresholds once. Unknown keys and wrong types are refused with a message naming the key.
 //
-//   { "ingest": { "co2_unit": "kPa" }, "analysis": { "leak_fraction": 0.1 },
+//   { "ingest": { "co2_unit": "kPa" }, "analysis": { "leak_fraction": 0.1 }, "gas": { "rq": 0.85 },
 //     "files": [ { "pattern": "site-b/**", "ingest": { "decimal": ",", "delimiter": ";" } } ] }
 //
 // `files` patterns are matched in src/batch (file-settings.ts, glob.ts patternMatches): in a batch against each
@@ -77,13 +77,45 @@ export const analysisSchema = z
   .strict()
   .partial();
 
+/**
+ * The constants of the blood-gas analysis (GasOptions of src/gas/gas-types.ts; defaults and their sources in
+ * src/gas/gas-defaults.ts). Used by `analyse --gas` and the viewer; the command line's --gas-window and
+ * --cardiac-output win over window_s and cardiac_output_l_min here. The ranges refuse typing slips (a percentage for
+ * a fraction, kPa for mmHg) and are our choice, no source: they hold the values in use (O2 capacity 1.34-1.39 mL/g,
+ * dissolved O2 0.003-0.0031 mL/dL/mmHg, see GAS_DEFAULTS) with a margin.
+ */
+export const gasSchema = z
+  .object({
+    window_s: pos.max(3600),
+    rq: num.min(0.6).max(1.3),
+    hb_o2_capacity_ml_per_g: num.min(1.3).max(1.4),
+    o2_dissolved_ml_per_dl_per_mmhg: num.min(0.002).max(0.004),
+    end_capillary_saturation: z.enum(['odc', 'one']),
+    alveolar_gas_form: z.enum(['full', 'simplified']),
+    default_pv_a_co2_mmhg: num.min(0).max(20),
+    cardiac_output_l_min: pos.max(40),
+    co2_slope_k: pos.max(2),
+    gradient_change_mmhg: pos.max(50),
+    band_level: num.gt(0.5).max(0.999),
+    analyser_sd_mmhg: num.min(0).max(10),
+    drift_prior_mmhg2_per_h: num.min(0).max(100),
+  })
+  .strict()
+  .partial();
+
+/** The `gas` section of a settings file (every key optional). */
+export type GasFileSettings = z.infer<typeof gasSchema>;
+
 export const settingsFileSchema = z
   .object({
     ingest: ingestSchema.optional(),
     analysis: analysisSchema.optional(),
     events: trendSettingsSchema.optional(),
+    gas: gasSchema.optional(),
     files: z
-      .array(z.object({ pattern: z.string().min(1), ingest: ingestSchema.optional(), analysis: analysisSchema.optional() }).strict())
+      .array(
+        z.object({ pattern: z.string().min(1), ingest: ingestSchema.optional(), analysis: analysisSchema.optional(), gas: gasSchema.optional() }).strict(),
+      )
       .optional(),
   })
   .strict();

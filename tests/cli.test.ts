@@ -6,6 +6,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { describe, expect, it } from 'vitest';
+import { expectClose } from './helpers/expect-close';
 
 const cli = fileURLToPath(new URL('../dist/cli.cjs', import.meta.url));
 const sample = fileURLToPath(new URL('../sample-waveforms/adult-healthy.csv', import.meta.url));
@@ -82,6 +83,59 @@ describe.skipIf(!existsSync(cli))('phasewise command line', () => {
     const summary = JSON.parse(readFileSync(join(out, 'summary.json'), 'utf8'));
     expect(summary.gas.clock).toEqual({ start: '09:30:00.000', source: 'recording' });
     expect(summary.gas.rows[0].notes).toMatch(/^before the recording/);
+  });
+
+  // The settings file's `gas` section (defaults < file < command line). Gas samples: the first with every input for
+  // the shunt by contents, both inside the recording so that the breaths after them get PaCO2 estimates.
+  describe('settings file gas section', () => {
+    const gasFile = join(dir, 'gas-settings.csv');
+    writeFileSync(gasFile, 'time_s,paco2_mmhg,pao2_mmhg,sao2_pct,svo2_pct,pvo2_mmhg,hb_g_dl,fio2_pct\n60,40,100,98,75,40,15,50\n100,39,,,,,,\n');
+    const analyseWith = (name: string, gas: unknown, ...extra: string[]) => {
+      const out = join(dir, name);
+      const args = ['analyse', sample, '--out', out, '--gas', gasFile, ...extra];
+      if (gas !== null) {
+        writeFileSync(join(dir, `${name}.json`), JSON.stringify({ gas }));
+        args.push('--settings', join(dir, `${name}.json`));
+      }
+      const r = run(...args);
+      expect(r.status, r.stderr).toBe(0);
+      const summary = JSON.parse(readFileSync(join(out, 'summary.json'), 'utf8'));
+      const estimates = readFileSync(join(out, 'paco2_estimates.csv'), 'utf8').trim().split('\n').map((l) => l.split(','));
+      const head = estimates[0]!;
+      const width = estimates.slice(1).map((c) => Number(c[head.indexOf('band_high_mmhg')]) - Number(c[head.indexOf('band_low_mmhg')]));
+      return { summary, width };
+    };
+
+    it("changes the shunt fraction as the hand calculation says (tests/gas/gas-settings-file.test.ts: 0.179277) and records each value as given", () => {
+      const gas = { rq: 1, hb_o2_capacity_ml_per_g: 1.39, o2_dissolved_ml_per_dl_per_mmhg: 0.0031, end_capillary_saturation: 'one' };
+      const { summary } = analyseWith('gas-file', gas);
+      expectClose(summary.gas.rows[0].shunt_fraction, 1.08815 / 6.06965, { rel: 1e-9 });
+      for (const [k, v] of Object.entries(gas)) expect(summary.gas.settings[k], k).toBe(v);
+      expect(summary.gas.settings.given).toEqual(expect.arrayContaining(Object.keys(gas)));
+      expect(summary.gas.settings.given).not.toContain('band_level');
+      expect(summary.gas.settings.band_level).toBe(0.8);
+    });
+
+    it('band_level 0.95 widens every band by z(0.975) / z(0.9) = 1.959964 / 1.281552 (Abramowitz and Stegun 1964, table 26.1)', () => {
+      const base = analyseWith('gas-band-80', null).width;
+      const wide = analyseWith('gas-band-95', { band_level: 0.95 }).width;
+      expect(base.length).toBeGreaterThan(10);
+      expect(wide).toHaveLength(base.length);
+      // bands are written with 6 significant digits (about 5e-4 mmHg): the tolerance covers that rounding
+      base.forEach((w, k) => expectClose(wide[k]!, (w * 1.959964) / 1.281552, { abs: 0.003 }, `breath ${k + 1}`));
+    });
+
+    it('a command-line option beats the file: --gas-window 30 over window_s 90, --cardiac-output 6 over 4', () => {
+      const { summary } = analyseWith('gas-cli-wins', { window_s: 90, cardiac_output_l_min: 4 }, '--gas-window', '30', '--cardiac-output', '6');
+      expect(summary.gas.settings.window_s).toBe(30);
+      expect(summary.gas.settings.cardiac_output_l_min).toBe(6);
+      expect(summary.gas.settings.given).toEqual(expect.arrayContaining(['window_s', 'cardiac_output_l_min']));
+    });
+
+    it('an unknown gas key: exit 2, one line naming it', () => {
+      writeFileSync(join(dir, 'gas-typo.json'), '{"gas":{"band_levle":0.9}}');
+      expectOneLineFailure(run('analyse', sample, '--out', join(dir, 'x'), '--gas', gasFile, '--settings', join(dir, 'gas-typo.json')), 2, 'band_levle');
+    });
   });
 
   it('unknown scenario for simulate: exit 2 with the valid names', () => {

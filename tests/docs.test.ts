@@ -4,6 +4,8 @@ import { existsSync, readFileSync, statSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
 import { REASON_CODES } from '../src/analyse/quality';
 import { DEFAULT_ANALYSIS, DEFAULT_INGEST, DEFAULT_TRENDS } from '../src/settings';
+import { GAS_DEFAULTS } from '../src/gas/gas-defaults';
+import { gasSchema } from '../src/settings-file';
 
 const root = new URL('../', import.meta.url);
 const read = (path: string): string => readFileSync(new URL(path, root), 'utf8');
@@ -71,6 +73,14 @@ describe('docs/', () => {
     for (const k of Object.keys(DEFAULT_INGEST)) expect(manual, k).toContain(`ingest.${k}`);
     for (const k of Object.keys(DEFAULT_ANALYSIS)) expect(manual, k).toContain(`analysis.${k}`);
     for (const k of Object.keys(DEFAULT_TRENDS)) expect(manual, k).toContain(`events.${k}`);
+  });
+  it("the manual's settings table lists every key of the settings file's gas section with its default", () => {
+    for (const k of Object.keys(gasSchema.shape)) {
+      const row = manual.split('\n').find((l) => l.startsWith(`| \`gas.${k}\` |`));
+      expect(row, k).toBeDefined();
+      const d = (GAS_DEFAULTS as Record<string, { value: unknown } | undefined>)[k];
+      if (d) expect(row!.split('|')[2], k).toContain(String(d.value));
+    }
   });
   it('every local link of the docs pages exists, with its heading anchor', () => {
     for (const page of ['manual', 'methods', 'batch', 'performance', 'accuracy']) {

@@ -17,6 +17,7 @@ import {
 } from './review-screen';
 import { unpackRowsInSlices } from './row-columns';
 import { changedKeys, settingsFileText, settingsProblem, withSetting } from './settings-form';
+import { readGasConstants, renderGasConstants } from './gas-settings';
 import { renderSettingsForm, wireSettingsScreen } from './settings-screen';
 import { createWorkerClient, type WorkerClient } from './worker-client';
 
@@ -159,8 +160,10 @@ async function onDone(d: Done): Promise<void> {
         heartbeat,
       };
       setBodyState('done');
-      // a blood-gas file loaded before this analysis (settings changed) applies to it too
+      // a blood-gas file loaded before this analysis (settings changed) applies to it too, with the gas options now
+      // in the sidebar (a loaded settings file may have changed its constants)
       if (state.gasInput) {
+        state.gasInput = { ...state.gasInput, options: gasOptionsFromForm() };
         gasChanged = true;
         recompose();
       }
@@ -301,17 +304,19 @@ function wire(): void {
   ];
   for (const [id, name] of files) byId(id).addEventListener('click', () => exportFile(name));
   byId('export-png').addEventListener('click', exportPng);
-  byId('export-settings').addEventListener('click', () => download('phasewise-settings.json', settingsFileText(state.analysed?.settings ?? state.settings), 'application/json'));
+  byId('export-settings').addEventListener('click', () => download('phasewise-settings.json', settingsFileText(state.analysed?.settings ?? state.settings, readGasConstants().gas), 'application/json'));
   // patient and method options of the gas analysis (the CLI's --weight, --height, --sex, --gas-window,
-  // --cardiac-output): changing one recomputes the gas table with the same core as `analyse --gas`
-  for (const id of ['gas-weight', 'gas-height', 'gas-sex', 'gas-window', 'gas-co']) {
-    byId(id).addEventListener('change', () => {
-      if (!state.gasInput) return;
-      state.gasInput = { ...state.gasInput, options: gasOptionsFromForm() };
-      gasChanged = true;
-      recompose();
-    });
-  }
+  // --cardiac-output) and the blood-gas constants (the settings file's `gas` section): changing one recomputes the
+  // gas table with the same core as `analyse --gas`
+  const gasOptionsChanged = () => {
+    const options = gasOptionsFromForm();
+    if (!state.gasInput) return;
+    state.gasInput = { ...state.gasInput, options };
+    gasChanged = true;
+    recompose();
+  };
+  for (const id of ['gas-weight', 'gas-height', 'gas-sex', 'gas-window', 'gas-co']) byId(id).addEventListener('change', gasOptionsChanged);
+  renderGasConstants(byId('gas-constants'), gasOptionsChanged);
   onFileInput('gas-input', (f) => {
     if (!state.result) return;
     const start = byId<HTMLInputElement>('gas-start').value.trim();
@@ -340,23 +345,20 @@ export function start(): void {
   setBodyState('idle');
 }
 
-/** The gas options typed in the sidebar (empty fields are left to the defaults). */
+/** The gas options typed in the sidebar: patient values and the blood-gas constants (empty fields are left to the
+ *  defaults; invalid ones too, marked and named under the fields). */
 function gasOptionsFromForm(): Partial<GasOptions> {
   const num = (id: string) => {
     const v = byId<HTMLInputElement>(id).value.trim();
     const x = Number(v);
     return v !== '' && x > 0 ? x : undefined;
   };
-  const o: Partial<GasOptions> = {};
+  const o: Partial<GasOptions> = { ...readGasConstants().gas };
   const weight = num('gas-weight');
   const height = num('gas-height');
-  const window = num('gas-window');
-  const co = num('gas-co');
   const sex = byId<HTMLSelectElement>('gas-sex').value;
   if (weight !== undefined) o.weight_kg = weight;
   if (height !== undefined) o.height_cm = height;
   if (sex === 'male' || sex === 'female') o.sex = sex;
-  if (window !== undefined) o.window_s = window;
-  if (co !== undefined) o.cardiac_output_l_min = co;
   return o;
 }

@@ -4,13 +4,13 @@
 // that-file.json` records the same origins as the viewer and writes the same summary.json.
 
 import { z } from 'zod';
-import { defaultSettings, SETTING_GROUPS, type Settings, applySettings, parseSettingsFile, settingsFileSchema, type SettingsFile } from '../src/index';
+import { defaultSettings, SETTING_GROUPS, type Settings, applySettings, parseSettingsFile, settingsFileSchema, type SettingsFile, type GasFileSettings } from '../src/index';
 import { h } from './dom';
 
 export type Group = (typeof SETTING_GROUPS)[number];
 
-export interface FieldSpec {
-  group: Group;
+export interface FieldSpec<G extends string = Group> {
+  group: G;
   key: string;
   nullable: boolean;
   kind: 'enum' | 'number' | 'integer' | 'string' | 'boolean';
@@ -21,6 +21,27 @@ export interface FieldSpec {
   minExclusive?: boolean;
 }
 
+/** The field description of one key of a settings-file schema group. */
+export function specOf<G extends string>(group: G, key: string, s0: z.ZodType): FieldSpec<G> {
+  let s: z.ZodType = s0;
+  let nullable = false;
+  while (s instanceof z.ZodOptional || s instanceof z.ZodNullable) {
+    if (s instanceof z.ZodNullable) nullable = true;
+    s = s.unwrap() as z.ZodType;
+  }
+  const spec: FieldSpec<G> = { group, key, nullable, kind: 'string', options: [], min: -Infinity, max: Infinity };
+  if (s instanceof z.ZodEnum) {
+    spec.kind = 'enum';
+    spec.options = (s.options as (string | number)[]).map(String);
+  } else if (s instanceof z.ZodNumber) {
+    spec.kind = s.isInt ? 'integer' : 'number';
+    spec.min = s.minValue ?? -Infinity;
+    spec.max = s.maxValue ?? Infinity;
+    spec.minExclusive = Number.isFinite(spec.min) && !s.safeParse(spec.min).success;
+  } else if (s instanceof z.ZodBoolean) spec.kind = 'boolean';
+  return spec;
+}
+
 /** Field descriptions read from the zod schemas. */
 export function fieldSpecs(): FieldSpec[] {
   const out: FieldSpec[] = [];
@@ -29,27 +50,18 @@ export function fieldSpecs(): FieldSpec[] {
     let schema = top[group]!;
     while (schema instanceof z.ZodOptional) schema = schema.unwrap() as z.ZodType;
     if (!(schema instanceof z.ZodObject)) continue;
-    for (const [key, s0] of Object.entries(schema.shape)) {
-      let s: z.ZodType = s0 as z.ZodType;
-      let nullable = false;
-      while (s instanceof z.ZodOptional || s instanceof z.ZodNullable) {
-        if (s instanceof z.ZodNullable) nullable = true;
-        s = s.unwrap() as z.ZodType;
-      }
-      const spec: FieldSpec = { group, key, nullable, kind: 'string', options: [], min: -Infinity, max: Infinity };
-      if (s instanceof z.ZodEnum) {
-        spec.kind = 'enum';
-        spec.options = (s.options as (string | number)[]).map(String);
-      } else if (s instanceof z.ZodNumber) {
-        spec.kind = s.isInt ? 'integer' : 'number';
-        spec.min = s.minValue ?? -Infinity;
-        spec.max = s.maxValue ?? Infinity;
-        spec.minExclusive = Number.isFinite(spec.min) && !s.safeParse(spec.min).success;
-      } else if (s instanceof z.ZodBoolean) spec.kind = 'boolean';
-      out.push(spec);
-    }
+    for (const [key, s0] of Object.entries(schema.shape)) out.push(specOf(group, key, s0 as z.ZodType));
   }
   return out;
+}
+
+/** The range hint of a number field ("> 0, ≤ 3600"); empty for other kinds. */
+export function rangeHint(spec: FieldSpec<string>): string {
+  if (spec.kind !== 'number' && spec.kind !== 'integer') return '';
+  return [
+    Number.isFinite(spec.min) ? `${spec.minExclusive ? '>' : '≥'} ${spec.min}` : '',
+    Number.isFinite(spec.max) && spec.max < 1e15 ? `≤ ${spec.max}` : '',
+  ].filter(Boolean).join(', ');
 }
 
 const DEFAULTS = defaultSettings() as unknown as Record<Group, Record<string, unknown>>;
@@ -74,16 +86,19 @@ export function changedSettingsFile(s: Settings): SettingsFile {
   return file;
 }
 
-export function settingsFileText(s: Settings): string {
-  return JSON.stringify(changedSettingsFile(s), null, 2) + '\n';
+/** The settings file text: the changed settings and, when any is set, the blood-gas constants (`gas`). */
+export function settingsFileText(s: Settings, gas: GasFileSettings = {}): string {
+  const file: SettingsFile = changedSettingsFile(s);
+  if (Object.keys(gas).length) file.gas = gas;
+  return JSON.stringify(file, null, 2) + '\n';
 }
 
-/** Reads a settings file (the CLI's format) into full settings; throws SettingsError with a one-line message. */
-export function settingsFromFile(text: string, name: string): { settings: Settings; ignoredFiles: number } {
+/** Reads a settings file (the CLI's format) into full settings and its blood-gas constants; throws SettingsError with a one-line message. */
+export function settingsFromFile(text: string, name: string): { settings: Settings; gas: GasFileSettings; ignoredFiles: number } {
   const file = parseSettingsFile(text, name);
   const settings = defaultSettings();
   applySettings(settings, file, new Set());
-  return { settings, ignoredFiles: file.files?.length ?? 0 };
+  return { settings, gas: file.gas ?? {}, ignoredFiles: file.files?.length ?? 0 };
 }
 
 /** Checks full settings against the schema; returns a one-line problem or null. */
@@ -103,7 +118,7 @@ function show(v: unknown): string {
 }
 
 /** Parses a form value; returns undefined when it cannot be a value of this field. */
-export function parseField(spec: FieldSpec, raw: string | boolean): unknown {
+export function parseField(spec: FieldSpec<string>, raw: string | boolean): unknown {
   if (spec.kind === 'boolean') return Boolean(raw);
   const text = String(raw).trim();
   if (text === '' || text === 'auto') return spec.nullable ? null : undefined;
@@ -153,9 +168,7 @@ export function fieldControl(spec: FieldSpec, get: () => Settings, set: (value: 
     set(v);
   };
   input.addEventListener('change', onChange);
-  const range = spec.kind === 'number' || spec.kind === 'integer'
-    ? [Number.isFinite(spec.min) ? `${spec.minExclusive ? '>' : '≥'} ${spec.min}` : '', Number.isFinite(spec.max) && spec.max < 1e15 ? `≤ ${spec.max}` : ''].filter(Boolean).join(', ')
-    : '';
+  const range = rangeHint(spec);
   const hint = `default ${def === null ? 'auto / none' : show(def)}${range ? ` · ${range}` : ''}`;
   return h('div', { class: 'field' }, [h('label', { for: id, text: spec.key }), input, h('small', { text: hint })]);
 }

@@ -5,7 +5,7 @@
 // found in (BatchInput.patternPaths, rule in patternMatches), so a settings file works from any working folder; a
 // pattern that matches no recording of the batch is a warning (unmatchedPatternWarnings).
 import { defaultSettings, type Settings } from '../settings';
-import { applySettings, type SettingsFile } from '../settings-file';
+import { applySettings, type GasFileSettings, type SettingsFile } from '../settings-file';
 import { resolveSettings } from '../node/resolve-settings';
 import { sha256Json } from './hash';
 import type { BatchInput } from './expand-inputs';
@@ -25,6 +25,8 @@ export interface SettingsPlan {
   /** settings file (top level) and command-line options as patches */
   fileTop: Patch;
   cli: Patch;
+  /** the settings file's top-level `gas` section (blood-gas constants; used by `analyse --gas`, not by batch) */
+  gas: GasFileSettings;
   /** SHA-256 of the base settings, the given keys and the pattern list (canonical JSON) */
   sha256: string;
 }
@@ -36,6 +38,9 @@ export interface RecordingSettings {
   patterns: string[];
   /** SHA-256 of { settings, given } (canonical JSON) */
   sha256: string;
+  /** blood-gas constants: the settings file's `gas` section, then the `gas` of each matching pattern (later wins);
+   *  not in sha256, as batch has no blood-gas input */
+  gas: GasFileSettings;
 }
 
 function patchFrom(settings: Settings, given: Iterable<string>): Patch {
@@ -66,6 +71,7 @@ export function settingsPlan(opts: Record<string, unknown>): SettingsPlan {
     settingsFile: typeof opts.settings === 'string' ? opts.settings : null,
     fileTop,
     cli: patchFrom(cliOnly.settings, cliOnly.given),
+    gas: { ...(file?.gas ?? {}) },
     sha256: sha256Json({ settings: all.settings, given: baseGiven, files }),
   };
 }
@@ -79,14 +85,16 @@ export function settingsForRecording(plan: SettingsPlan, patternPaths: readonly 
   const given = new Set<string>();
   applySettings(settings, plan.fileTop, given);
   const patterns: string[] = [];
+  let gas: GasFileSettings = { ...plan.gas };
   for (const f of plan.files) {
     if (!patternPaths.some((p) => patternMatches(f.pattern, p))) continue;
     applySettings(settings, f, given);
+    if (f.gas) gas = { ...gas, ...f.gas };
     patterns.push(f.pattern);
   }
   applySettings(settings, plan.cli, given);
   const sortedGiven = [...given].sort();
-  return { settings, given: sortedGiven, patterns, sha256: sha256Json({ settings, given: sortedGiven }) };
+  return { settings, given: sortedGiven, patterns, sha256: sha256Json({ settings, given: sortedGiven }), gas };
 }
 
 /**
@@ -111,4 +119,19 @@ export function unmatchedPatternWarnings(plan: SettingsPlan, inputs: readonly Pi
     );
   }
   return warnings;
+}
+
+/**
+ * A warning when the settings file holds blood-gas constants (`gas`, at the top level or in a `files` entry): batch
+ * has no blood-gas input, so they are not used (they apply to `analyse --gas` and the viewer); empty otherwise.
+ */
+export function unusedGasWarnings(plan: Pick<SettingsPlan, 'gas' | 'files' | 'settingsFile'>): string[] {
+  const where = [
+    ...(Object.keys(plan.gas).length ? ['the top-level "gas" section'] : []),
+    ...plan.files.filter((f) => f.gas && Object.keys(f.gas).length).map((f) => `the "gas" of pattern "${f.pattern}"`),
+  ];
+  if (!where.length) return [];
+  return [
+    `settings file ${plan.settingsFile ?? ''}: ${where.join(', ')} not used: batch has no blood-gas input; the gas constants apply to \`phasewise analyse --gas\``,
+  ];
 }

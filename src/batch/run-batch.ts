@@ -7,7 +7,7 @@ import { join, resolve } from 'node:path';
 import { writeFileAtomic } from '../node/atomic-write';
 import { VERSION } from '../version';
 import { expandInputs, type BatchInput } from './expand-inputs';
-import { settingsForRecording, unmatchedPatternWarnings, type SettingsPlan } from './file-settings';
+import { settingsForRecording, unmatchedPatternWarnings, unusedGasWarnings, type SettingsPlan } from './file-settings';
 import { countEntries, manifestJson, MANIFEST_FILE, MANIFEST_FORMAT, readManifest, type Manifest, type ManifestEntry } from './manifest';
 import { outputFolders } from './output-names';
 import { runTasks } from './pool';
@@ -68,7 +68,7 @@ export async function runBatch(o: BatchOptions): Promise<BatchOutcome> {
   const outDir = resolve(cwd, o.outDir);
   const { inputs: all, warnings: inputWarnings } = expandInputs(o.inputs, cwd, outDir);
   if (!all.length) throw new BatchUsageError(`no recordings found in ${o.inputs.join(' ')}: give files, folders (searched for .csv, .tsv, .txt) or quoted globs such as 'data/**/*.csv'`);
-  const warnings = [...inputWarnings, ...unmatchedPatternWarnings(o.plan, all)];
+  const warnings = [...inputWarnings, ...unmatchedPatternWarnings(o.plan, all), ...unusedGasWarnings(o.plan)];
   for (const w of warnings) o.onWarning?.(w);
   const picked = pickRecordings(all, o.shard);
   const done = resumableResults(o.resume, outDir);

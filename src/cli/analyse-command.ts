@@ -26,7 +26,7 @@ export function registerAnalyse(program: Command): void {
     .option('--quiet', 'print nothing on success');
   addGasOptions(addInputOptions(cmd)).action(async (file: string, opts: Record<string, unknown>) => {
     // the same settings resolution as batch: defaults < settings file < its matching `files` patterns < options;
-    // here the patterns are matched against the file's path from the working folder
+    // here the patterns are matched against the file's path from the working folder (the gas constants too: rec.gas)
     const rec = settingsForRecording(settingsPlan(opts), [recordingId(resolve(file), process.cwd())]);
     const settings = rec.settings;
     const given = new Set(rec.given);
@@ -34,7 +34,7 @@ export function registerAnalyse(program: Command): void {
     const result = await analyseFile(file, settings, { read: 'thread' });
     const out = String(opts.out);
     const gasInput = gas ? placeGasFile(gas, opts, result.report, result.core.duration_s) : null;
-    const o = composeOutputs(result.core, result.report, settings, given, new Map(), gasInput, gasOptionsFrom(opts, settings));
+    const o = composeOutputs(result.core, result.report, settings, given, new Map(), gasInput, gasOptionsFrom(opts, settings, rec.gas));
     const written: string[] = [];
     for (const name of outputNames(o)) {
       writeFileAtomic(join(out, name), outputFile(o, name)!);

@@ -7,6 +7,7 @@ import type { IngestReport } from '../ingest/index';
 import type { GasInput } from '../report/outputs';
 import { EXIT_CODES } from '../ingest/errors';
 import type { Settings } from '../settings';
+import type { GasFileSettings } from '../settings-file';
 import { CliError } from './errors';
 
 function positive(name: string) {
@@ -53,8 +54,15 @@ export function placeGasFile(table: GasTable, opts: Record<string, unknown>, rep
   }
 }
 
-export function gasOptionsFrom(opts: Record<string, unknown>, settings: Settings): GasOptions {
-  const o: GasOptions = { pb_mmhg: settings.ingest.pb_mmhg };
+/**
+ * Options of the gas analysis: the defaults (left to analyseGas), then the settings file's `gas` section (with its
+ * matching `files` patterns, settingsForRecording), then the command-line options. Every value set here is listed as
+ * given in summary.json (gas.settings.given).
+ */
+export function gasOptionsFrom(opts: Record<string, unknown>, settings: Settings, fileGas: GasFileSettings = {}): GasOptions {
+  // a key of the gas section has its GasOptions type (the compiler checks it; tests/browser/viewer-units.test.ts that
+  // the gas section holds exactly the constants of GAS_DEFAULTS and cardiac_output_l_min)
+  const o: GasOptions = { pb_mmhg: settings.ingest.pb_mmhg, ...fileGas };
   if (typeof opts.gasWindow === 'number') o.window_s = opts.gasWindow;
   if (typeof opts.weight === 'number') o.weight_kg = opts.weight;
   if (typeof opts.height === 'number') o.height_cm = opts.height;

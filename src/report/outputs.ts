@@ -25,8 +25,9 @@ export interface GasInput {
   file: string;
   samples: GasSample[];
   rejected: { line: number; reason: string }[];
-  /** patient and method options of the gas analysis (weight, height, sex, window, cardiac output); the CLI's
-   *  --weight/--height/--sex/--gas-window/--cardiac-output */
+  /** patient and method options of the gas analysis (weight, height, sex) and its constants (the settings file's
+   *  `gas` section: window, cardiac output, R, ...); the viewer's sidebar. The CLI passes them as composeOutputs'
+   *  gasOptions (gasOptionsFrom) */
   options?: Partial<GasOptions>;
   /** placement of clock times (placeGasTimes): warnings (a --start that differs from the recording's clock) and the
    *  start the clock times were measured from; absent for a time_s column */

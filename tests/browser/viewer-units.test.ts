@@ -11,6 +11,7 @@ import {
   composeOutputs,
   createAnalyser,
   defaultSettings,
+  GAS_DEFAULTS,
   detExp,
   detLog,
   excludedStatus,
@@ -28,7 +29,8 @@ import {
 import { expectClose } from '../helpers/expect-close';
 import { fletcherRegions, fowlerAreas, polygonArea } from '../../web/breath-shapes';
 import { breathCurve, GeometryWriter } from '../../web/geometry-store';
-import { changedKeys, changedSettingsFile, fieldSpecs, parseField, withSetting } from '../../web/settings-form';
+import { changedKeys, changedSettingsFile, fieldSpecs, parseField, settingsFileText, settingsFromFile, withSetting } from '../../web/settings-form';
+import { gasFieldId, gasFieldSpecs, gasSettingsFromTexts } from '../../web/gas-settings';
 import { packRows, unpackRows } from '../../web/row-columns';
 import { SignalStore } from '../../web/signal-store';
 import { ROOT } from './harness';
@@ -313,5 +315,29 @@ describe('settings form', () => {
     expect(parseField(spec('apparatus_ml'), '')).toBeUndefined();
     expect(parseField(spec('apparatus_ml'), 'abc')).toBeUndefined();
     expect(parseField(spec('bohr_inspired_term'), false)).toBe(false);
+  });
+});
+
+describe('blood-gas constants in the sidebar', () => {
+  it('offers every key of GasOptions the settings file takes, with the defaults of GAS_DEFAULTS', () => {
+    expect(gasFieldSpecs().map((s) => s.key).sort()).toEqual(Object.keys(GAS_DEFAULTS).concat('cardiac_output_l_min').sort());
+    expect(gasFieldSpecs().find((s) => s.key === 'end_capillary_saturation')!.options.sort()).toEqual(['odc', 'one']);
+    expect(gasFieldId('window_s')).toBe('gas-window');
+  });
+
+  it('reads field texts with the settings file\'s checks: empty = default, a bad value is named and left out', () => {
+    const r = gasSettingsFromTexts({ rq: '1,0', band_level: '0.95', end_capillary_saturation: 'one', window_s: '', analyser_sd_mmhg: '-1', co2_slope_k: 'x' });
+    expect(r.gas).toEqual({ rq: 1, band_level: 0.95, end_capillary_saturation: 'one' });
+    expect(r.invalid.sort()).toEqual(['analyser_sd_mmhg', 'co2_slope_k']);
+    expect(r.problem).toMatch(/^blood-gas setting co2_slope_k: /);
+    expect(gasSettingsFromTexts({ band_level: '0.5' }).problem).toMatch(/band_level/);
+  });
+
+  it('the exported settings file carries them as `gas`, and loading it gives them back', () => {
+    const s = withSetting(defaultSettings(), 'analysis', 'apparatus_ml', 12);
+    const text = settingsFileText(s, { rq: 1, band_level: 0.95 });
+    expect(JSON.parse(text)).toEqual({ analysis: { apparatus_ml: 12 }, gas: { rq: 1, band_level: 0.95 } });
+    expect(settingsFromFile(text, 'x.json').gas).toEqual({ rq: 1, band_level: 0.95 });
+    expect(JSON.parse(settingsFileText(s))).toEqual({ analysis: { apparatus_ml: 12 } });
   });
 });

@@ -305,6 +305,29 @@ describe.skipIf(!HAVE)('review viewer in headless Chromium', () => {
     }
   });
 
+  it("takes the blood-gas constants: the same files as analyse --settings with a gas section, which its settings file carries", async () => {
+    const gasDir = join(tmp, 'gasrun');
+    writeFileSync(join(gasDir, 'gas-constants.json'), JSON.stringify({ gas: { rq: 1, band_level: 0.95 } }));
+    run(process.execPath, [join(ROOT, 'bin', 'phasewise.cjs'), 'analyse', SAMPLE, '--gas', 'gas.csv', '--settings', 'gas-constants.json', '--out', 'out-constants', '--quiet'], gasDir);
+    await page.click('details.gas-constants summary');
+    for (const [id, value] of [['#gas-set-rq', '1'], ['#gas-set-band_level', '0.95']] as const) {
+      await page.fill(id, value);
+      await page.locator(id).evaluate((el) => (el as HTMLInputElement).blur());
+      expect(await waitState(page, ['done'])).toBe('done');
+    }
+    for (const name of ['gas.csv', 'summary.json', 'paco2_estimates.csv']) {
+      const f = await downloadText(page, EXPORT_BUTTON[name]!);
+      expect(f.text, name).toBe(readFileSync(join(gasDir, 'out-constants', name), 'utf8'));
+    }
+    const settings = await downloadText(page, '#export-settings');
+    expect(JSON.parse(settings.text)).toEqual({ gas: { rq: 1, band_level: 0.95 } });
+    for (const id of ['#gas-set-rq', '#gas-set-band_level']) {
+      await page.fill(id, '');
+      await page.locator(id).evaluate((el) => (el as HTMLInputElement).blur());
+      expect(await waitState(page, ['done'])).toBe('done');
+    }
+  });
+
   it('writes a settings file the CLI reads to the same outputs', async () => {
     await page.click('#settings-button');
     await page.fill('#set-analysis-apparatus_ml', '12');
