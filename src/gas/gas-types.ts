@@ -21,10 +21,14 @@ export interface GasSample {
   pvco2_mmhg: number;
   /** venous PO2 (optional extra column); when absent it is estimated from svo2_pct with the Severinghaus curve */
   pvo2_mmhg: number;
+  /** haemoglobin, g/dL (converted from the unit its column declared: hb_g_dl, hb_g_l or hb_mmol_l) */
   hb_g_dl: number;
+  /** the Hb value and unit as given, when the column declared another unit than g/dL */
+  hb_given?: { value: number; unit: 'g/L' | 'mmol/L' };
   /** inspired O2, % (21-100) */
   fio2_pct: number;
-  /** patient temperature, deg C (recorded and passed through; blood-gas values are used as reported) */
+  /** patient temperature, deg C: PaCO2 (and a measured PvCO2) are corrected to it for the gradient (GasOptions
+   *  paco2_temperature); the other values are used as measured at 37 deg C */
   temp_c: number;
 }
 
