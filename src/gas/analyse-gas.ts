@@ -39,6 +39,8 @@ interface SampleTally {
   warnings: string[];
   /** numbers of the samples whose shunt part assumed the default P(v-a)CO2 */
   defaultPvco2Samples: number[];
+  /** numbers of the samples whose gradient used PaCO2 corrected to temp_c */
+  correctedSamples: number[];
   /** gradient of the last sample that had one (NaN before the first) and that sample's number */
   previousGradient: number;
   previousSample: number;
@@ -232,6 +234,7 @@ function analyseSample(sample: GasSample, number: number, ctx: SampleContext, ta
   }
   const paco2 = paco2Basis(sample, ctx.paco2Temperature);
   notes.push(...inputNotes(sample, paco2));
+  if (paco2.corrected) tally.correctedSamples.push(number);
   const dead = sampleDeadSpace(paco2.used_mmhg, used, med, ctx.analysis);
   if (ctx.weight.basis === 'none') missing.push('weight_kg');
 
@@ -328,11 +331,19 @@ export function analyseGas(
   const weight = chooseWeight(opts);
   const paco2Temperature = opts.paco2_temperature ?? d.paco2_temperature.value;
   const ctx: SampleContext = { breaths, windowS, gradientChangeMmhg, analysis, shuntSettings, weight, paco2Temperature };
-  const tally: SampleTally = { warnings: [...weight.warnings], defaultPvco2Samples: [], previousGradient: NaN, previousSample: 0 };
+  const tally: SampleTally = {
+    warnings: [...weight.warnings], defaultPvco2Samples: [], correctedSamples: [], previousGradient: NaN, previousSample: 0,
+  };
 
   const ordered = [...samples].sort((a, b) => a.time_s - b.time_s || a.line - b.line);
   const rows = ordered.map((sample, i) => analyseSample(sample, i + 1, ctx, tally));
   const warnings = tally.warnings;
+  if (tally.correctedSamples.length > 0) {
+    warnings.push(
+      `gas sample(s) ${tally.correctedSamples.join(', ')}: PaCO2 corrected to the patient's temperature (temp_c) for the gradient, AVDSF and dead spaces ` +
+        '(setting paco2_temperature corrected); the PaCO2 column shows the value measured at 37 °C, paco2_corrected_mmhg the one used',
+    );
+  }
   if (tally.defaultPvco2Samples.length > 0) {
     warnings.push(
       `PvCO2 was not measured for gas sample(s) ${tally.defaultPvco2Samples.join(', ')}: the shunt part of the gradient assumes ` +

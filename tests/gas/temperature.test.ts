@@ -29,6 +29,10 @@ describe('PaCO2 corrected to temp_c (analyseGas)', () => {
     expectClose(row.vdvt_enghoff, 0.377747, { abs: 1e-5 });
     expectClose(row.vd_phys_ml, 0.377747 * 500, { abs: 5e-3 });
     expect(row.notes).toContain('PaCO2 corrected to 32.0 °C (32.1 mmHg) used');
+    expect(result.warnings).toContain(
+      "gas sample(s) 1: PaCO2 corrected to the patient's temperature (temp_c) for the gradient, AVDSF and dead spaces " +
+        '(setting paco2_temperature corrected); the PaCO2 column shows the value measured at 37 °C, paco2_corrected_mmhg the one used',
+    );
   });
 
   it('the setting is recorded; paco2_temperature measured keeps the 37 °C value for the gradient', () => {
@@ -46,6 +50,7 @@ describe('PaCO2 corrected to temp_c (analyseGas)', () => {
     expect(Number.isNaN(r.paco2_corrected_mmhg)).toBe(true);
     expectClose(r.gradient_mmhg, 10, { abs: 1e-12 });
     expect(r.notes).not.toContain('corrected');
+    expect(analyseGas(breaths(), [makeSample({ time_s: 60, paco2_mmhg: 40 })], { pb_mmhg: 760 }).warnings.join()).not.toContain('temp_c');
   });
 
   it('a measured PvCO2 is corrected with the same factor for the shunt part of the gradient', () => {
