@@ -61,6 +61,18 @@ describe.skipIf(!existsSync(cli))('phasewise command line', () => {
     expectOneLineFailure(run('analyse', sample, '--out', join(dir, 'x'), '--gas', join(dir, 'gas.csv')), 3, 'gas.csv');
   });
 
+  it('a gas row with Hb in a wrong unit is named on the terminal with the file, line, column, value and likely unit', () => {
+    const gasFile = join(dir, 'gas-hb.csv');
+    writeFileSync(gasFile, 'time_s,paco2_mmhg,hb_g_dl\n60,40,120\n100,40,13\n');
+    const out = join(dir, 'hb-gas');
+    const r = run('analyse', sample, '--out', out, '--gas', gasFile);
+    expect(r.status, r.stderr).toBe(0);
+    expect(r.stdout).toContain(
+      `gas note: ${gasFile}: line 2, column hb_g_dl: 120 is outside 2-25 g/dL; looks like g/L (= 12.0 g/dL); name the column hb_g_l; row not used`,
+    );
+    expect(readFileSync(join(out, 'gas.csv'), 'utf8').trim().split('\n')).toHaveLength(2);
+  });
+
   it('gas clock times without --start on a recording without a clock: exit 3, the message names --start HH:MM:SS', () => {
     writeFileSync(join(dir, 'gas-clock.csv'), 'clock,paco2_mmhg\n09:31:00,40\n');
     expectOneLineFailure(run('analyse', sample, '--out', join(dir, 'x'), '--gas', join(dir, 'gas-clock.csv')), 3, '--start HH:MM:SS');

@@ -5,7 +5,7 @@ import { analyseFile } from '../node/analyse-file';
 import { writeFileAtomic } from '../node/atomic-write';
 import { gasMetric, type NumericGasKey } from '../metrics/registry';
 import { formatNumber } from '../report/format';
-import { composeOutputs, outputFile, outputNames } from '../report/outputs';
+import { composeOutputs, outputFile, outputNames, type GasInput } from '../report/outputs';
 import { formatSummaryText } from '../report/summary';
 import { formatEventLine } from '../trends/index';
 import { isBeforeRecording, type GasResult } from '../gas/index';
@@ -46,7 +46,7 @@ export function registerAnalyse(program: Command): void {
       return;
     }
     let text = formatSummaryText(o.summary);
-    if (o.gas) text = insertBeforeCaution(text, formatGasText(o.gas));
+    if (o.gas) text = insertBeforeCaution(text, formatGasText(o.gas, gasInput!));
     text = insertBeforeCaution(
       text,
       o.events.length ? ['events (patterns in the data, not diagnoses):', ...o.events.map((e) => `  ${formatEventLine(e)}`)].join('\n') : 'events: none detected',
@@ -67,7 +67,9 @@ const GAS_TERMINAL_COLUMNS: [NumericGasKey, string, number][] = [
   ['gradient_shunt_mmhg', 'by shunt', 10], ['gradient_rest_mmhg', 'rest', 7],
 ];
 
-function formatGasText(g: GasResult): string {
+/** The blood-gas block of the terminal: the table, the rows of the gas file that were not used (file and reason),
+ *  then the gas notes. */
+function formatGasText(g: GasResult, input: Pick<GasInput, 'file' | 'rejected'>): string {
   const f = (x: number, d: number) => (Number.isFinite(x) ? formatNumber(Number(x.toFixed(d))) : '—');
   const lines = ['blood gases (median of ok breaths in the window before each sample):'];
   lines.push(`${GAS_TERMINAL_COLUMNS.map(([, head, width]) => head.padStart(width)).join('')}  n`);
@@ -76,6 +78,7 @@ function formatGasText(g: GasResult): string {
     const mark = isBeforeRecording(r) ? '  before the recording' : r.gradient_changed ? '  gradient changed' : '';
     lines.push(`${cells}  ${r.breaths_used}${mark}`);
   }
+  for (const r of input.rejected) lines.push(`gas note: ${input.file}: ${r.reason}; row not used`);
   for (const w of g.warnings) lines.push(`gas note: ${w}`);
   return lines.join('\n');
 }

@@ -6,7 +6,8 @@ import type { BreathRow } from '../types';
 import { isBeforeRecording } from './before-recording';
 import { estimatePaco2 } from './estimate-paco2';
 import { GAS_DEFAULTS } from './gas-defaults';
-import type { GasAnalysisSettings, GasOptions, GasResult, GasRow, GasSample } from './gas-types';
+import type { GasAnalysisSettings, GasOptions, GasResult, GasRow, GasSample, Paco2Temperature } from './gas-types';
+import { paco2Basis, type Paco2Basis } from './paco2-basis';
 import { median as finiteMedian } from '../numeric/stats';
 import { selectWindowBreaths } from './select-window-breaths';
 import { shuntPart, type ShuntPart, type ShuntSettings } from './shunt-part';
@@ -30,6 +31,7 @@ interface SampleContext {
   analysis: GasAnalysisSettings;
   shuntSettings: ShuntSettings;
   weight: WeightChoice;
+  paco2Temperature: Paco2Temperature;
 }
 
 /** What the per-sample step carries from one sample to the next and collects for the whole analysis. */
@@ -37,6 +39,8 @@ interface SampleTally {
   warnings: string[];
   /** numbers of the samples whose shunt part assumed the default P(v-a)CO2 */
   defaultPvco2Samples: number[];
+  /** numbers of the samples whose gradient used PaCO2 corrected to temp_c */
+  correctedSamples: number[];
   /** gradient of the last sample that had one (NaN before the first) and that sample's number */
   previousGradient: number;
   previousSample: number;
@@ -127,6 +131,7 @@ function gradientChange(label: string, number: number, gradient: number, thresho
 interface RowParts {
   number: number;
   sample: GasSample;
+  paco2: Paco2Basis;
   used: readonly BreathRow[];
   med: BreathMedians;
   dead: SampleDeadSpace;
@@ -140,13 +145,13 @@ interface RowParts {
 /** Assembles the output row of one sample (column order as in GasRow). */
 function gasRow(r: RowParts): GasRow {
   const { sample, med, dead, shunt } = r;
-  const paco2 = sample.paco2_mmhg;
+  const paco2 = r.paco2.used_mmhg;
   const perKg = (v: number) => v / r.weightKg;
   return {
     sample: r.number,
     line: sample.line,
     time_s: sample.time_s,
-    paco2_mmhg: paco2,
+    paco2_mmhg: sample.paco2_mmhg,
     breaths_used: r.used.length,
     petco2_mmhg: med.petco2_mmhg,
     peco2_mmhg: med.peco2_mmhg,
@@ -174,6 +179,8 @@ function gasRow(r: RowParts): GasRow {
     missing_inputs: r.missing.join(';'),
     notes: r.notes.join('; '),
     temp_c: sample.temp_c,
+    paco2_corrected_mmhg: r.paco2.corrected_mmhg,
+    hb_g_dl: sample.hb_g_dl,
   };
 }
 
@@ -186,20 +193,35 @@ const NO_SHUNT: ShuntPart = {
  * The row of a sample drawn before the recording (time_s < 0): listed with its own values and a note, not matched
  * with breaths (there are none before it), so every derived value is empty and it starts no gradient comparison.
  */
-function beforeRecordingRow(sample: GasSample, number: number, label: string, tally: SampleTally): GasRow {
+function beforeRecordingRow(sample: GasSample, number: number, label: string, ctx: SampleContext, tally: SampleTally): GasRow {
   const ago = `drawn ${fmt(-sample.time_s)} s before its start`;
   tally.warnings.push(`${label}: before the recording (${ago}); not matched with breaths and not used for per-breath Enghoff values, PaCO2 estimates or events`);
   const med = Object.fromEntries(BREATH_FIELDS.map((f) => [f, NaN])) as BreathMedians;
   const dead: SampleDeadSpace = { gradient: NaN, enghoff: NaN, vdPhys: NaN, vdAlv: NaN };
   const notes = [`before the recording: ${ago}; not matched with breaths`];
-  return gasRow({ number, sample, used: [], med, dead, weightKg: NaN, shunt: NO_SHUNT, change: { change: NaN, changed: false }, missing: [], notes });
+  const paco2 = paco2Basis(sample, ctx.paco2Temperature);
+  return gasRow({ number, sample, paco2, used: [], med, dead, weightKg: NaN, shunt: NO_SHUNT, change: { change: NaN, changed: false }, missing: [], notes });
+}
+
+/** Notes on how the sample's inputs were taken: Hb converted from another unit, PaCO2 at the patient's temperature. */
+function inputNotes(sample: GasSample, paco2: Paco2Basis): string[] {
+  const notes: string[] = [];
+  if (sample.hb_given) notes.push(`Hb ${sample.hb_given.value} ${sample.hb_given.unit} = ${fmt(sample.hb_g_dl, 2)} g/dL`);
+  if (!Number.isFinite(sample.temp_c)) return notes;
+  const atTemp = `${fmt(sample.temp_c)} °C (${fmt(paco2.corrected_mmhg)} mmHg)`;
+  notes.push(
+    paco2.corrected
+      ? `PaCO2 corrected to ${atTemp} used for the gradient and dead space`
+      : `PaCO2 as measured at 37 °C used (paco2_temperature measured); corrected to ${atTemp}`,
+  );
+  return notes;
 }
 
 /** Analyses one blood-gas sample (number is 1-based, in time order): its row, with warnings added to the tally. */
 function analyseSample(sample: GasSample, number: number, ctx: SampleContext, tally: SampleTally): GasRow {
   const clock = sample.clock === undefined ? '' : `clock ${sample.clock}, `;
   const label = `gas sample ${number} (line ${sample.line}, ${clock}t = ${fmt(sample.time_s)} s)`;
-  if (isBeforeRecording(sample)) return beforeRecordingRow(sample, number, label, tally);
+  if (isBeforeRecording(sample)) return beforeRecordingRow(sample, number, label, ctx, tally);
   const used = selectWindowBreaths(ctx.breaths, sample.time_s, ctx.windowS, ctx.analysis.summary_breaths);
   const med = windowMedians(used);
   const missing: string[] = [];
@@ -210,18 +232,21 @@ function analyseSample(sample: GasSample, number: number, ctx: SampleContext, ta
   } else {
     for (const f of BREATH_FIELDS) if (!Number.isFinite(med[f])) missing.push(`breath.${f}`);
   }
-  const dead = sampleDeadSpace(sample.paco2_mmhg, used, med, ctx.analysis);
+  const paco2 = paco2Basis(sample, ctx.paco2Temperature);
+  notes.push(...inputNotes(sample, paco2));
+  if (paco2.corrected) tally.correctedSamples.push(number);
+  const dead = sampleDeadSpace(paco2.used_mmhg, used, med, ctx.analysis);
   if (ctx.weight.basis === 'none') missing.push('weight_kg');
 
   const vco2MlPerMin = finiteMedian(used.map((b) => b.vtco2_ml)) * finiteMedian(used.map((b) => b.rr_bpm));
-  const shunt = shuntPart(sample, ctx.shuntSettings, vco2MlPerMin);
+  const shunt = shuntPart(sample, ctx.shuntSettings, vco2MlPerMin, paco2);
   missing.push(...shunt.missing);
   notes.push(...shunt.notes);
   if (shunt.pvco2_source === 'default') tally.defaultPvco2Samples.push(number);
   shuntWarnings(label, sample, shunt, tally.warnings);
 
   const change = gradientChange(label, number, dead.gradient, ctx.gradientChangeMmhg, tally);
-  return gasRow({ number, sample, used, med, dead, weightKg: ctx.weight.weight_kg, shunt, change, missing, notes });
+  return gasRow({ number, sample, paco2, used, med, dead, weightKg: ctx.weight.weight_kg, shunt, change, missing, notes });
 }
 
 /** Inputs of the settings record besides the options themselves. */
@@ -230,6 +255,7 @@ interface SettingsParts {
   analysis: GasAnalysisSettings;
   shuntSettings: ShuntSettings;
   weight: WeightChoice;
+  paco2Temperature: Paco2Temperature;
   windowS: number;
   gradientChangeMmhg: number;
   band: { band_level: number; analyser_sd_mmhg: number; drift_prior_mmhg2_per_h: number };
@@ -257,6 +283,11 @@ function gasSettings(s: SettingsParts): Record<string, unknown> {
     cardiac_output_l_min: shuntSettings.cardiac_output_l_min,
     co2_slope_k: shuntSettings.co2_slope_k,
     gradient_change_mmhg: s.gradientChangeMmhg,
+    paco2_temperature: s.paco2Temperature,
+    paco2_temperature_rule:
+      s.paco2Temperature === 'corrected'
+        ? 'with temp_c: PaCO2 x 10^(0.019 (temp_c - 37)) for the gradient, AVDSF, Enghoff and dead spaces (a measured PvCO2 likewise); without temp_c: as measured'
+        : 'PaCO2 as measured at 37 °C; paco2_corrected_mmhg reported beside it',
     ...s.band,
     weight_basis: weight.basis,
     weight_used_kg: Number.isFinite(weight.weight_kg) ? weight.weight_kg : null,
@@ -274,6 +305,8 @@ function gasSettings(s: SettingsParts): Record<string, unknown> {
  *
  * Per sample:
  * - window medians (ok and caution breaths, see selectWindowBreaths and usableForSummary) of PETCO2, PĒCO2, VTe, VDaw and per-breath Bohr VD/VT;
+ * - PaCO2 = the measured value, or with temp_c and paco2_temperature 'corrected' (the default) the value at the
+ *   patient's temperature (paco2Basis, pco2AtTemperature); every PaCO2 below is that one;
  * - gradient = PaCO2 - PETCO2; AVDSF = gradient / PaCO2;
  * - Enghoff at the sensor = (PaCO2 - median PĒCO2)/(PaCO2 - median PICO2), the per-breath function
  *   (enghoffDeadSpaceFraction) with the inspired term when analysis.inspired_term is on (bohr_inspired_term of the breaths);
@@ -296,12 +329,21 @@ export function analyseGas(
   const gradientChangeMmhg = opts.gradient_change_mmhg ?? d.gradient_change_mmhg.value;
   const shuntSettings = resolveShuntSettings(opts);
   const weight = chooseWeight(opts);
-  const ctx: SampleContext = { breaths, windowS, gradientChangeMmhg, analysis, shuntSettings, weight };
-  const tally: SampleTally = { warnings: [...weight.warnings], defaultPvco2Samples: [], previousGradient: NaN, previousSample: 0 };
+  const paco2Temperature = opts.paco2_temperature ?? d.paco2_temperature.value;
+  const ctx: SampleContext = { breaths, windowS, gradientChangeMmhg, analysis, shuntSettings, weight, paco2Temperature };
+  const tally: SampleTally = {
+    warnings: [...weight.warnings], defaultPvco2Samples: [], correctedSamples: [], previousGradient: NaN, previousSample: 0,
+  };
 
   const ordered = [...samples].sort((a, b) => a.time_s - b.time_s || a.line - b.line);
   const rows = ordered.map((sample, i) => analyseSample(sample, i + 1, ctx, tally));
   const warnings = tally.warnings;
+  if (tally.correctedSamples.length > 0) {
+    warnings.push(
+      `gas sample(s) ${tally.correctedSamples.join(', ')}: PaCO2 corrected to the patient's temperature (temp_c) for the gradient, AVDSF and dead spaces ` +
+        '(setting paco2_temperature corrected); the PaCO2 column shows the value measured at 37 °C, paco2_corrected_mmhg the one used',
+    );
+  }
   if (tally.defaultPvco2Samples.length > 0) {
     warnings.push(
       `PvCO2 was not measured for gas sample(s) ${tally.defaultPvco2Samples.join(', ')}: the shunt part of the gradient assumes ` +
@@ -313,7 +355,7 @@ export function analyseGas(
     analyser_sd_mmhg: opts.analyser_sd_mmhg ?? d.analyser_sd_mmhg.value,
     drift_prior_mmhg2_per_h: opts.drift_prior_mmhg2_per_h ?? d.drift_prior_mmhg2_per_h.value,
   };
-  const settings = gasSettings({ opts, analysis, shuntSettings, weight, windowS, gradientChangeMmhg, band });
+  const settings = gasSettings({ opts, analysis, shuntSettings, weight, paco2Temperature, windowS, gradientChangeMmhg, band });
   const estimates = estimatePaco2(breaths, rows, { ...band, summary_breaths: analysis.summary_breaths });
   return { rows, estimates, settings, warnings };
 }

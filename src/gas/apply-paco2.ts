@@ -6,15 +6,22 @@ import { enghoffDeadSpaceFraction } from '../physiology/enghoff-dead-space-fract
 import { patientDeadSpace } from '../physiology/patient-dead-space';
 import type { BreathRow } from '../types';
 import { samplesInRecording } from './before-recording';
-import type { GasSample } from './gas-types';
+import { GAS_DEFAULTS } from './gas-defaults';
+import type { GasSample, Paco2Temperature } from './gas-types';
+import { paco2Basis } from './paco2-basis';
 
-export function applyArterialPco2(rows: BreathRow[], samples: readonly GasSample[], inspiredTerm: boolean, apparatusMl: number): void {
+/** paco2Temperature: the PaCO2 basis of the gas analysis (paco2Basis; default that of GAS_DEFAULTS), so that the
+ *  per-breath values use the PaCO2 of the gas table's gradient. */
+export function applyArterialPco2(
+  rows: BreathRow[], samples: readonly GasSample[], inspiredTerm: boolean, apparatusMl: number,
+  paco2Temperature: Paco2Temperature = GAS_DEFAULTS.paco2_temperature.value,
+): void {
   const sorted = samplesInRecording(samples).sort((a, b) => a.time_s - b.time_s);
   let k = -1;
   for (const r of rows) {
     while (k + 1 < sorted.length && sorted[k + 1]!.time_s <= r.t_start_s) k++;
     if (k < 0) continue;
-    const paco2 = sorted[k]!.paco2_mmhg;
+    const paco2 = paco2Basis(sorted[k]!, paco2Temperature).used_mmhg;
     const inspired = inspiredTerm && Number.isFinite(r.fico2_mmhg) ? r.fico2_mmhg : 0;
     const enghoff = patientDeadSpace(enghoffDeadSpaceFraction(paco2, r.peco2_mmhg, inspired), r.vt_exp_ml, apparatusMl);
     r.vdvt_enghoff = enghoff.fraction;

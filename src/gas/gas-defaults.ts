@@ -41,6 +41,12 @@ export const GAS_DEFAULTS = {
     source:
       'Kampelmacher MJ, van Kesteren RG, Winckers EK 1997, Eur Respir J 10:1341-1344: SD of a random PCO2 measurement on a random blood-gas analyser',
   },
+  paco2_temperature: {
+    value: 'corrected' as 'corrected' | 'measured',
+    source:
+      'Nunn JF, Bergman NA, Bunatyan A, Coleman AJ 1965, J Appl Physiol 20:23-26: PCO2(T) = PCO2(37) x 10^(0.019 (T - 37)); ' +
+      "corrected by default because end-tidal gas equilibrates with blood at the patient's temperature (derived here); used only when temp_c is given",
+  },
   drift_prior_mmhg2_per_h: {
     value: 4,
     source: 'our choice, no source: the gradient drifts by about 2 mmHg (SD) per hour until the gases show their own drift',

@@ -21,10 +21,14 @@ export interface GasSample {
   pvco2_mmhg: number;
   /** venous PO2 (optional extra column); when absent it is estimated from svo2_pct with the Severinghaus curve */
   pvo2_mmhg: number;
+  /** haemoglobin, g/dL (converted from the unit its column declared: hb_g_dl, hb_g_l or hb_mmol_l) */
   hb_g_dl: number;
+  /** the Hb value and unit as given, when the column declared another unit than g/dL */
+  hb_given?: { value: number; unit: 'g/L' | 'mmol/L' };
   /** inspired O2, % (21-100) */
   fio2_pct: number;
-  /** patient temperature, deg C (recorded and passed through; blood-gas values are used as reported) */
+  /** patient temperature, deg C: PaCO2 (and a measured PvCO2) are corrected to it for the gradient (GasOptions
+   *  paco2_temperature); the other values are used as measured at 37 deg C */
   temp_c: number;
 }
 
@@ -58,6 +62,10 @@ export interface GasParseResult {
   /** for a clock column: the start the clock times are measured from and where it came from */
   clock: { start: string; source: 'recording' | 'start option' } | null;
 }
+
+/** Which PaCO2 the gradient and dead spaces use when temp_c is given: 'corrected' = at the patient's temperature
+ *  (pH-stat), 'measured' = as measured at 37 deg C (alpha-stat). */
+export type Paco2Temperature = 'corrected' | 'measured';
 
 /** Options of analyseGas. Every value actually used is recorded in GasResult.settings. */
 export interface GasOptions {
@@ -94,6 +102,8 @@ export interface GasOptions {
   analyser_sd_mmhg?: number;
   /** drift of the gradient assumed before two gases show their own, mmHg^2 per hour (default 4) */
   drift_prior_mmhg2_per_h?: number;
+  /** PaCO2 for the gradient and dead spaces when temp_c is given (default 'corrected') */
+  paco2_temperature?: Paco2Temperature;
 }
 
 /** Settings of the breath analysis that the gas step follows, so that its dead spaces match the breaths' own. */
@@ -160,8 +170,13 @@ export interface GasRow {
   missing_inputs: string;
   /** assumptions and fallbacks used for this row, ';'-separated */
   notes: string;
-  /** patient temperature from the gas file, passed through */
+  /** patient temperature from the gas file */
   temp_c: number;
+  /** PaCO2 corrected to temp_c (pco2AtTemperature); NaN without temp_c. The gradient uses it with the setting
+   *  paco2_temperature 'corrected' (the default) */
+  paco2_corrected_mmhg: number;
+  /** haemoglobin used, g/dL (converted from the gas file's unit) */
+  hb_g_dl: number;
 }
 
 /** Estimated PaCO2 for one ok breath after the first blood gas: PETCO2 + most recent gradient. */

@@ -11,6 +11,7 @@ export type {
   Paco2Estimate,
   ShuntMethod,
   Pvco2Source,
+  Paco2Temperature,
 } from './gas-types';
 export { parseGasCsv, readGasCsv, placeGasTimes, GAS_INPUT_COLUMNS } from './parse-gas-csv';
 export { parseClockTime, clockOffsetS, type ClockTime } from './parse-clock';
@@ -23,4 +24,5 @@ export { GAS_DEFAULTS } from './gas-defaults';
 export { GAS_COLUMNS, PACO2_ESTIMATE_COLUMNS } from './gas-columns';
 export { median as finiteMedian } from '../numeric/stats';
 export { applyArterialPco2 } from './apply-paco2';
+export { paco2Basis, type Paco2Basis } from './paco2-basis';
 export { isBeforeRecording, samplesInRecording } from './before-recording';

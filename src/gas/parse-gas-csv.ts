@@ -2,8 +2,9 @@ import Papa from 'papaparse';
 import { formatClockStamp } from '../ingest/clock-time';
 import type { GasClockOptions, GasParseResult, GasSample, GasTable } from './gas-types';
 import { clockOffsetS, parseClockTime, type ClockTime } from './parse-clock';
+import { hbToGPerDl, type HbUnit } from '../physiology/haemoglobin-units';
 
-type NumericColumn = Exclude<keyof GasSample, 'line' | 'time_s' | 'clock'>;
+type NumericColumn = Exclude<keyof GasSample, 'line' | 'time_s' | 'clock' | 'hb_given'>;
 
 /**
  * Plausibility limits of each numeric gas column (inclusive). Our choice, no source: wide physiological limits meant
@@ -24,12 +25,22 @@ const LIMITS: Record<NumericColumn, { min: number; max: number; unit: string }> 
 /** Columns given in percent: a value <= 1 is almost surely a fraction. */
 const PERCENT_COLUMNS: ReadonlySet<NumericColumn> = new Set(['sao2_pct', 'svo2_pct', 'fio2_pct']);
 
-const OPTIONAL_COLUMNS: readonly NumericColumn[] = [
-  'pao2_mmhg', 'sao2_pct', 'svo2_pct', 'pvco2_mmhg', 'pvo2_mmhg', 'hb_g_dl', 'fio2_pct', 'temp_c',
-];
+/** Optional columns read as they are (haemoglobin has its own columns, HB_COLUMNS). */
+const OPTIONAL_COLUMNS: readonly NumericColumn[] = ['pao2_mmhg', 'sao2_pct', 'svo2_pct', 'pvco2_mmhg', 'pvo2_mmhg', 'fio2_pct', 'temp_c'];
+
+/**
+ * Haemoglobin columns: the name declares the unit (the gas file's rule for every column: unit in the name, no
+ * bracketed units). Values are converted to g/dL (hbToGPerDl). Any other header that names haemoglobin stops the file
+ * (HB_LIKE), so that no Hb column is ignored or read in a guessed unit.
+ */
+const HB_COLUMNS: Readonly<Record<string, HbUnit>> = { hb_g_dl: 'g/dL', hb_g_l: 'g/L', hb_mmol_l: 'mmol/L' };
+
+/** Header names that look like haemoglobin (hb, hgb, cthb, haemoglobin ... followed by nothing or a unit part);
+ *  hbo2, cohb, methb and other derivatives do not match. */
+const HB_LIKE = /^(hb|hgb|thb|cthb|haemoglobin|hemoglobin)($|[\s_\-.,:;[({])/;
 
 /** All columns the gas file may have (time_s or clock, then the gas values). */
-export const GAS_INPUT_COLUMNS: readonly string[] = ['time_s', 'clock', 'paco2_mmhg', ...OPTIONAL_COLUMNS];
+export const GAS_INPUT_COLUMNS: readonly string[] = ['time_s', 'clock', 'paco2_mmhg', ...OPTIONAL_COLUMNS.slice(0, 5), ...Object.keys(HB_COLUMNS), 'fio2_pct', 'temp_c'];
 
 const HOW = 'the blood-gas file needs a header with time_s (or clock) and paco2_mmhg';
 
@@ -65,8 +76,12 @@ function indexColumns(header: string[], fileName: string): { columnIndex: Map<st
   header.forEach((name, i) => {
     if (columnIndex.has(name)) throw new Error(`${fileName}: column '${name}' appears twice in the header; keep one`);
     if (GAS_INPUT_COLUMNS.includes(name)) columnIndex.set(name, i);
-    else ignoredColumns.push(name);
+    else if (HB_LIKE.test(name)) {
+      throw new Error(`${fileName}: column '${name}' looks like haemoglobin but its unit is not declared; name it ${Object.keys(HB_COLUMNS).join(', ').replace(/, (?=[^,]*$)/, ' or ')}`);
+    } else ignoredColumns.push(name);
   });
+  const hbColumns = Object.keys(HB_COLUMNS).filter((name) => columnIndex.has(name));
+  if (hbColumns.length > 1) throw new Error(`${fileName}: Hb is given in two columns (${hbColumns.join(', ')}); keep one`);
   return { columnIndex, ignoredColumns };
 }
 
@@ -122,6 +137,41 @@ function checkPlausible(name: NumericColumn, value: number, line: number): void 
   }
 }
 
+/** Plausible Hb, g/dL (the LIMITS of hb_g_dl); the range of another unit is this one converted (derived here). */
+function plausibleHb(value: number, unit: HbUnit): boolean {
+  const gPerDl = hbToGPerDl(value, unit);
+  return gPerDl >= LIMITS.hb_g_dl.min && gPerDl <= LIMITS.hb_g_dl.max;
+}
+
+/** The plausible range of an Hb unit as text, e.g. '1.24-15.51 mmol/L'. */
+function hbRangeText(unit: HbUnit): string {
+  const perUnit = hbToGPerDl(1, unit);
+  const bound = (gPerDl: number) => String(Number((gPerDl / perUnit).toFixed(2)));
+  return `${bound(LIMITS.hb_g_dl.min)}-${bound(LIMITS.hb_g_dl.max)} ${unit}`;
+}
+
+/**
+ * Hb of a row in g/dL from the one Hb column present (NaN when none or empty), with the value and unit given when the
+ * unit was not g/dL. A value outside the plausible range of its declared unit throws a RowError naming the units it
+ * would fit, with their g/dL value and column name.
+ */
+function rowHb(row: string[], line: number, layout: GasLayout): Pick<GasSample, 'hb_g_dl' | 'hb_given'> {
+  const name = Object.keys(HB_COLUMNS).find((n) => layout.columnIndex.has(n));
+  if (name === undefined) return { hb_g_dl: NaN };
+  const unit = HB_COLUMNS[name]!;
+  const value = cellNumber(row, line, layout, name, false);
+  if (!Number.isFinite(value)) return { hb_g_dl: NaN };
+  if (!plausibleHb(value, unit)) {
+    const fits = (Object.entries(HB_COLUMNS) as [string, HbUnit][]).filter(([n, u]) => n !== name && plausibleHb(value, u));
+    const outside = `line ${line}, column ${name}: ${value} is outside ${hbRangeText(unit)}`;
+    if (fits.length === 0) throw new RowError(`${outside} and fits no Hb unit (${Object.values(HB_COLUMNS).join(', ')}); check the value`);
+    const looks = fits.map(([, u]) => `${u} (= ${hbToGPerDl(value, u).toFixed(1)} g/dL)`).join(' or ');
+    throw new RowError(`${outside}; looks like ${looks}; name the column ${fits.map(([n]) => n).join(' or ')}`);
+  }
+  const hb_g_dl = hbToGPerDl(value, unit);
+  return unit === 'g/dL' ? { hb_g_dl } : { hb_g_dl, hb_given: { value, unit } };
+}
+
 /** One data row as a gas sample; throws a RowError naming the line and column when the row is unusable. */
 function parseGasRow(row: string[], line: number, layout: GasLayout): GasSample {
   if (row.length < layout.header.length) {
@@ -134,7 +184,7 @@ function parseGasRow(row: string[], line: number, layout: GasLayout): GasSample 
     if (Number.isFinite(value)) checkPlausible(name, value, line);
     values[name] = value;
   }
-  return { line, ...time, ...values };
+  return { line, ...time, ...values, ...rowHb(row, line, layout) };
 }
 
 /**
@@ -142,7 +192,7 @@ function parseGasRow(row: string[], line: number, layout: GasLayout): GasSample 
  *
  * Columns (header row, names case-insensitive): time_s (seconds from recording start; negative = drawn before the
  * recording) or clock (HH:MM:SS or ISO date-time), paco2_mmhg; optional pao2_mmhg, sao2_pct, svo2_pct, pvco2_mmhg,
- * pvo2_mmhg, hb_g_dl, fio2_pct, temp_c. Delimiter detected (comma, semicolon, tab); decimal comma accepted when the
+ * pvo2_mmhg, haemoglobin as one of hb_g_dl, hb_g_l or hb_mmol_l (converted to g/dL, see rowHb), fio2_pct, temp_c. Delimiter detected (comma, semicolon, tab); decimal comma accepted when the
  * delimiter is not a comma. Empty lines and lines starting with '#' are skipped. Line numbers assume no line breaks
  * inside quoted cells.
  *

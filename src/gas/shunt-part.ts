@@ -5,6 +5,7 @@ import { shuntCo2Effect } from '../physiology/shunt-co2-effect';
 import { shuntFractionFromContents } from '../physiology/shunt-fraction-from-contents';
 import { shuntFractionFromSaturations } from '../physiology/shunt-fraction-from-saturations';
 import type { GasRow, GasSample } from './gas-types';
+import { paco2Basis, type Paco2Basis } from './paco2-basis';
 
 /** Resolved settings the shunt part needs (defaults already applied). */
 export interface ShuntSettings {
@@ -98,15 +99,15 @@ function setShuntFraction(
  * Sets PvCO2, its source and the shunt part of the gradient for a known shunt fraction: from a measured PvCO2, else
  * by the Fick route when a cardiac output and V'CO2 are known, else from the default P(v-a)CO2.
  */
-function setShuntGradient(out: ShuntPart, sample: GasSample, settings: ShuntSettings, vco2MlPerMin: number): void {
+function setShuntGradient(out: ShuntPart, sample: GasSample, settings: ShuntSettings, vco2MlPerMin: number, paco2: Paco2Basis): void {
   const s = out.shunt_fraction;
   if (has(sample.pvco2_mmhg)) {
-    out.pvco2_mmhg = sample.pvco2_mmhg;
+    out.pvco2_mmhg = paco2.onBasis(sample.pvco2_mmhg);
     out.pvco2_source = 'measured';
     out.gradient_shunt_mmhg = shuntCo2Effect({
       route: 'venous_arterial',
       shuntFraction: s,
-      venousMinusArterialMmhg: sample.pvco2_mmhg - sample.paco2_mmhg,
+      venousMinusArterialMmhg: out.pvco2_mmhg - paco2.used_mmhg,
     });
     return;
   }
@@ -125,7 +126,7 @@ function setShuntGradient(out: ShuntPart, sample: GasSample, settings: ShuntSett
     );
     return;
   }
-  out.pvco2_mmhg = sample.paco2_mmhg + settings.default_pv_a_co2_mmhg;
+  out.pvco2_mmhg = paco2.used_mmhg + settings.default_pv_a_co2_mmhg;
   out.pvco2_source = 'default';
   out.gradient_shunt_mmhg = shuntCo2Effect({
     route: 'venous_arterial',
@@ -149,9 +150,15 @@ function setShuntGradient(out: ShuntPart, sample: GasSample, settings: ShuntSett
  * else, when a cardiac output is given, the Fick route s * V'CO2 / (k * Q' * (1 - s)) with V'CO2 from the breaths;
  * else PvCO2 = PaCO2 + the default P(v-a)CO2 (textbook value; common practice, no source).
  *
+ * The CO2 side uses the PaCO2 of the gradient (paco2Basis: at the patient's temperature when corrected, with a measured
+ * PvCO2 corrected alike); the O2 side (PAO2, contents, saturations) uses the values as measured at 37 deg C.
+ *
  * @param vco2MlPerMin CO2 elimination from the window breaths (for the Fick route), NaN if unknown
+ * @param paco2 the PaCO2 basis of the sample (default: as measured)
  */
-export function shuntPart(sample: GasSample, settings: ShuntSettings, vco2MlPerMin: number): ShuntPart {
+export function shuntPart(
+  sample: GasSample, settings: ShuntSettings, vco2MlPerMin: number, paco2: Paco2Basis = paco2Basis(sample, 'measured'),
+): ShuntPart {
   const missing: string[] = [];
   const notes: string[] = [];
   const out: ShuntPart = {
@@ -174,6 +181,6 @@ export function shuntPart(sample: GasSample, settings: ShuntSettings, vco2MlPerM
 
   setShuntFraction(out, sample, settings, endCapillary, missingContent);
   if (!has(out.shunt_fraction)) return out;
-  setShuntGradient(out, sample, settings, vco2MlPerMin);
+  setShuntGradient(out, sample, settings, vco2MlPerMin, paco2);
   return out;
 }

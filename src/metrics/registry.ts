@@ -51,6 +51,9 @@ export const REFERENCES = {
     'The Acute Respiratory Distress Syndrome Network 2000. Ventilation with lower tidal volumes as compared with traditional tidal volumes for acute lung injury and the acute respiratory distress syndrome. N Engl J Med 342:1301-1308 (predicted body weight)',
   'Fenn et al. 1946': 'Fenn WO, Rahn H, Otis AB 1946. A theoretical study of the composition of the alveolar air at altitude. Am J Physiol 146:637-653',
   'Berggren 1942': 'Berggren SM 1942. The oxygen deficit of arterial blood caused by non-ventilating parts of the lung. Acta Physiol Scand 4 Suppl 11:1-92',
+  'Nunn et al. 1965': 'Nunn JF, Bergman NA, Bunatyan A, Coleman AJ 1965. Temperature coefficients for PCO2 and PO2 of blood in vitro. J Appl Physiol 20:23-26',
+  'ICSH 1996':
+    'ICSH (International Council for Standardization in Haematology), Expert Panel on Haemoglobinometry 1996. Recommendations for reference method for haemoglobinometry in human blood (ICSH standard 1995). J Clin Pathol 49:271-274',
 } as const;
 
 const FOWLER = 'Fowler 1948';
@@ -63,6 +66,8 @@ const HARDMAN = 'Hardman & Aitkenhead 2003';
 const ARDSNET = 'ARDS Network 2000';
 const FENN = 'Fenn et al. 1946';
 const BERGGREN = 'Berggren 1942';
+const NUNN = 'Nunn et al. 1965';
+const ICSH = 'ICSH 1996';
 export const NO_SOURCE = 'common practice, no source';
 export const DERIVED = 'derived here';
 
@@ -247,7 +252,7 @@ export const GAS_METRICS = [
   n('sample', 'Sample', '', 0, false, 'sample number in time order (1-based)', DERIVED),
   n('line', 'Line', '', 0, false, 'line of the sample in the gas file', DERIVED),
   n('time_s', 'Time', 's', 0, false, 'sample time, seconds from recording start (negative: drawn before the recording)', DERIVED),
-  n('paco2_mmhg', 'PaCO2', 'mmHg', 1, false, 'arterial PCO2 as given in the gas file', DERIVED),
+  n('paco2_mmhg', 'PaCO2', 'mmHg', 1, false, 'arterial PCO2 as given in the gas file (measured at 37 °C); the gradient uses `paco2_corrected_mmhg` when `temp_c` is given, unless the gas setting `paco2_temperature` is `measured`', DERIVED),
   n('breaths_used', 'Breaths used', '', 0, false, 'ok breaths in the window before the sample (`--gas-window`) used for the medians', DERIVED),
   n('petco2_mmhg', 'PETCO2', 'mmHg', 1, false, 'window median of PETCO2', NO_SOURCE),
   n('peco2_mmhg', 'PECO2 (mixed expired)', 'mmHg', 1, false, 'window median of PĒCO2', FLETCHER),
@@ -274,7 +279,9 @@ export const GAS_METRICS = [
   txt('gradient_changed', 'Gradient changed', '`true` when the gradient changed by more than `gradient_change_mmhg` (5 mmHg) since the previous sample', DERIVED),
   txt('missing_inputs', 'Missing inputs', 'inputs that were missing, `;`-separated (breath metrics as `breath.<field>`)', DERIVED),
   txt('notes', 'Notes', 'assumptions and fallbacks used for this row, `;`-separated; `before the recording: …` for a sample drawn before it', DERIVED),
-  n('temp_c', 'Patient temperature', '°C', 1, false, 'patient temperature from the gas file, passed through', DERIVED),
+  n('temp_c', 'Patient temperature', '°C', 1, false, 'patient temperature from the gas file', DERIVED),
+  n('paco2_corrected_mmhg', 'PaCO2 at patient temperature', 'mmHg', 1, false, 'PaCO2 corrected to `temp_c`: `paco2_mmhg` × 10^(0.019 (`temp_c` − 37)); empty without `temp_c`', NUNN),
+  n('hb_g_dl', 'Haemoglobin', 'g/dL', 1, false, 'Hb used, g/dL: from `hb_g_dl`, `hb_g_l` (÷ 10) or `hb_mmol_l` (× 1.61145, monomer 16 114.5 g/mol)', ICSH),
 ] as const satisfies readonly Entry<GasRow>[];
 
 // ---------------------------------------------------------------------------------------------------------------

@@ -38,10 +38,14 @@ export {
   type OxygenContentConstants,
 } from './oxygen-content';
 export { alveolarGasPao2, type AlveolarGasForm, type AlveolarGasInput } from './alveolar-gas-pao2';
+export { hbToGPerDl, HB_MONOMER_MOLAR_MASS_G_PER_MOL, G_PER_DL_PER_HB_UNIT, type HbUnit } from './haemoglobin-units';
 export { shuntFractionFromContents } from './shunt-fraction-from-contents';
 export { shuntFractionFromSaturations } from './shunt-fraction-from-saturations';
 export { severinghausSaturation, severinghausPo2 } from './severinghaus-saturation';
 export { shuntCo2Effect, DEFAULT_CO2_SLOPE_ML_PER_DL_PER_MMHG, type ShuntCo2EffectInput } from './shunt-co2-effect';
+
+// Blood gases at the patient's temperature
+export { pco2AtTemperature, PCO2_TEMPERATURE_COEFFICIENT_PER_C, BLOOD_GAS_MEASURING_TEMP_C } from './pco2-temperature';
 
 // Body size
 export { predictedBodyWeight, PBW_BASE_HEIGHT_CM, type Sex, type PbwFormula } from './predicted-body-weight';

@@ -55,11 +55,12 @@ export function jsonSafe<T>(x: T): T {
  */
 export function exportRows(
   core: AnalysisCore, settings: Settings, excluded: ReadonlyMap<number, string>, gas: GasInput | null,
+  paco2Temperature = gas?.options?.paco2_temperature,
 ): BreathRow[] {
   const rows = reviewedRows(core.breaths, excluded);
   if (!gas || settings.analysis.paco2_mmhg !== null) return rows;
   const copies = rows.map((r) => ({ ...r, flags: [...r.flags] }));
-  applyArterialPco2(copies, gas.samples, settings.analysis.bohr_inspired_term, settings.analysis.apparatus_ml);
+  applyArterialPco2(copies, gas.samples, settings.analysis.bohr_inspired_term, settings.analysis.apparatus_ml, paco2Temperature);
   return copies;
 }
 
@@ -75,7 +76,7 @@ export function composeOutputs(
   gas: GasInput | null,
   gasOptions: GasOptions = { pb_mmhg: settings.ingest.pb_mmhg, ...(gas?.options ?? {}) },
 ): Outputs {
-  const rows = exportRows(core, settings, excluded, gas);
+  const rows = exportRows(core, settings, excluded, gas, gasOptions.paco2_temperature);
   const reviewed: AnalysisCore = { ...core, breaths: rows };
   let gasResult: GasResult | null = null;
   let summary: Summary;

@@ -31,8 +31,9 @@ const KEY_ENDING: Record<string, RegExp> = {
   'L/min': /_l_min$/,
   'mL/kg': /_ml_per_kg$/,
   '°C': /_c$/,
+  'g/dL': /_g_dl$/,
 };
-const UNIT_ENDINGS = /_(s|ml|mmhg|per_l|bpm|ml_min|l_min|ml_per_kg|c|pct)$/;
+const UNIT_ENDINGS = /_(s|ml|mmhg|per_l|bpm|ml_min|l_min|ml_per_kg|c|pct|g_dl)$/;
 
 describe('metric registry', () => {
   it('lists every field of the breath rows the analysis produces (flags aside)', () => {
