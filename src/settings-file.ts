@@ -99,6 +99,7 @@ export const gasSchema = z
     band_level: num.gt(0.5).max(0.999),
     analyser_sd_mmhg: num.min(0).max(10),
     drift_prior_mmhg2_per_h: num.min(0).max(100),
+    paco2_temperature: z.enum(['corrected', 'measured']),
   })
   .strict()
   .partial();
