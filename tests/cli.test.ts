@@ -150,6 +150,18 @@ describe.skipIf(!existsSync(cli))('phasewise command line', () => {
     });
   });
 
+  it('no breath usable for the summary: outputs written, then exit 3 with one line saying why the table is empty', () => {
+    // 10 s of a small flow oscillation with flat CO2: breath-like swings are found, none has a capnogram
+    const lines = ['time_s,flow_lps,co2_mmhg'];
+    for (let i = 0; i < 1000; i++) lines.push(`${(i / 100).toFixed(2)},${(0.01 * Math.sin((7 * i) / 100)).toFixed(4)},0.30`);
+    const file = join(dir, 'no-breath.csv');
+    writeFileSync(file, lines.join('\n') + '\n');
+    const r = run('analyse', file, '--out', join(dir, 'no-breath'), '--quiet');
+    expectOneLineFailure(r, 3, 'no breath is usable');
+    expect(r.stderr).toMatch(/10 found, 10 excluded \(/);
+    expect(existsSync(join(dir, 'no-breath', 'summary.json'))).toBe(true);
+  });
+
   it('unknown scenario for simulate: exit 2 with the valid names', () => {
     expectOneLineFailure(run('simulate', 'no-such-patient', '--out', join(dir, 's.csv')), 2, 'adult-healthy');
   });

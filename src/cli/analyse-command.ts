@@ -6,7 +6,9 @@ import { writeFileAtomic } from '../node/atomic-write';
 import { gasMetric, type NumericGasKey } from '../metrics/registry';
 import { formatNumber } from '../report/format';
 import { composeOutputs, outputFile, outputNames, type GasInput } from '../report/outputs';
-import { formatSummaryText } from '../report/summary';
+import { formatSummaryText, type Summary } from '../report/summary';
+import { EXIT_CODES } from '../ingest/errors';
+import { CliError } from './errors';
 import { formatEventLine } from '../trends/index';
 import { isBeforeRecording, type GasResult } from '../gas/index';
 import { addGasOptions, gasOptionsFrom, placeGasFile, readGasFile } from './gas-step';
@@ -40,19 +42,38 @@ export function registerAnalyse(program: Command): void {
       writeFileAtomic(join(out, name), outputFile(o, name)!);
       written.push(join(out, name));
     }
-    if (opts.quiet) return;
-    if (opts.json) {
-      process.stdout.write(JSON.stringify(o.summary, null, 2) + '\n');
-      return;
-    }
-    let text = formatSummaryText(o.summary);
-    if (o.gas) text = insertBeforeCaution(text, formatGasText(o.gas, gasInput!));
-    text = insertBeforeCaution(
-      text,
-      o.events.length ? ['events (patterns in the data, not diagnoses):', ...o.events.map((e) => `  ${formatEventLine(e)}`)].join('\n') : 'events: none detected',
-    );
-    process.stdout.write(text + `\n\nwritten: ${written.join(', ')}\n`);
+    if (!opts.quiet && opts.json) process.stdout.write(JSON.stringify(o.summary, null, 2) + '\n');
+    else if (!opts.quiet) printSummary(o, written, gasInput);
+    const nothing = noUsableBreath(file, o.summary.breaths);
+    if (nothing) throw new CliError(nothing, EXIT_CODES.input);
   });
+}
+
+/**
+ * The one-line reason when no breath is usable for the summary (its medians are empty), else null. The outputs are
+ * written first so that breaths.csv and summary.json show why.
+ */
+function noUsableBreath(file: string, b: Summary['breaths']): string | null {
+  if (b.ok + b.caution > 0) return null;
+  const reasons = Object.entries(b.excluded_by_reason)
+    .filter((e): e is [string, number] => typeof e[1] === 'number' && e[1] > 0)
+    .map(([k, n]) => `${k} ${n}`)
+    .join(', ');
+  return (
+    `${file}: no breath is usable for the summary (${b.found} found, ${b.excluded} excluded${reasons ? ` (${reasons})` : ''}, ` +
+    `${b.partial_not_analysed} partial), so the medians are empty; breaths.csv and summary.json say why: check the flow and CO2 columns and their units`
+  );
+}
+
+/** The terminal summary: the table, the blood-gas block, the events, the caution and the files written. */
+function printSummary(o: ReturnType<typeof composeOutputs>, written: string[], gasInput: Parameters<typeof formatGasText>[1] | null): void {
+  let text = formatSummaryText(o.summary);
+  if (o.gas && gasInput) text = insertBeforeCaution(text, formatGasText(o.gas, gasInput));
+  text = insertBeforeCaution(
+    text,
+    o.events.length ? ['events (patterns in the data, not diagnoses):', ...o.events.map((e) => `  ${formatEventLine(e)}`)].join('\n') : 'events: none detected',
+  );
+  process.stdout.write(text + `\n\nwritten: ${written.join(', ')}\n`);
 }
 
 function insertBeforeCaution(text: string, block: string): string {
