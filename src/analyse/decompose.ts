@@ -11,6 +11,7 @@
 // the phase III fit (phase3-fit.ts) and the dead-space family (below).
 
 import { alveolarDeadSpaceMl } from '../physiology/alveolar-dead-space';
+import { alveolarDeadSpaceFractionArterial } from '../physiology/alveolar-dead-space-fraction';
 import { bohrDeadSpaceFraction } from '../physiology/bohr-dead-space-fraction';
 import { enghoffDeadSpaceFraction } from '../physiology/enghoff-dead-space-fraction';
 import { fowlerDeadSpace } from '../physiology/fowler-dead-space';
@@ -134,6 +135,7 @@ class BreathRowRecord implements BreathRow {
   vd_alv_bohr_ml = NaN;
   vd_enghoff_ml = NaN;
   vdvt_enghoff = NaN;
+  vdalv_vtalv = NaN;
   delay_s = NaN;
   delay_measured_s = NaN;
   flags: string[] = [];
@@ -345,5 +347,6 @@ function recordDeadSpaces(
     const enghoff = patientDeadSpace(enghoffAtSensor, vte, settings.apparatus_ml);
     row.vdvt_enghoff = enghoff.fraction;
     row.vd_enghoff_ml = enghoff.volume_ml;
+    row.vdalv_vtalv = alveolarDeadSpaceFractionArterial(settings.paco2_mmhg, row.paeco2_mmhg, inspired);
   }
 }

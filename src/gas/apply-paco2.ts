@@ -1,7 +1,8 @@
-// Per-breath Enghoff dead space from blood gases: each breath uses the arterial PCO2 of the most recent sample drawn
+// Per-breath Enghoff dead space and the arterial alveolar dead-space fraction from blood gases: each breath uses the arterial PCO2 of the most recent sample drawn
 // at or before the breath's start (none before the first sample; a sample drawn before the recording is not used). Same functions as the analysis with --paco2:
 // enghoffDeadSpaceFraction with the breath's inspired PCO2 when bohr_inspired_term is on, and patientDeadSpace to
 // remove the apparatus volume.
+import { alveolarDeadSpaceFractionArterial } from '../physiology/alveolar-dead-space-fraction';
 import { enghoffDeadSpaceFraction } from '../physiology/enghoff-dead-space-fraction';
 import { patientDeadSpace } from '../physiology/patient-dead-space';
 import type { BreathRow } from '../types';
@@ -26,5 +27,6 @@ export function applyArterialPco2(
     const enghoff = patientDeadSpace(enghoffDeadSpaceFraction(paco2, r.peco2_mmhg, inspired), r.vt_exp_ml, apparatusMl);
     r.vdvt_enghoff = enghoff.fraction;
     r.vd_enghoff_ml = enghoff.volume_ml;
+    r.vdalv_vtalv = alveolarDeadSpaceFractionArterial(paco2, r.paeco2_mmhg, inspired);
   }
 }

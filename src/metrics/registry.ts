@@ -146,6 +146,7 @@ export const BREATH_METRICS = [
   n('vd_alv_bohr_ml', 'Alveolar dead space (Bohr-based)', 'mL', 1, true, 'alveolar dead space = Bohr dead space − airway (Fowler) dead space', FLETCHER),
   n('vd_enghoff_ml', 'Enghoff dead space', 'mL', 1, true, 'Enghoff dead space at the sensor minus `apparatus_ml` (VD/VT Enghoff × V_E; needs `--paco2` or `--gas`)', ENGHOFF),
   n('vdvt_enghoff', 'VD/VT Enghoff', '', 3, true, 'Enghoff: (PaCO2 − PĒCO2)/(PaCO2 − PICO2) × V_E minus `apparatus_ml`, over V_E (needs `--paco2` or `--gas`)', ENGHOFF),
+  n('vdalv_vtalv', 'Alveolar VD/VT (arterial)', '', 3, true, 'alveolar dead-space fraction of the alveolar volume, (PaCO2 − PĀECO2)/(PaCO2 − PICO2), PĀECO2 = `paeco2_mmhg` (needs `--paco2` or `--gas`)', FLETCHER),
   n('delay_s', 'CO2 delay used', 's', 3, true, 'CO2 transport delay used for this breath', DERIVED),
   n('delay_measured_s', 'CO2 delay measured', 's', 3, false,
     "delay measured on this breath's own inspiratory CO2 downstroke (empty when none was found); trends use it to see a delay jump", DERIVED),
@@ -187,7 +188,7 @@ export function blankBreathRow(): BreathRow {
 /** The terminal summary table (median, p25, p75, n over ok breaths; shown when n > 0). */
 export const TERMINAL_SUMMARY_ROWS: readonly SummaryKey[] = [
   'rr_bpm', 'vt_exp_ml', 'vt_insp_ml', 'vd_aw_ml', 'vd_inflection_ml', 'slope3_mmhg_per_l', 'petco2_mmhg', 'peco2_mmhg',
-  'alv_co2_mmhg', 'vtco2_ml', 'vco2_ml_min', 'vdaw_vt', 'vdvt_bohr', 'vd_bohr_ml', 'vd_alv_bohr_ml', 'vdvt_enghoff', 'vd_enghoff_ml',
+  'alv_co2_mmhg', 'vtco2_ml', 'vco2_ml_min', 'vdaw_vt', 'vdvt_bohr', 'vd_bohr_ml', 'vd_alv_bohr_ml', 'vdvt_enghoff', 'vd_enghoff_ml', 'vdalv_vtalv',
 ];
 
 /** The viewer's recording summary panel. */
@@ -200,7 +201,7 @@ export const VIEWER_SUMMARY_ROWS: readonly SummaryKey[] = [
 export const VIEWER_BREATH_GROUPS: readonly (readonly [string, readonly NumericBreathKey[]])[] = [
   ['timing', ['t_start_s', 'rr_bpm', 'ti_s', 'te_s']],
   ['volumes', ['vt_insp_ml', 'vt_exp_ml']],
-  ['dead space', ['vd_aw_ml', 'vdaw_vt', 'vt_alv_ml', 'vd_inflection_ml', 'vd_alv_bohr_ml', 'vd_bohr_ml', 'vdvt_bohr', 'vd_enghoff_ml', 'vdvt_enghoff']],
+  ['dead space', ['vd_aw_ml', 'vdaw_vt', 'vt_alv_ml', 'vd_inflection_ml', 'vd_alv_bohr_ml', 'vd_bohr_ml', 'vdvt_bohr', 'vd_enghoff_ml', 'vdvt_enghoff', 'vdalv_vtalv']],
   ['phases', ['v_phase2_start_ml', 'v_phase3_start_ml', 'slope2_mmhg_per_l', 'slope3_mmhg_per_l', 'slope3_norm_per_l', 'slope3_r2']],
   ['CO2', ['petco2_mmhg', 'peco2_mmhg', 'alv_co2_mmhg', 'paeco2_mmhg', 'fico2_mmhg', 'vtco2_ml', 'vco2_ml_min', 'veco2_ml', 'vico2_ml', 'delay_s']],
 ];

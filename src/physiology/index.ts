@@ -50,3 +50,4 @@ export { pco2AtTemperature, PCO2_TEMPERATURE_COEFFICIENT_PER_C, BLOOD_GAS_MEASUR
 // Body size
 export { predictedBodyWeight, PBW_BASE_HEIGHT_CM, type Sex, type PbwFormula } from './predicted-body-weight';
 export { co2EliminationMlPerMin } from './co2-elimination-rate';
+export { alveolarDeadSpaceFractionArterial } from './alveolar-dead-space-fraction';

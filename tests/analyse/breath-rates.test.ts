@@ -4,7 +4,7 @@
 // Expected values by hand (derived here): ∫P dV = ½·100·36 + 34·300 + 0.005·(500² − 200²) = 13,050 mmHg·mL;
 // VTCO2 = 1.15881e-3 mL/(mmHg·mL) × 13,050 at 37 °C (the STPD factor of vtco2FromArea, Fletcher R et al. 1981);
 // V'CO2 = VTCO2 × 60 / 2 s; VDaw/VT = 150/500; alveolar tidal volume VT − VDaw − apparatus (Fowler WS 1948).
-import { describe, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import { decomposeBreath } from '../../src/analyse/decompose';
 import { defaultSettings } from '../../src/settings';
 import { expectClose } from '../helpers/expect-close';
@@ -32,5 +32,18 @@ describe('per-breath rates and fractions', () => {
     expectClose(withApparatus.vdaw_vt, 120 / 500, { abs: 2e-3 });
     expectClose(withApparatus.vt_alv_ml, 500 - 120 - 30, { abs: 1 });
     expectClose(withApparatus.vt_alv_ml, plain.vt_alv_ml, { abs: 1e-9 });
+  });
+});
+
+describe('alveolar dead-space fraction, arterial form', () => {
+  // (PaCO2 − PĀECO2)/PaCO2 with PĀECO2 = ∫P dV / (VT − VDaw) = 13,050 / 350 = 37.2857 mmHg at PaCO2 40 (derived
+  // here); the same number as Fletcher's area ratio Y / (PaCO2 (VT − VDaw)) = (40·350 − 13,050) / (40·350) = 950/14,000
+  // (Fletcher R, Jonson B, Cumming G, Brew J 1981, Br J Anaesth 53:77-88).
+  it('0.0679 on the analytic breath with --paco2 40; empty without PaCO2', () => {
+    const settings = defaultSettings().analysis;
+    settings.paco2_mmhg = 40;
+    const row = decomposeBreath(breathFromCurve(curveB), { breath: 1, delay_s: 0, tau_s: 0, settings }).row;
+    expectClose(row.vdalv_vtalv, 950 / 14000, { abs: 1e-3 });
+    expect(Number.isNaN(rowWith(0).vdalv_vtalv)).toBe(true);
   });
 });
