@@ -2,6 +2,7 @@ import { alveolarDeadSpaceMl } from '../physiology/alveolar-dead-space';
 import { avdsf } from '../physiology/avdsf';
 import { enghoffDeadSpaceFraction } from '../physiology/enghoff-dead-space-fraction';
 import { patientDeadSpace } from '../physiology/patient-dead-space';
+import { shuntCorrectedEnghoff } from '../physiology/shunt-corrected-enghoff';
 import type { BreathRow } from '../types';
 import { isBeforeRecording } from './before-recording';
 import { estimatePaco2 } from './estimate-paco2';
@@ -52,6 +53,8 @@ interface SampleDeadSpace {
   enghoff: number;
   vdPhys: number;
   vdAlv: number;
+  /** median inspired PCO2 of the window used in the Enghoff equation (0 without the inspired term), mmHg */
+  inspired: number;
 }
 
 /** The shunt settings of the options, with the defaults of GAS_DEFAULTS filled in. */
@@ -81,11 +84,12 @@ function windowMedians(used: readonly BreathRow[]): BreathMedians {
  */
 function sampleDeadSpace(paco2: number, used: readonly BreathRow[], med: BreathMedians, analysis: GasAnalysisSettings): SampleDeadSpace {
   const gradient = paco2 - med.petco2_mmhg;
-  const inspired = analysis.inspired_term ? finiteMedian(used.map((b) => b.fico2_mmhg)) : 0;
-  const enghoffAtSensor = enghoffDeadSpaceFraction(paco2, med.peco2_mmhg, Number.isFinite(inspired) ? inspired : 0);
+  const medianInspired = analysis.inspired_term ? finiteMedian(used.map((b) => b.fico2_mmhg)) : 0;
+  const inspired = Number.isFinite(medianInspired) ? medianInspired : 0;
+  const enghoffAtSensor = enghoffDeadSpaceFraction(paco2, med.peco2_mmhg, inspired);
   const physiological = patientDeadSpace(enghoffAtSensor, med.vt_exp_ml, analysis.apparatus_ml);
   const vdPhys = physiological.volume_ml;
-  return { gradient, enghoff: physiological.fraction, vdPhys, vdAlv: alveolarDeadSpaceMl(vdPhys, med.vd_aw_ml) };
+  return { gradient, enghoff: physiological.fraction, vdPhys, vdAlv: alveolarDeadSpaceMl(vdPhys, med.vd_aw_ml), inspired };
 }
 
 /** Warnings about a sample's shunt estimate: a fraction outside 0-1 and a measured venous PCO2 below PaCO2. */
@@ -136,6 +140,7 @@ interface RowParts {
   med: BreathMedians;
   dead: SampleDeadSpace;
   weightKg: number;
+  apparatusMl: number;
   shunt: ShuntPart;
   change: GradientChange;
   missing: string[];
@@ -160,6 +165,11 @@ function gasRow(r: RowParts): GasRow {
     avdsf: avdsf(paco2, med.petco2_mmhg),
     vdvt_bohr: med.vdvt_bohr,
     vdvt_enghoff: dead.enghoff,
+    vdvt_enghoff_shunt_corrected: patientDeadSpace(
+      shuntCorrectedEnghoff(paco2, med.peco2_mmhg, shunt.pvco2_mmhg, shunt.shunt_fraction, dead.inspired),
+      med.vt_exp_ml,
+      r.apparatusMl,
+    ).fraction,
     vdvt_difference: dead.enghoff - med.vdvt_bohr,
     vd_aw_ml: med.vd_aw_ml,
     vd_alv_enghoff_ml: dead.vdAlv,
@@ -197,10 +207,10 @@ function beforeRecordingRow(sample: GasSample, number: number, label: string, ct
   const ago = `drawn ${fmt(-sample.time_s)} s before its start`;
   tally.warnings.push(`${label}: before the recording (${ago}); not matched with breaths and not used for per-breath Enghoff values, PaCO2 estimates or events`);
   const med = Object.fromEntries(BREATH_FIELDS.map((f) => [f, NaN])) as BreathMedians;
-  const dead: SampleDeadSpace = { gradient: NaN, enghoff: NaN, vdPhys: NaN, vdAlv: NaN };
+  const dead: SampleDeadSpace = { gradient: NaN, enghoff: NaN, vdPhys: NaN, vdAlv: NaN, inspired: NaN };
   const notes = [`before the recording: ${ago}; not matched with breaths`];
   const paco2 = paco2Basis(sample, ctx.paco2Temperature);
-  return gasRow({ number, sample, paco2, used: [], med, dead, weightKg: NaN, shunt: NO_SHUNT, change: { change: NaN, changed: false }, missing: [], notes });
+  return gasRow({ number, sample, paco2, used: [], med, dead, weightKg: NaN, apparatusMl: ctx.analysis.apparatus_ml, shunt: NO_SHUNT, change: { change: NaN, changed: false }, missing: [], notes });
 }
 
 /** Notes on how the sample's inputs were taken: Hb converted from another unit, PaCO2 at the patient's temperature. */
@@ -246,7 +256,7 @@ function analyseSample(sample: GasSample, number: number, ctx: SampleContext, ta
   shuntWarnings(label, sample, shunt, tally.warnings);
 
   const change = gradientChange(label, number, dead.gradient, ctx.gradientChangeMmhg, tally);
-  return gasRow({ number, sample, paco2, used, med, dead, weightKg: ctx.weight.weight_kg, shunt, change, missing, notes });
+  return gasRow({ number, sample, paco2, used, med, dead, weightKg: ctx.weight.weight_kg, apparatusMl: ctx.analysis.apparatus_ml, shunt, change, missing, notes });
 }
 
 /** Inputs of the settings record besides the options themselves. */

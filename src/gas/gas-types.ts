@@ -141,6 +141,8 @@ export interface GasRow {
   vdvt_bohr: number;
   /** (PaCO2 - median PECO2) / PaCO2 */
   vdvt_enghoff: number;
+  /** Enghoff VD/VT with the ideal end-capillary PCO2 (venous admixture removed; needs shunt_fraction and PvCO2) */
+  vdvt_enghoff_shunt_corrected: number;
   /** vdvt_enghoff - vdvt_bohr */
   vdvt_difference: number;
   vd_aw_ml: number;

@@ -52,6 +52,8 @@ export const REFERENCES = {
   'Fenn et al. 1946': 'Fenn WO, Rahn H, Otis AB 1946. A theoretical study of the composition of the alveolar air at altitude. Am J Physiol 146:637-653',
   'Berggren 1942': 'Berggren SM 1942. The oxygen deficit of arterial blood caused by non-ventilating parts of the lung. Acta Physiol Scand 4 Suppl 11:1-92',
   'Nunn et al. 1965': 'Nunn JF, Bergman NA, Bunatyan A, Coleman AJ 1965. Temperature coefficients for PCO2 and PO2 of blood in vitro. J Appl Physiol 20:23-26',
+  'Kuwabara & Duncalf 1969':
+    'Kuwabara S, Duncalf D 1969. Effect of anatomic shunt on physiologic deadspace-to-tidal volume ratio - a new equation. Anesthesiology 31:575-577',
   'ICSH 1996':
     'ICSH (International Council for Standardization in Haematology), Expert Panel on Haemoglobinometry 1996. Recommendations for reference method for haemoglobinometry in human blood (ICSH standard 1995). J Clin Pathol 49:271-274',
 } as const;
@@ -68,6 +70,7 @@ const FENN = 'Fenn et al. 1946';
 const BERGGREN = 'Berggren 1942';
 const NUNN = 'Nunn et al. 1965';
 const ICSH = 'ICSH 1996';
+const KUWABARA = 'Kuwabara & Duncalf 1969';
 export const NO_SOURCE = 'common practice, no source';
 export const DERIVED = 'derived here';
 
@@ -262,6 +265,7 @@ export const GAS_METRICS = [
   n('avdsf', 'AVDSF', '', 3, false, 'alveolar dead-space fraction (PaCO2 − PETCO2) / PaCO2', HARDMAN),
   n('vdvt_bohr', 'VD/VT Bohr', '', 3, false, 'window median of the per-breath Bohr VD/VT', BOHR),
   n('vdvt_enghoff', 'VD/VT Enghoff', '', 3, false, '(PaCO2 − median PĒCO2) / (PaCO2 − median PICO2) × median VTe minus `apparatus_ml`, over median VTe (inspired term with `bohr_inspired_term`)', ENGHOFF),
+  n('vdvt_enghoff_shunt_corrected', 'VD/VT Enghoff, shunt-corrected', '', 3, false, 'Enghoff with Pc\'CO2 = (PaCO2 − s × PvCO2)/(1 − s) for PaCO2, s = `shunt_fraction`, PvCO2 = `pvco2_mmhg` (venous admixture removed)', KUWABARA),
   n('vdvt_difference', 'VD/VT Enghoff - Bohr', '', 3, false, '`vdvt_enghoff` − `vdvt_bohr`', DERIVED),
   n('vd_aw_ml', 'Airway dead space (Fowler)', 'mL', 1, false, 'window median of the airway dead space', FOWLER),
   n('vd_alv_enghoff_ml', 'Alveolar dead space (Enghoff-based)', 'mL', 1, false, '`vd_phys_ml` − `vd_aw_ml` (Enghoff; not the Bohr-based `vd_alv_bohr_ml` of breaths.csv)', FLETCHER),

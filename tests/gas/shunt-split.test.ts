@@ -115,3 +115,15 @@ describe('gradient split', () => {
     expect(r.warnings.some((w) => w.includes('is outside 0-1'))).toBe(true);
   });
 });
+
+describe('shunt-corrected Enghoff VD/VT (Kuwabara S, Duncalf D 1969, Anesthesiology 31:575-577)', () => {
+  // Hand calculation (derived here, linear mixing): s = (1 - 0.95)/(1 - 0.75) = 0.2, Pc'CO2 = (40 - 0.2 x 46)/0.8 =
+  // 38.5 mmHg, VD/VT = (38.5 - 26)/38.5 = 0.3247 against Enghoff's (40 - 26)/40 = 0.35.
+  it('SaO2 95 %, SvO2 75 %, PaCO2 40, PvCO2 46, PECO2 26 -> 0.3247 (Enghoff 0.35)', () => {
+    const row = analyseGas(BREATHS, [makeSample({ time_s: 100, paco2_mmhg: 40, sao2_pct: 95, svo2_pct: 75, pvco2_mmhg: 46 })], {
+      pb_mmhg: 760,
+    }).rows[0]!;
+    expectClose(row.vdvt_enghoff, 0.35, { abs: 1e-9 });
+    expectClose(row.vdvt_enghoff_shunt_corrected, (38.5 - 26) / 38.5, { abs: 1e-9 });
+  });
+});
