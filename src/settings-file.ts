@@ -100,6 +100,7 @@ export const gasSchema = z
     analyser_sd_mmhg: num.min(0).max(10),
     drift_prior_mmhg2_per_h: num.min(0).max(100),
     paco2_temperature: z.enum(['corrected', 'measured']),
+    split_alveolar: z.enum(['paeco2', 'alv_co2', 'petco2']),
   })
   .strict()
   .partial();

@@ -85,7 +85,7 @@ function insertBeforeCaution(text: string, block: string): string {
 const GAS_TERMINAL_COLUMNS: [NumericGasKey, string, number][] = [
   ['time_s', 't (s)', 8], ['paco2_mmhg', 'PaCO2', 8], ['petco2_mmhg', 'PETCO2', 8], ['gradient_mmhg', 'Pa-ET', 8],
   ['avdsf', 'AVDSF', 8], ['vdvt_bohr', 'Bohr', 7], ['vdvt_enghoff', 'Enghoff', 9], ['shunt_fraction', 'shunt', 7],
-  ['gradient_shunt_mmhg', 'by shunt', 10], ['gradient_rest_mmhg', 'rest', 7],
+  ['gradient_alv_mmhg', 'Pa-alv', 8], ['gradient_shunt_mmhg', 'by shunt', 10], ['gradient_rest_mmhg', 'rest', 7],
 ];
 
 /** The blood-gas block of the terminal: the table, the rows of the gas file that were not used (file and reason),
@@ -99,6 +99,7 @@ function formatGasText(g: GasResult, input: Pick<GasInput, 'file' | 'rejected'>)
     const mark = isBeforeRecording(r) ? '  before the recording' : r.gradient_changed ? '  gradient changed' : '';
     lines.push(`${cells}  ${r.breaths_used}${mark}`);
   }
+  lines.push('  (Pa-ET = PaCO2 - PETCO2; Pa-alv = PaCO2 - mean alveolar expired PCO2 = by shunt + rest; rest = alveolar dead space and V/Q mismatch)');
   for (const r of input.rejected) lines.push(`gas note: ${input.file}: ${r.reason}; row not used`);
   for (const w of g.warnings) lines.push(`gas note: ${w}`);
   return lines.join('\n');

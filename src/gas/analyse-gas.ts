@@ -33,6 +33,7 @@ interface SampleContext {
   shuntSettings: ShuntSettings;
   weight: WeightChoice;
   paco2Temperature: Paco2Temperature;
+  splitAlveolar: 'paeco2' | 'alv_co2' | 'petco2';
 }
 
 /** What the per-sample step carries from one sample to the next and collects for the whole analysis. */
@@ -55,6 +56,8 @@ interface SampleDeadSpace {
   vdAlv: number;
   /** median inspired PCO2 of the window used in the Enghoff equation (0 without the inspired term), mmHg */
   inspired: number;
+  /** PaCO2 − the median alveolar PCO2 of the split (split_alveolar), mmHg */
+  gradientAlv: number;
 }
 
 /** The shunt settings of the options, with the defaults of GAS_DEFAULTS filled in. */
@@ -82,14 +85,15 @@ function windowMedians(used: readonly BreathRow[]): BreathMedians {
  * Gradient, Enghoff VD/VT and the physiological and alveolar dead spaces of one sample from the window medians
  * (formulas in the analyseGas comment).
  */
-function sampleDeadSpace(paco2: number, used: readonly BreathRow[], med: BreathMedians, analysis: GasAnalysisSettings): SampleDeadSpace {
+function sampleDeadSpace(paco2: number, used: readonly BreathRow[], med: BreathMedians, analysis: GasAnalysisSettings, split: SampleContext['splitAlveolar']): SampleDeadSpace {
   const gradient = paco2 - med.petco2_mmhg;
   const medianInspired = analysis.inspired_term ? finiteMedian(used.map((b) => b.fico2_mmhg)) : 0;
   const inspired = Number.isFinite(medianInspired) ? medianInspired : 0;
   const enghoffAtSensor = enghoffDeadSpaceFraction(paco2, med.peco2_mmhg, inspired);
   const physiological = patientDeadSpace(enghoffAtSensor, med.vt_exp_ml, analysis.apparatus_ml);
   const vdPhys = physiological.volume_ml;
-  return { gradient, enghoff: physiological.fraction, vdPhys, vdAlv: alveolarDeadSpaceMl(vdPhys, med.vd_aw_ml), inspired };
+  const alveolar = split === 'petco2' ? med.petco2_mmhg : finiteMedian(used.map((b) => (split === 'paeco2' ? b.paeco2_mmhg : b.alv_co2_mmhg)));
+  return { gradient, enghoff: physiological.fraction, vdPhys, vdAlv: alveolarDeadSpaceMl(vdPhys, med.vd_aw_ml), inspired, gradientAlv: paco2 - alveolar };
 }
 
 /** Warnings about a sample's shunt estimate: a fraction outside 0-1 and a measured venous PCO2 below PaCO2. */
@@ -182,8 +186,9 @@ function gasRow(r: RowParts): GasRow {
     shunt_method: shunt.shunt_method,
     pvco2_mmhg: shunt.pvco2_mmhg,
     pvco2_source: shunt.pvco2_source,
+    gradient_alv_mmhg: dead.gradientAlv,
     gradient_shunt_mmhg: shunt.gradient_shunt_mmhg,
-    gradient_rest_mmhg: dead.gradient - shunt.gradient_shunt_mmhg,
+    gradient_rest_mmhg: dead.gradientAlv - shunt.gradient_shunt_mmhg,
     gradient_change_mmhg: r.change.change,
     gradient_changed: r.change.changed,
     missing_inputs: r.missing.join(';'),
@@ -207,7 +212,7 @@ function beforeRecordingRow(sample: GasSample, number: number, label: string, ct
   const ago = `drawn ${fmt(-sample.time_s)} s before its start`;
   tally.warnings.push(`${label}: before the recording (${ago}); not matched with breaths and not used for per-breath Enghoff values, PaCO2 estimates or events`);
   const med = Object.fromEntries(BREATH_FIELDS.map((f) => [f, NaN])) as BreathMedians;
-  const dead: SampleDeadSpace = { gradient: NaN, enghoff: NaN, vdPhys: NaN, vdAlv: NaN, inspired: NaN };
+  const dead: SampleDeadSpace = { gradient: NaN, enghoff: NaN, vdPhys: NaN, vdAlv: NaN, inspired: NaN, gradientAlv: NaN };
   const notes = [`before the recording: ${ago}; not matched with breaths`];
   const paco2 = paco2Basis(sample, ctx.paco2Temperature);
   return gasRow({ number, sample, paco2, used: [], med, dead, weightKg: NaN, apparatusMl: ctx.analysis.apparatus_ml, shunt: NO_SHUNT, change: { change: NaN, changed: false }, missing: [], notes });
@@ -245,7 +250,7 @@ function analyseSample(sample: GasSample, number: number, ctx: SampleContext, ta
   const paco2 = paco2Basis(sample, ctx.paco2Temperature);
   notes.push(...inputNotes(sample, paco2));
   if (paco2.corrected) tally.correctedSamples.push(number);
-  const dead = sampleDeadSpace(paco2.used_mmhg, used, med, ctx.analysis);
+  const dead = sampleDeadSpace(paco2.used_mmhg, used, med, ctx.analysis, ctx.splitAlveolar);
   if (ctx.weight.basis === 'none') missing.push('weight_kg');
 
   const vco2MlPerMin = finiteMedian(used.map((b) => b.vtco2_ml)) * finiteMedian(used.map((b) => b.rr_bpm));
@@ -266,6 +271,7 @@ interface SettingsParts {
   shuntSettings: ShuntSettings;
   weight: WeightChoice;
   paco2Temperature: Paco2Temperature;
+  splitAlveolar: string;
   windowS: number;
   gradientChangeMmhg: number;
   band: { band_level: number; analyser_sd_mmhg: number; drift_prior_mmhg2_per_h: number };
@@ -293,6 +299,7 @@ function gasSettings(s: SettingsParts): Record<string, unknown> {
     cardiac_output_l_min: shuntSettings.cardiac_output_l_min,
     co2_slope_k: shuntSettings.co2_slope_k,
     gradient_change_mmhg: s.gradientChangeMmhg,
+    split_alveolar: s.splitAlveolar,
     paco2_temperature: s.paco2Temperature,
     paco2_temperature_rule:
       s.paco2Temperature === 'corrected'
@@ -323,7 +330,8 @@ function gasSettings(s: SettingsParts): Record<string, unknown> {
  * - VDphys = Enghoff at the sensor x median VTe - apparatus volume (patientDeadSpace, as per breath); Enghoff VD/VT =
  *   VDphys / median VTe; VDalv = VDphys - median VDaw (both without the apparatus, so VDalv does not depend on it);
  *   per kg on the chosen weight basis;
- * - shunt fraction and gradient split, see shuntPart; gradient_rest = gradient - gradient_shunt;
+ * - shunt fraction and gradient split, see shuntPart; gradient_alv = PaCO2 - the median alveolar PCO2 of the split
+ *   (split_alveolar: PĀECO2 by default), gradient_rest = gradient_alv - gradient_shunt (= Pc'CO2 - alveolar PCO2);
  * - gradient change versus the previous sample with a gradient, flagged above the setting.
  * Missing inputs leave NaN cells and are named in missing_inputs; assumptions are named in notes and warnings.
  * `analysis.summary_breaths` (analysis.summary_breaths) picks the breaths of the windows and estimates (usableForSummary).
@@ -340,7 +348,8 @@ export function analyseGas(
   const shuntSettings = resolveShuntSettings(opts);
   const weight = chooseWeight(opts);
   const paco2Temperature = opts.paco2_temperature ?? d.paco2_temperature.value;
-  const ctx: SampleContext = { breaths, windowS, gradientChangeMmhg, analysis, shuntSettings, weight, paco2Temperature };
+  const splitAlveolar = opts.split_alveolar ?? d.split_alveolar.value;
+  const ctx: SampleContext = { breaths, windowS, gradientChangeMmhg, analysis, shuntSettings, weight, paco2Temperature, splitAlveolar };
   const tally: SampleTally = {
     warnings: [...weight.warnings], defaultPvco2Samples: [], correctedSamples: [], previousGradient: NaN, previousSample: 0,
   };
@@ -365,7 +374,7 @@ export function analyseGas(
     analyser_sd_mmhg: opts.analyser_sd_mmhg ?? d.analyser_sd_mmhg.value,
     drift_prior_mmhg2_per_h: opts.drift_prior_mmhg2_per_h ?? d.drift_prior_mmhg2_per_h.value,
   };
-  const settings = gasSettings({ opts, analysis, shuntSettings, weight, paco2Temperature, windowS, gradientChangeMmhg, band });
+  const settings = gasSettings({ opts, analysis, shuntSettings, weight, paco2Temperature, splitAlveolar, windowS, gradientChangeMmhg, band });
   const estimates = estimatePaco2(breaths, rows, { ...band, summary_breaths: analysis.summary_breaths });
   return { rows, estimates, settings, warnings };
 }

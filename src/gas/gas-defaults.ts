@@ -41,6 +41,12 @@ export const GAS_DEFAULTS = {
     source:
       'Kampelmacher MJ, van Kesteren RG, Winckers EK 1997, Eur Respir J 10:1341-1344: SD of a random PCO2 measurement on a random blood-gas analyser',
   },
+  split_alveolar: {
+    value: 'paeco2' as 'paeco2' | 'alv_co2' | 'petco2',
+    source:
+      'Fletcher R, Jonson B, Cumming G, Brew J 1981, Br J Anaesth 53:77-88: mean alveolar expired PCO2 as the alveolar gas; ' +
+      "PaCO2 - PĀECO2 = shunt part (PaCO2 - Pc'CO2) + rest (Pc'CO2 - PĀECO2), derived here; 'alv_co2' uses the phase III midpoint, 'petco2' the end-tidal value",
+  },
   paco2_temperature: {
     value: 'corrected' as 'corrected' | 'measured',
     source:

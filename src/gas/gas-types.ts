@@ -96,6 +96,8 @@ export interface GasOptions {
   co2_slope_k?: number;
   /** flag a gradient change larger than this between consecutive samples, mmHg (default 5) */
   gradient_change_mmhg?: number;
+  /** the alveolar PCO2 the gradient is split on: mean alveolar expired (default), phase III midpoint or end-tidal */
+  split_alveolar?: 'paeco2' | 'alv_co2' | 'petco2';
   /** share of breaths the PaCO2 band is meant to hold (default 0.8) */
   band_level?: number;
   /** SD of a blood-gas analyser's PCO2, mmHg (default 1.02) */
@@ -161,6 +163,8 @@ export interface GasRow {
   pvco2_mmhg: number;
   pvco2_source: Pvco2Source;
   /** s/(1-s) x (PvCO2 - PaCO2) (or the Fick route) */
+  /** PaCO2 − the alveolar PCO2 of the split (split_alveolar), mmHg: shunt part + rest */
+  gradient_alv_mmhg: number;
   gradient_shunt_mmhg: number;
   /** gradient_mmhg - gradient_shunt_mmhg: dead space and V/Q mismatch */
   gradient_rest_mmhg: number;

@@ -9,7 +9,8 @@ import { analyseGas } from '../../src/gas/index';
 import { expectClose } from '../helpers/expect-close';
 import { breathSeries, makeSample } from './make-breath';
 
-const BREATHS = breathSeries(50, 9, { petco2_mmhg: 35, peco2_mmhg: 26, vt_exp_ml: 500, vd_aw_ml: 150, vdvt_bohr: 0.3, vtco2_ml: 20, rr_bpm: 10 });
+// PĀECO2 35 as PETCO2, so the split's alveolar gradient equals the end-tidal one here.
+const BREATHS = breathSeries(50, 9, { petco2_mmhg: 35, paeco2_mmhg: 35, peco2_mmhg: 26, vt_exp_ml: 500, vd_aw_ml: 150, vdvt_bohr: 0.3, vtco2_ml: 20, rr_bpm: 10 });
 
 describe('shunt fraction inside analyseGas', () => {
   it('by contents: FiO2 100 %, PaO2 200, SaO2 100 %, SvO2 75 %, PvO2 40, Hb 15 -> PAO2 673, Qs/Qt 0.2049', () => {
@@ -125,5 +126,19 @@ describe('shunt-corrected Enghoff VD/VT (Kuwabara S, Duncalf D 1969, Anesthesiol
     }).rows[0]!;
     expectClose(row.vdvt_enghoff, 0.35, { abs: 1e-9 });
     expectClose(row.vdvt_enghoff_shunt_corrected, (38.5 - 26) / 38.5, { abs: 1e-9 });
+  });
+});
+
+describe('the split is made on the mean alveolar expired PCO2, so neither part goes negative with a steep phase III', () => {
+  // Hand calculation (derived here): s 0.2 (SaO2 95 %, SvO2 75 %), PaCO2 40, PvCO2 46: shunt part 0.2/0.8 x 6 = 1.5,
+  // Pc'CO2 = 38.5. A steep phase III puts PETCO2 at 39.5 above Pc'CO2 while PĀECO2 is 36: split on PETCO2 the rest
+  // would be 0.5 - 1.5 = -1.0; split on PĀECO2 (Fletcher et al. 1981) the gradient is 4, the rest 4 - 1.5 = 2.5 = Pc'CO2 - PĀECO2.
+  const steep = breathSeries(50, 9, { petco2_mmhg: 39.5, paeco2_mmhg: 36, peco2_mmhg: 26, vt_exp_ml: 500, vd_aw_ml: 150, vdvt_bohr: 0.3, vtco2_ml: 20, rr_bpm: 10 });
+  it('gradient 0.5 end-tidal, 4 alveolar; shunt part 1.5; rest 2.5', () => {
+    const row = analyseGas(steep, [makeSample({ time_s: 100, paco2_mmhg: 40, sao2_pct: 95, svo2_pct: 75, pvco2_mmhg: 46 })], { pb_mmhg: 760 }).rows[0]!;
+    expectClose(row.gradient_mmhg, 0.5, { abs: 1e-9 });
+    expectClose(row.gradient_alv_mmhg, 4, { abs: 1e-9 });
+    expectClose(row.gradient_shunt_mmhg, 1.5, { abs: 1e-9 });
+    expectClose(row.gradient_rest_mmhg, 2.5, { abs: 1e-9 });
   });
 });
