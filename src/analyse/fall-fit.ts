@@ -80,7 +80,7 @@ export function fitInspiratoryFall(
     }
     return run;
   };
-  const measured = measuredSamples(t, co2, collect);
+  const measured = measuredSamples(t, co2, collect, slowChannel(t, co2, before, after));
   if (!measured) return null;
   const xs = measured.map((i) => t[i]!);
   const ys = measured.map((i) => detLog((co2[i]! - lo) / range));
@@ -101,18 +101,40 @@ export function fitInspiratoryFall(
  * The samples of the falling run that the fit uses. A CO2 channel slower than flow reaches the analysis with the rows
  * between its samples interpolated linearly by the reader; those rows lie exactly on the chord between their
  * neighbours and would pull the log-linear fit towards the chord (a longer time constant and a later onset: at a
- * quarter of the flow rate 28 instead of 18 ms on simulated data). When most of the run between 85 % and 12 % lies on
- * such chords, only the measured rows are fitted: those between 85 % and 12 %, or when fewer than two are there,
- * those between 96 % and 4 %; with fewer than two in either, the fall cannot be fitted (null). A run that is not
- * interpolated is fitted whole, as before. Method: derived here (a linear interpolant has zero second difference).
+ * quarter of the flow rate 28 instead of 18 ms on simulated data). When the rows around the fall show that pattern
+ * (slowChannel), only the measured rows are fitted: those between 85 % and 12 %, or when fewer than two are there,
+ * those between 96 % and 4 %; with fewer than two in either, the fall cannot be fitted (null). Any other run is
+ * fitted whole, as before. Method: derived here (a linear interpolant has zero second difference).
  */
-function measuredSamples(t: ArrayLike<number>, co2: ArrayLike<number>, collect: (top: number, bottom: number) => number[]): number[] | null {
+function measuredSamples(
+  t: ArrayLike<number>,
+  co2: ArrayLike<number>,
+  collect: (top: number, bottom: number) => number[],
+  slow: boolean,
+): number[] | null {
   const run = collect(0.85, 0.12);
+  if (!slow) return run;
   const kept = run.filter((i) => !onChord(t, co2, i));
-  if (run.length === 0 || 2 * kept.length > run.length) return run;
   if (kept.length >= 2) return kept;
   const wide = collect(0.96, 0.04).filter((i) => !onChord(t, co2, i));
   return wide.length >= 2 ? wide : null;
+}
+
+/**
+ * True when the CO2 around this fall (samples from..to) was filled in between the samples of a slower channel: at
+ * least four rows off the chords of their neighbours, and four in five of the gaps between them the same step of two
+ * or more rows. Equal steps of a quantised reading also lie on chords, but not at a fixed spacing.
+ */
+function slowChannel(t: ArrayLike<number>, co2: ArrayLike<number>, from: number, to: number): boolean {
+  const knots: number[] = [];
+  for (let i = from; i <= to; i++) if (!onChord(t, co2, i)) knots.push(i);
+  if (knots.length < 4 || 2 * knots.length > to - from + 1) return false;
+  const steps = new Map<number, number>();
+  for (let k = 1; k < knots.length; k++) steps.set(knots[k]! - knots[k - 1]!, (steps.get(knots[k]! - knots[k - 1]!) ?? 0) + 1);
+  let best = 0;
+  let bestCount = 0;
+  for (const [step, count] of steps) if (count > bestCount) [best, bestCount] = [step, count];
+  return best >= 2 && bestCount >= 0.8 * (knots.length - 1);
 }
 
 /** True when sample i lies exactly on the straight line between its neighbours (a row the reader interpolated). */
