@@ -79,7 +79,8 @@ export function createProgress(items: readonly ProgressItem[], opts: ProgressOpt
       bar.update(Math.min(bytes, totalBytes), { files, failed, rate: rate(rows, elapsed), eta: eta(elapsed, bytes, totalBytes) });
     },
     stop() {
-      bar.update(totalBytes);
+      // a stopped batch (Ctrl-C) leaves the bar where the finished recordings put it, as the manifest counts them
+      if (files === n) bar.update(totalBytes);
       bar.stop();
     },
   };

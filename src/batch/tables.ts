@@ -16,6 +16,8 @@ import { recordingRow, RECORDING_COLUMNS } from './recordings-table';
 
 export const BATCH_BREATHS_FILE = 'breaths.csv';
 export const BATCH_RECORDINGS_FILE = 'recordings.csv';
+/** Every study table a batch writes into DIR (beside manifest.json), in the order they are listed to the user. */
+export const STUDY_TABLES = [BATCH_BREATHS_FILE, BATCH_RECORDINGS_FILE, 'trends.csv', 'events.csv'] as const;
 
 const BREATHS_HEADER = BREATHS_CSV_COLUMNS.join(',');
 

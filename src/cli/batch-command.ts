@@ -1,6 +1,8 @@
 // `phasewise batch INPUTS... --out DIR [--settings FILE.json] [--jobs N] [--resume] [--shard I/N]` and
 // `phasewise batch merge SHARD_DIR... --out DIR`. Exit codes: 0 all recordings analysed; 4 some failed (the rest are
-// complete and the manifest names each failure); 2 usage (bad options, no inputs, shards that do not fit together).
+// complete and the manifest names each failure); 2 usage (bad options, no inputs, shards that do not fit together);
+// 130 stopped by Ctrl-C (SIGINT), 143 by SIGTERM (128 + the signal number, common practice, no source): the
+// recordings in flight finish, the manifest names what is complete, and a second signal exits at once.
 import { availableParallelism } from 'node:os';
 import { type Command, InvalidArgumentError } from 'commander';
 import { EXIT_CODES } from '../ingest/errors';
@@ -17,17 +19,52 @@ function positiveInt(v: string): number {
   return n;
 }
 
+/** Exit codes of a batch stopped by a signal: 128 + the signal number (common practice, no source). */
+export const BATCH_EXIT_SIGNAL = { SIGINT: 130, SIGTERM: 143 } as const;
+
+/**
+ * Listens for Ctrl-C and SIGTERM while a batch runs: the first aborts the returned signal (the batch stops after the
+ * recordings in flight), a second exits at once (outputs and the manifest are written atomically, so nothing is left
+ * half-written; the manifest is then the one written last). `received()` is the first signal, `release()` stops listening.
+ */
+function listenForStop(): { stop: AbortSignal; received: () => keyof typeof BATCH_EXIT_SIGNAL | null; release: () => void } {
+  const controller = new AbortController();
+  let first: keyof typeof BATCH_EXIT_SIGNAL | null = null;
+  const on = (sig: keyof typeof BATCH_EXIT_SIGNAL) => () => {
+    if (first) process.exit(BATCH_EXIT_SIGNAL[sig]);
+    first = sig;
+    process.stderr.write(`\nphasewise batch: ${sig} received, finishing the recordings in flight (again to exit at once)\n`);
+    controller.abort();
+  };
+  const onInt = on('SIGINT');
+  const onTerm = on('SIGTERM');
+  process.on('SIGINT', onInt);
+  process.on('SIGTERM', onTerm);
+  return {
+    stop: controller.signal,
+    received: () => first,
+    release: () => {
+      process.off('SIGINT', onInt);
+      process.off('SIGTERM', onTerm);
+    },
+  };
+}
+
 function usage(message: string): void {
   process.stderr.write(`phasewise batch: ${message}\n`);
   process.exitCode = EXIT_CODES.usage;
 }
 
-function report(m: Manifest, out: string, quiet: boolean): void {
+function listFailures(m: Manifest, out: string): void {
   const failed = m.inputs.filter((e) => e.status === 'failed');
   if (failed.length) {
     process.stderr.write(`${failed.length} recording(s) failed (details in ${out}/manifest.json and recordings.csv):\n`);
     for (const e of failed) process.stderr.write(`  ${e.recording}: [${e.error?.code}] ${e.error?.message}\n`);
   }
+}
+
+function report(m: Manifest, out: string, quiet: boolean): void {
+  listFailures(m, out);
   if (quiet) return;
   const c = m.counts;
   process.stdout.write(
@@ -68,6 +105,7 @@ export function registerBatch(program: Command): void {
       const plan = settingsPlan(opts);
       const quiet = Boolean(opts.quiet);
       const out = String(opts.out);
+      const signals = listenForStop();
       const outcome = await runBatch({
         inputs, outDir: out, plan, shard,
         jobs: (opts.jobs as number | undefined) ?? availableParallelism(),
@@ -75,7 +113,16 @@ export function registerBatch(program: Command): void {
         progress: quiet ? 'none' : process.stderr.isTTY ? 'bar' : 'lines',
         command: commandLine(inputs, opts),
         onWarning: (w) => process.stderr.write(`phasewise batch: warning: ${w}\n`),
-      });
+        stop: signals.stop,
+      }).finally(signals.release);
+      const sig = signals.received();
+      if (outcome.interrupted && sig) {
+        listFailures(outcome.manifest, out);
+        const { complete, total } = outcome.interrupted;
+        process.stderr.write(`interrupted after ${complete} of ${total} recordings — rerun the same command with --resume to finish\n`);
+        process.exitCode = BATCH_EXIT_SIGNAL[sig];
+        return;
+      }
       report(outcome.manifest, out, quiet);
       process.exitCode = outcome.exitCode;
     } catch (e) {
