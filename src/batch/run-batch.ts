@@ -9,7 +9,7 @@ import { rmSync, statSync } from 'node:fs';
 import { join, resolve } from 'node:path';
 import { writeFileAtomic } from '../node/atomic-write';
 import { VERSION } from '../version';
-import { expandInputs, type BatchInput } from './expand-inputs';
+import { expandInputs, recordingIdBelowInput, type BatchInput } from './expand-inputs';
 import { settingsForRecording, unmatchedPatternWarnings, unusedGasWarnings, type SettingsPlan } from './file-settings';
 import { countEntries, manifestJson, MANIFEST_FILE, MANIFEST_FORMAT, readManifest, type Manifest, type ManifestEntry } from './manifest';
 import { outputFolders } from './output-names';
@@ -157,6 +157,7 @@ function planRecordings(
   for (const [k, { input, folder }] of picked.entries()) {
     const rs = settingsForRecording(plan, input.patternPaths);
     const path = input.path;
+    const recordingId = recordingIdBelowInput(input);
     const before = done.get(input.recording);
     const outputs = { breaths: `${folder}/${BREATHS_FILE}`, summary: `${folder}/${SUMMARY_FILE}` };
     // kept only with the same content, settings, version (checked above) and output folder
@@ -164,9 +165,9 @@ function planRecordings(
     entries.push(
       resumeSha256 && before
         ? // until checked again, the earlier result stands (so an interrupted resumed run loses nothing)
-          { ...before, path, patterns: rs.patterns, outputs, resumed: true }
+          { ...before, recording_id: recordingId, path, patterns: rs.patterns, outputs, resumed: true }
         : {
-            recording: input.recording, path, size: null, sha256: null, settings_sha256: rs.sha256, patterns: rs.patterns,
+            recording: input.recording, recording_id: recordingId, path, size: null, sha256: null, settings_sha256: rs.sha256, patterns: rs.patterns,
             status: 'pending', error: null, outputs,
             rows: null, breaths_found: null, breaths_ok: null, resumed: false, elapsed_s: null,
           },

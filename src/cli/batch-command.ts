@@ -4,13 +4,15 @@
 // 130 stopped by Ctrl-C (SIGINT), 143 by SIGTERM (128 + the signal number, common practice, no source): the
 // recordings in flight finish, the manifest names what is complete, and a second signal exits at once.
 import { availableParallelism } from 'node:os';
+import { join } from 'node:path';
 import { type Command, InvalidArgumentError } from 'commander';
 import { EXIT_CODES } from '../ingest/errors';
 import { settingsPlan } from '../batch/file-settings';
 import { mergeShards, MergeError } from '../batch/merge';
 import { BatchUsageError, runBatch } from '../batch/run-batch';
 import { parseShard, ShardError } from '../batch/shard';
-import type { Manifest } from '../batch/manifest';
+import { MANIFEST_FILE, type Manifest } from '../batch/manifest';
+import { STUDY_TABLES } from '../batch/tables';
 import { addInputOptions } from './options';
 
 function positiveInt(v: string): number {
@@ -58,7 +60,7 @@ function usage(message: string): void {
 function listFailures(m: Manifest, out: string): void {
   const failed = m.inputs.filter((e) => e.status === 'failed');
   if (failed.length) {
-    process.stderr.write(`${failed.length} recording(s) failed (details in ${out}/manifest.json and recordings.csv):\n`);
+    process.stderr.write(`${failed.length} recording(s) failed (details in ${join(out, MANIFEST_FILE)} and recordings.csv):\n`);
     for (const e of failed) process.stderr.write(`  ${e.recording}: [${e.error?.code}] ${e.error?.message}\n`);
   }
 }
@@ -70,7 +72,7 @@ function report(m: Manifest, out: string, quiet: boolean): void {
   process.stdout.write(
     `batch: ${m.inputs.length} recording(s): ${c.ok} ok (${c.resumed} kept from an earlier run), ${c.failed} failed` +
       (m.elapsed_s === null ? '' : m.merged_from.length ? ` (merged from ${m.merged_from.length} shard folder(s))` : ` in ${m.elapsed_s} s`) +
-      `\nwritten: ${out}/breaths.csv, ${out}/recordings.csv, ${out}/manifest.json\n`,
+      `\nwritten: ${[...STUDY_TABLES, MANIFEST_FILE].map((f) => join(out, f)).join(', ')}\n`,
   );
 }
 

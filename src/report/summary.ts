@@ -351,7 +351,14 @@ function readingLine(inp: InputSummary): string {
   const delim = inp.delimiter === '\t' ? 'tab' : inp.delimiter === ';' ? 'semicolon' : inp.delimiter === ',' ? 'comma' : String(inp.delimiter);
   const rate = typeof inp.rate_hz === 'number' && Number.isFinite(inp.rate_hz) ? `, ${fmt(inp.rate_hz, 0)} Hz` : '';
   return (
-    `read: ${delim}-separated, decimal '${String(inp.decimal)}', time ${cols.time ?? '(from --rate)'} [${units.time}], ` +
-    `flow ${cols.flow} [${units.flow}], CO2 ${cols.co2} [${units.co2}]${rate} (details: summary.json input.notes)`
+    `read: ${delim}-separated, decimal '${String(inp.decimal)}', time ${withUnit(cols.time ?? '(from --rate)', units.time)}, ` +
+    `flow ${withUnit(cols.flow, units.flow)}, CO2 ${withUnit(cols.co2, units.co2)}${rate} (details: summary.json input.notes)`
   );
+}
+
+/** A column name with its unit in brackets, unless the name already carries it: "Time [ms]", "Flow (L/min)". */
+function withUnit(name: string, unit: string): string {
+  const u = unit.toLowerCase();
+  const inName = name.toLowerCase().includes(`[${u}]`) || name.toLowerCase().includes(`(${u})`);
+  return inName ? name : `${name} [${unit}]`;
 }
