@@ -1,6 +1,6 @@
 // Ctrl-C (SIGINT) during `phasewise batch`: the recording in flight finishes, no new one starts, the manifest names
 // what is complete, the progress lines and the manifest agree, one line says how to finish, the exit code is 130
-// (128 + the signal number: common practice, no source), and `--resume` then completes the rest.
+// (128 + the signal number: common practice, no source), `--resume` then completes the rest, and a second Ctrl-C exits at once.
 import { spawn, spawnSync } from 'node:child_process';
 import { mkdtempSync, readdirSync, readFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
@@ -19,8 +19,9 @@ beforeAll(async () => {
   for (let k = 0; k < N; k++) writeRecording(join(dir, 'data', `r${k}.csv`), 'adult-healthy', 3, k + 1);
 }, 120_000);
 
-/** Runs the batch, sends `signal` when the first progress line arrives; resolves on exit. */
-function interrupted(out: string, signal: NodeJS.Signals, jobs = '1'): Promise<{ code: number | null; stderr: string; stdout: string }> {
+/** Runs the batch, sends `signal` when the first progress line arrives (with `twice`, again as soon as the batch says
+ *  it is finishing); resolves on exit. */
+function interrupted(out: string, signal: NodeJS.Signals, jobs = '1', twice = false): Promise<{ code: number | null; stderr: string; stdout: string }> {
   return new Promise((resolve) => {
     const child = spawn(process.execPath, [cli, 'batch', 'data', '--out', out, '--jobs', jobs], { cwd: dir });
     let stderr = '';
@@ -30,6 +31,9 @@ function interrupted(out: string, signal: NodeJS.Signals, jobs = '1'): Promise<{
       stderr += d.toString();
       if (!sent && /\[1\/8\] ok/.test(stderr)) {
         sent = true;
+        child.kill(signal);
+      } else if (twice && sent && /finishing the recordings in flight/.test(stderr)) {
+        twice = false;
         child.kill(signal);
       }
     });
@@ -70,5 +74,15 @@ describe('interrupted batch', () => {
     expect(done).toBeLessThan(N);
     expect(r.stderr.match(/^\[\d+\/8\] ok/gm)?.length).toBe(done);
     expect(r.stderr).toContain(`interrupted after ${done} of 8 recordings — rerun the same command with --resume to finish\n`);
+  }, 120_000);
+
+  it('a second Ctrl-C exits at once: exit 130, no closing line, the manifest as last written', async () => {
+    const r = await interrupted('out-twice', 'SIGINT', '1', true);
+    expect(r.code, r.stderr).toBe(130);
+    expect(r.stderr).toContain('SIGINT received, finishing the recordings in flight');
+    expect(r.stderr).not.toContain('interrupted after');
+    const m = JSON.parse(readFileSync(join(dir, 'out-twice', 'manifest.json'), 'utf8')) as Manifest;
+    expect(m.finished_at).toBeNull();
+    expect(m.counts.pending).toBeGreaterThan(0);
   }, 120_000);
 });
