@@ -5,7 +5,7 @@
 // batch manifest.json, or the breaths.csv + summary.json pair of `analyse`), so `phasewise batch .` does not read
 // earlier results as recordings.
 import { closeSync, existsSync, openSync, readdirSync, readSync, realpathSync, statSync } from 'node:fs';
-import { basename, isAbsolute, join, relative, resolve, sep } from 'node:path';
+import { basename, isAbsolute, join, posix, relative, resolve, sep } from 'node:path';
 import { globToRegExp, hasGlobChars, toPosix } from './glob';
 
 /** Extensions taken when a folder is searched (case-insensitive). */
@@ -45,6 +45,16 @@ function hasRecordingExtension(name: string): boolean {
 
 function isInside(path: string, folder: string | null): boolean {
   return folder !== null && (path === folder || path.startsWith(folder + sep));
+}
+
+/**
+ * The short id of a recording for the study tables: its path below the input that found it (the first of its
+ * pattern paths: below the folder or glob base, or the file name for a file named directly), without the extension.
+ */
+export function recordingIdBelowInput(input: Pick<BatchInput, 'patternPaths' | 'recording'>): string {
+  const p = input.patternPaths[0] ?? input.recording;
+  const ext = posix.extname(p);
+  return ext ? p.slice(0, -ext.length) : p;
 }
 
 /** Does this folder hold phasewise outputs (a batch manifest, or the files `analyse` writes)? */

@@ -14,6 +14,9 @@ export type EntryStatus = 'ok' | 'failed' | 'pending';
 
 export interface ManifestEntry {
   recording: string;
+  /** the recording's path below its input (folder, glob base, or the file name), without extension: the study
+   *  tables' recording_id column */
+  recording_id: string;
   /** absolute path the file was read from */
   path: string;
   size: number | null;

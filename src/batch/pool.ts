@@ -12,7 +12,8 @@
 // go through the reader thread: for short recordings the second thread costs more than it saves (measured, below).
 // Each lane takes the next task as soon as it can use it (one task ahead when its reader is busy with a large file,
 // so the reader never waits); results arrive in completion order and the caller places them by index, so the
-// tables do not depend on scheduling. A worker that dies (e.g. out of memory) fails only the tasks it held and is
+// tables do not depend on scheduling. Once the caller's `stop` signal is aborted no task is handed out, the tasks
+// handed out finish, and runTasks returns. A worker that dies (e.g. out of memory) fails only the tasks it held and is
 // replaced.
 import { existsSync } from 'node:fs';
 import { join } from 'node:path';
@@ -111,6 +112,8 @@ interface SharedQueue {
   next: number;
   /** set when the batch ends early with an error: no more tasks are handed out, no more results passed on */
   failed: boolean;
+  /** set when the caller stops the batch (Ctrl-C): no more tasks are handed out; those handed out finish */
+  stopped: boolean;
   workers: Worker[];
   readerMinBytes: number;
 }
@@ -122,15 +125,20 @@ export async function runTasks(
   workerFile: string | null = defaultWorkerFile(),
   readerFile: string | null = readWorkerFile(),
   readerMinBytes: number = READER_MIN_BYTES,
+  stop: AbortSignal | null = null,
 ): Promise<void> {
-  if (!tasks.length) return;
+  if (!tasks.length || stop?.aborted) return;
   const lanes = planLanes(jobs, tasks.length, readerFile !== null && mostBytesInLargeFiles(tasks, readerMinBytes));
   if (lanes.length > 1 && !workerFile) throw new Error(`the worker bundle ${WORKER_BUNDLE} was not found next to the CLI; run \`npm run build\``);
-  const queue: SharedQueue = { tasks, next: 0, failed: false, workers: [], readerMinBytes };
+  const queue: SharedQueue = { tasks, next: 0, failed: false, stopped: false, workers: [], readerMinBytes };
   await new Promise<void>((resolve, reject) => {
     const complete = resultHandler(queue, onResult, resolve, reject);
+    stop?.addEventListener('abort', () => {
+      queue.stopped = true;
+      complete(null);
+    }, { once: true });
     // the main thread's lane
-    runLane(() => (queue.failed || queue.next >= tasks.length ? null : tasks[queue.next++]!), complete, lanes[0] ? readerFile : null, readerMinBytes).catch((e: unknown) => {
+    runLane(() => (queue.failed || queue.stopped || queue.next >= tasks.length ? null : tasks[queue.next++]!), complete, lanes[0] ? readerFile : null, readerMinBytes).catch((e: unknown) => {
       queue.failed = true;
       reject(e);
     });
@@ -146,24 +154,28 @@ function mostBytesInLargeFiles(tasks: readonly RecordingTask[], readerMinBytes: 
 }
 
 /**
- * The function every lane calls with a result: passes it to `onResult` and resolves once every task has one.
+ * The function every lane calls with a result: passes it to `onResult` and resolves once every task has one, or,
+ * once stopped, every task handed out (null: no result, only that check, when the stop arrives).
  * A failure of the caller's own handler (e.g. the manifest cannot be written) ends the batch with that error.
  */
 function resultHandler(
   queue: SharedQueue, onResult: (r: RecordingResult) => void, resolve: () => void, reject: (e: unknown) => void,
-): (r: RecordingResult) => void {
+): (r: RecordingResult | null) => void {
   let done = 0;
-  return (r: RecordingResult) => {
+  return (r: RecordingResult | null) => {
     if (queue.failed) return;
-    try {
-      onResult(r);
-    } catch (e) {
-      queue.failed = true;
-      for (const w of queue.workers) void w.terminate();
-      reject(e);
-      return;
+    if (r) {
+      try {
+        onResult(r);
+      } catch (e) {
+        queue.failed = true;
+        for (const w of queue.workers) void w.terminate();
+        reject(e);
+        return;
+      }
+      done++;
     }
-    if (++done === queue.tasks.length) resolve();
+    if (done === queue.tasks.length || (queue.stopped && done === queue.next)) resolve();
   };
 }
 
@@ -179,7 +191,7 @@ function startWorker(queue: SharedQueue, complete: (r: RecordingResult) => void,
   const held = new Map<number, RecordingTask>();
   let finished = false;
   const give = () => {
-    while (!queue.failed && held.size < depth && queue.next < queue.tasks.length) {
+    while (!queue.failed && !queue.stopped && held.size < depth && queue.next < queue.tasks.length) {
       const t = queue.tasks[queue.next++]!;
       held.set(t.index, t);
       w.postMessage(t);
@@ -200,7 +212,7 @@ function startWorker(queue: SharedQueue, complete: (r: RecordingResult) => void,
     for (const t of held.values()) complete(workerStoppedResult(t, why));
     held.clear();
     void w.terminate();
-    if (!queue.failed && queue.next < queue.tasks.length) startWorker(queue, complete, file, laneReader);
+    if (!queue.failed && !queue.stopped && queue.next < queue.tasks.length) startWorker(queue, complete, file, laneReader);
   };
   w.on('error', (e) => died(e.message.replace(/[\r\n]+/g, ' ')));
   w.on('exit', (code) => died(`exit code ${code}`));

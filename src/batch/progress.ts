@@ -61,14 +61,15 @@ export function createProgress(items: readonly ProgressItem[], opts: ProgressOpt
   }
   const bar = new cliProgress.SingleBar(
     {
-      format: 'batch [{bar}] {percentage}% | {files}/{nfiles} files | {failed} failed | {rate} rows/s | ETA {eta}',
+      // {remaining}, not {eta}: cli-progress fills its own {eta} token with a bare number of seconds
+      format: 'batch [{bar}] {percentage}% | {files}/{nfiles} files | {failed} failed | {rate} rows/s | ETA {remaining}',
       stream: stream as NodeJS.WriteStream,
       hideCursor: true,
       fps: 5,
     },
     cliProgress.Presets.shades_classic,
   );
-  bar.start(totalBytes, 0, { files: 0, nfiles: n, failed: 0, rate: '-', eta: '-' });
+  bar.start(totalBytes, 0, { files: 0, nfiles: n, failed: 0, rate: '-', remaining: '-' });
   return {
     done(item, r, rowCount) {
       files++;
@@ -76,10 +77,11 @@ export function createProgress(items: readonly ProgressItem[], opts: ProgressOpt
       if (r.status === 'failed') failed++;
       else if (!r.resumed) rows += rowCount ?? 0;
       const elapsed = (performance.now() - t0) / 1000;
-      bar.update(Math.min(bytes, totalBytes), { files, failed, rate: rate(rows, elapsed), eta: eta(elapsed, bytes, totalBytes) });
+      bar.update(Math.min(bytes, totalBytes), { files, failed, rate: rate(rows, elapsed), remaining: eta(elapsed, bytes, totalBytes) });
     },
     stop() {
-      bar.update(totalBytes);
+      // a stopped batch (Ctrl-C) leaves the bar where the finished recordings put it, as the manifest counts them
+      if (files === n) bar.update(totalBytes);
       bar.stop();
     },
   };

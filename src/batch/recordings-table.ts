@@ -10,7 +10,7 @@ import type { ManifestEntry } from './manifest';
 const EXCLUDING_CODES = Object.keys(REASON_CODES).filter((c) => !CAUTION_CODES.has(c));
 
 export const RECORDING_COLUMNS: readonly string[] = [
-  'recording', 'status', 'error_code', 'error',
+  'recording', 'recording_id', 'status', 'error_code', 'error',
   'rows', 'rows_used', 'rows_skipped', 'duration_s',
   'breaths_found', 'breaths_ok', 'breaths_caution', 'breaths_excluded', 'breaths_partial',
   'delay_s', 'delay_origin', 'response_ms', 'response_origin', 'expiration',
@@ -23,6 +23,7 @@ export const RECORDING_COLUMNS: readonly string[] = [
 export function recordingRow(entry: ManifestEntry, summary: Summary | null): Record<string, unknown> {
   const row: Record<string, unknown> = {
     recording: entry.recording,
+    recording_id: entry.recording_id ?? '',
     status: entry.status,
     error_code: entry.error?.code ?? '',
     error: entry.error?.message ?? '',

@@ -1,12 +1,15 @@
 // `phasewise batch`: expand inputs, pick the shard, analyse every recording (pool of worker threads), record each
 // result in DIR/manifest.json as it arrives (so an interrupted run can be resumed), then write the tables.
 // Exit code: 0 when every recording was analysed, 4 (BATCH_EXIT_SOME_FAILED) when at least one failed.
+// When `stop` is aborted (the CLI does so on Ctrl-C or SIGTERM), no new recording starts, those in flight finish, the
+// manifest is written with the rest still `pending` (finished_at null) and no study table is written: the outcome's
+// `interrupted` says how many are complete, and `--resume` finishes the rest.
 import { createHash } from 'node:crypto';
-import { statSync } from 'node:fs';
+import { rmSync, statSync } from 'node:fs';
 import { join, resolve } from 'node:path';
 import { writeFileAtomic } from '../node/atomic-write';
 import { VERSION } from '../version';
-import { expandInputs, type BatchInput } from './expand-inputs';
+import { expandInputs, recordingIdBelowInput, type BatchInput } from './expand-inputs';
 import { settingsForRecording, unmatchedPatternWarnings, unusedGasWarnings, type SettingsPlan } from './file-settings';
 import { countEntries, manifestJson, MANIFEST_FILE, MANIFEST_FORMAT, readManifest, type Manifest, type ManifestEntry } from './manifest';
 import { outputFolders } from './output-names';
@@ -14,7 +17,7 @@ import { runTasks } from './pool';
 import { BREATHS_FILE, SUMMARY_FILE, type RecordingResult, type RecordingTask } from './process-recording';
 import { createProgress } from './progress';
 import { selectShard, type Shard } from './shard';
-import { writeBatchTables } from './tables';
+import { STUDY_TABLES, writeBatchTables } from './tables';
 
 /** Exit code of a batch in which at least one recording failed (the others are complete). */
 export const BATCH_EXIT_SOME_FAILED = 4;
@@ -42,12 +45,16 @@ export interface BatchOptions {
   command?: string;
   /** called with each warning before any recording is analysed (the CLI prints them there) */
   onWarning?: (warning: string) => void;
+  /** aborted to stop the batch early: recordings in flight finish, no new one starts */
+  stop?: AbortSignal;
 }
 
 export interface BatchOutcome {
   manifest: Manifest;
   exitCode: 0 | typeof BATCH_EXIT_SOME_FAILED;
   warnings: string[];
+  /** set when `stop` ended the run early: recordings complete (ok or failed) of those this run had to do */
+  interrupted: { complete: number; total: number } | null;
 }
 
 /** SHA-256 of the recording ids, one per line: shards of one batch share it. */
@@ -99,13 +106,22 @@ export async function runBatch(o: BatchOptions): Promise<BatchOutcome> {
     o.workerFile,
     o.readerFile,
     o.readerMinBytes,
+    o.stop ?? null,
   );
+  if (o.stop?.aborted) {
+    progress.stop();
+    // study tables of an earlier run would not match this manifest
+    for (const f of STUDY_TABLES) rmSync(join(outDir, f), { force: true });
+    writeManifest();
+    const c = manifest.counts;
+    return { manifest, exitCode: c.failed > 0 ? BATCH_EXIT_SOME_FAILED : 0, warnings, interrupted: { complete: c.ok + c.failed, total: entries.length } };
+  }
   progress.stop();
   writeBatchTables(outDir, entries);
   manifest.finished_at = new Date().toISOString();
   manifest.elapsed_s = round3((performance.now() - t0) / 1000);
   writeManifest();
-  return { manifest, exitCode: manifest.counts.failed > 0 ? BATCH_EXIT_SOME_FAILED : 0, warnings };
+  return { manifest, exitCode: manifest.counts.failed > 0 ? BATCH_EXIT_SOME_FAILED : 0, warnings, interrupted: null };
 }
 
 /** Every input with its output folder (named from all inputs, so shards agree), then only this run's shard. */
@@ -141,6 +157,7 @@ function planRecordings(
   for (const [k, { input, folder }] of picked.entries()) {
     const rs = settingsForRecording(plan, input.patternPaths);
     const path = input.path;
+    const recordingId = recordingIdBelowInput(input);
     const before = done.get(input.recording);
     const outputs = { breaths: `${folder}/${BREATHS_FILE}`, summary: `${folder}/${SUMMARY_FILE}` };
     // kept only with the same content, settings, version (checked above) and output folder
@@ -148,9 +165,9 @@ function planRecordings(
     entries.push(
       resumeSha256 && before
         ? // until checked again, the earlier result stands (so an interrupted resumed run loses nothing)
-          { ...before, path, patterns: rs.patterns, outputs, resumed: true }
+          { ...before, recording_id: recordingId, path, patterns: rs.patterns, outputs, resumed: true }
         : {
-            recording: input.recording, path, size: null, sha256: null, settings_sha256: rs.sha256, patterns: rs.patterns,
+            recording: input.recording, recording_id: recordingId, path, size: null, sha256: null, settings_sha256: rs.sha256, patterns: rs.patterns,
             status: 'pending', error: null, outputs,
             rows: null, breaths_found: null, breaths_ok: null, resumed: false, elapsed_s: null,
           },

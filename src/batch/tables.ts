@@ -1,8 +1,9 @@
 // The batch tables, written from the per-recording folders in input order (never completion order):
-// DIR/breaths.csv  every breath of every ok recording, with a leading `recording` column (the per-recording
-//                  breaths.csv lines, unchanged, so the bytes equal breathsCsv(rows, { column: 'recording', ... }));
+// DIR/breaths.csv  every breath of every ok recording, with leading `recording` and `recording_id` columns (then the
+//                  per-recording breaths.csv lines, unchanged);
 // DIR/recordings.csv one row per recording (recordings-table.ts).
-// DIR/trends.csv, DIR/events.csv  every recording's trends and events, with a leading `recording` column.
+// DIR/trends.csv, DIR/events.csv  every recording's trends and events, with leading `recording` and `recording_id`.
+// recording is the path from the working folder (unique); recording_id the path below its input, without extension.
 // breaths.csv is streamed recording by recording, so memory holds one recording's table at a time.
 import { closeSync, mkdirSync, openSync, readFileSync, renameSync, rmSync, writeSync } from 'node:fs';
 import { dirname, join } from 'node:path';
@@ -16,6 +17,8 @@ import { recordingRow, RECORDING_COLUMNS } from './recordings-table';
 
 export const BATCH_BREATHS_FILE = 'breaths.csv';
 export const BATCH_RECORDINGS_FILE = 'recordings.csv';
+/** Every study table a batch writes into DIR (beside manifest.json), in the order they are listed to the user. */
+export const STUDY_TABLES = [BATCH_BREATHS_FILE, BATCH_RECORDINGS_FILE, 'trends.csv', 'events.csv'] as const;
 
 const BREATHS_HEADER = BREATHS_CSV_COLUMNS.join(',');
 
@@ -28,7 +31,7 @@ export function writeBatchTables(outDir: string, entries: readonly ManifestEntry
   let open = true;
   const rows: Record<string, unknown>[] = [];
   try {
-    writeSync(fd, `recording,${BREATHS_HEADER}\n`);
+    writeSync(fd, `recording,recording_id,${BREATHS_HEADER}\n`);
     for (const e of entries) {
       if (e.status !== 'ok') {
         rows.push(recordingRow(e, null));
@@ -44,7 +47,7 @@ export function writeBatchTables(outDir: string, entries: readonly ManifestEntry
       }
       const body = text.slice(firstEnd + 1);
       if (!body) continue;
-      const prefix = csvCell(e.recording) + ',';
+      const prefix = rowPrefix(e);
       const lines = body.endsWith('\n') ? body.slice(0, -1).split('\n') : body.split('\n');
       writeSync(fd, lines.map((l) => prefix + l).join('\n') + '\n');
     }
@@ -62,9 +65,15 @@ export function writeBatchTables(outDir: string, entries: readonly ManifestEntry
   }
 }
 
+/** The leading cells of a recording's rows in the study tables: recording, recording_id (empty in a manifest written
+ *  before the column existed). */
+function rowPrefix(e: ManifestEntry): string {
+  return `${csvCell(e.recording)},${csvCell(e.recording_id ?? '')},`;
+}
+
 /** One recording-prefixed table from the per-recording files `name` of the ok entries (input order). */
 function combined(outDir: string, entries: readonly ManifestEntry[], name: string, header: string): string {
-  const parts = [`recording,${header}\n`];
+  const parts = [`recording,recording_id,${header}\n`];
   for (const e of entries) {
     if (e.status !== 'ok') continue;
     const path = join(outDir, dirname(e.outputs.breaths), name);
@@ -80,7 +89,7 @@ function combined(outDir: string, entries: readonly ManifestEntry[], name: strin
     }
     const body = text.slice(firstEnd + 1);
     if (!body) continue;
-    const prefix = csvCell(e.recording) + ',';
+    const prefix = rowPrefix(e);
     const lines = body.endsWith('\n') ? body.slice(0, -1).split('\n') : body.split('\n');
     parts.push(lines.map((l) => prefix + l).join('\n') + '\n');
   }

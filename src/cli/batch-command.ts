@@ -1,14 +1,18 @@
 // `phasewise batch INPUTS... --out DIR [--settings FILE.json] [--jobs N] [--resume] [--shard I/N]` and
 // `phasewise batch merge SHARD_DIR... --out DIR`. Exit codes: 0 all recordings analysed; 4 some failed (the rest are
-// complete and the manifest names each failure); 2 usage (bad options, no inputs, shards that do not fit together).
+// complete and the manifest names each failure); 2 usage (bad options, no inputs, shards that do not fit together);
+// 130 stopped by Ctrl-C (SIGINT), 143 by SIGTERM (128 + the signal number, common practice, no source): the
+// recordings in flight finish, the manifest names what is complete, and a second signal exits at once.
 import { availableParallelism } from 'node:os';
+import { join } from 'node:path';
 import { type Command, InvalidArgumentError } from 'commander';
 import { EXIT_CODES } from '../ingest/errors';
 import { settingsPlan } from '../batch/file-settings';
 import { mergeShards, MergeError } from '../batch/merge';
 import { BatchUsageError, runBatch } from '../batch/run-batch';
 import { parseShard, ShardError } from '../batch/shard';
-import type { Manifest } from '../batch/manifest';
+import { MANIFEST_FILE, type Manifest } from '../batch/manifest';
+import { STUDY_TABLES } from '../batch/tables';
 import { addInputOptions } from './options';
 
 function positiveInt(v: string): number {
@@ -17,23 +21,58 @@ function positiveInt(v: string): number {
   return n;
 }
 
+/** Exit codes of a batch stopped by a signal: 128 + the signal number (common practice, no source). */
+export const BATCH_EXIT_SIGNAL = { SIGINT: 130, SIGTERM: 143 } as const;
+
+/**
+ * Listens for Ctrl-C and SIGTERM while a batch runs: the first aborts the returned signal (the batch stops after the
+ * recordings in flight), a second exits at once (outputs and the manifest are written atomically, so nothing is left
+ * half-written; the manifest is then the one written last). `received()` is the first signal, `release()` stops listening.
+ */
+function listenForStop(): { stop: AbortSignal; received: () => keyof typeof BATCH_EXIT_SIGNAL | null; release: () => void } {
+  const controller = new AbortController();
+  let first: keyof typeof BATCH_EXIT_SIGNAL | null = null;
+  const on = (sig: keyof typeof BATCH_EXIT_SIGNAL) => () => {
+    if (first) process.exit(BATCH_EXIT_SIGNAL[sig]);
+    first = sig;
+    process.stderr.write(`\nphasewise batch: ${sig} received, finishing the recordings in flight (again to exit at once)\n`);
+    controller.abort();
+  };
+  const onInt = on('SIGINT');
+  const onTerm = on('SIGTERM');
+  process.on('SIGINT', onInt);
+  process.on('SIGTERM', onTerm);
+  return {
+    stop: controller.signal,
+    received: () => first,
+    release: () => {
+      process.off('SIGINT', onInt);
+      process.off('SIGTERM', onTerm);
+    },
+  };
+}
+
 function usage(message: string): void {
   process.stderr.write(`phasewise batch: ${message}\n`);
   process.exitCode = EXIT_CODES.usage;
 }
 
-function report(m: Manifest, out: string, quiet: boolean): void {
+function listFailures(m: Manifest, out: string): void {
   const failed = m.inputs.filter((e) => e.status === 'failed');
   if (failed.length) {
-    process.stderr.write(`${failed.length} recording(s) failed (details in ${out}/manifest.json and recordings.csv):\n`);
+    process.stderr.write(`${failed.length} recording(s) failed (details in ${join(out, MANIFEST_FILE)} and recordings.csv):\n`);
     for (const e of failed) process.stderr.write(`  ${e.recording}: [${e.error?.code}] ${e.error?.message}\n`);
   }
+}
+
+function report(m: Manifest, out: string, quiet: boolean): void {
+  listFailures(m, out);
   if (quiet) return;
   const c = m.counts;
   process.stdout.write(
     `batch: ${m.inputs.length} recording(s): ${c.ok} ok (${c.resumed} kept from an earlier run), ${c.failed} failed` +
       (m.elapsed_s === null ? '' : m.merged_from.length ? ` (merged from ${m.merged_from.length} shard folder(s))` : ` in ${m.elapsed_s} s`) +
-      `\nwritten: ${out}/breaths.csv, ${out}/recordings.csv, ${out}/manifest.json\n`,
+      `\nwritten: ${[...STUDY_TABLES, MANIFEST_FILE].map((f) => join(out, f)).join(', ')}\n`,
   );
 }
 
@@ -68,6 +107,7 @@ export function registerBatch(program: Command): void {
       const plan = settingsPlan(opts);
       const quiet = Boolean(opts.quiet);
       const out = String(opts.out);
+      const signals = listenForStop();
       const outcome = await runBatch({
         inputs, outDir: out, plan, shard,
         jobs: (opts.jobs as number | undefined) ?? availableParallelism(),
@@ -75,7 +115,16 @@ export function registerBatch(program: Command): void {
         progress: quiet ? 'none' : process.stderr.isTTY ? 'bar' : 'lines',
         command: commandLine(inputs, opts),
         onWarning: (w) => process.stderr.write(`phasewise batch: warning: ${w}\n`),
-      });
+        stop: signals.stop,
+      }).finally(signals.release);
+      const sig = signals.received();
+      if (outcome.interrupted && sig) {
+        listFailures(outcome.manifest, out);
+        const { complete, total } = outcome.interrupted;
+        process.stderr.write(`interrupted after ${complete} of ${total} recordings — rerun the same command with --resume to finish\n`);
+        process.exitCode = BATCH_EXIT_SIGNAL[sig];
+        return;
+      }
       report(outcome.manifest, out, quiet);
       process.exitCode = outcome.exitCode;
     } catch (e) {

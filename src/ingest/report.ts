@@ -35,6 +35,9 @@ export interface IngestReport {
   skipped_examples: SkippedExample[];
   /** time gaps (flow silent for more than max_silence_s); each left one NaN sample in the output */
   gaps: number;
+  /** the first MAX_GAPS_LISTED gaps: the time of the last flow sample before (s, the recording's time axis) and the
+   *  time from it to the first flow sample after */
+  gap_list: GapSpan[];
   /** sampling rate of the flow channel, Hz: from the sampled head (or given with --rate) */
   rate_hz: number;
   // --- beyond the agreed interface
@@ -63,6 +66,14 @@ export const SKIP_REASONS = {
 } as const;
 
 export type SkipReason = keyof typeof SKIP_REASONS;
+
+export interface GapSpan {
+  start_s: number;
+  length_s: number;
+}
+
+/** Number of gaps listed (with their times) in the report; `gaps` counts them all. */
+export const MAX_GAPS_LISTED = 1000;
 
 /** Number of skipped rows kept as examples. */
 export const MAX_SKIPPED_EXAMPLES = 10;

@@ -10,14 +10,14 @@
 // - CO2 present: a CO2 sample; flow samples waiting for CO2 get it by linear interpolation between the
 //   previous and this CO2 sample when the two are at most max_silence_s apart, NaN otherwise.
 // - flow present: a sample at t. If the flow was silent for more than max_silence_s, first a NaN sample at the
-//   middle of the gap (counted in `gaps`) so that no breath is built across it.
+//   middle of the gap (counted in `gaps`, the first ones listed with their times in `gap_list`) so that no breath is built across it.
 import type { IngestSettings } from '../settings';
 import type { SampleBlock } from '../types';
 import { BlockBuilder } from './block-builder';
 import { formatClockStamp } from './clock-time';
 import { InputError } from './errors';
 import type { TableLayout } from './layout';
-import { MAX_SKIPPED_EXAMPLES, type IngestReport, type SkipReason, type SkippedExample } from './report';
+import { MAX_GAPS_LISTED, MAX_SKIPPED_EXAMPLES, type GapSpan, type IngestReport, type SkipReason, type SkippedExample } from './report';
 
 /** Consecutive out-of-order rows that make the file unusable. */
 export const MAX_BACKWARD_RUN = 50;
@@ -32,6 +32,7 @@ export class RowAssembler {
   skipped = 0;
   blank_lines = 0;
   gaps = 0;
+  readonly gapList: GapSpan[] = [];
   samples = 0;
   co2_missing = 0;
   readonly byReason: Record<string, number> = {};
@@ -120,6 +121,7 @@ export class RowAssembler {
     if (t - this.lastFlowT > this.silence) {
       b.add((this.lastFlowT + t) / 2, NaN, NaN, line);
       this.gaps++;
+      if (this.gapList.length < MAX_GAPS_LISTED) this.gapList.push({ start_s: this.lastFlowT, length_s: t - this.lastFlowT });
       this.samples++;
     }
     this.lastFlowT = t;
@@ -175,6 +177,7 @@ export class RowAssembler {
       skipped_by_reason: { ...this.byReason },
       skipped_examples: this.examples.map((e) => ({ ...e })),
       gaps: this.gaps,
+      gap_list: this.gapList.map((g) => ({ ...g })),
       rate_hz: L.rate_hz,
       blank_lines: this.blank_lines,
       samples: this.samples,

@@ -307,6 +307,8 @@ export function formatSummaryText(s: Summary): string {
   }
   const skipped = Object.entries(inp.skipped_by_reason ?? {}).filter(([, n]) => n > 0);
   if (skipped.length) lines.push(`skipped rows by reason: ${skipped.map(([k, n]) => `${k} ${n}`).join(', ')}`);
+  const gaps = gapLine(inp);
+  if (gaps) lines.push(gaps);
   const read = readingLine(inp);
   if (read) lines.push(read);
   for (const n of s.notes) lines.push(`note: ${n}`);
@@ -323,6 +325,24 @@ function fmt(x: number | null, digits: number): string {
   return s === '' ? '—' : s;
 }
 
+/** Gaps listed on the terminal; the rest are counted ("and N more"). */
+const TERMINAL_GAPS = 5;
+
+/** One line listing the flow gaps (start and length), or '' when there is none. */
+function gapLine(inp: InputSummary): string {
+  const count = typeof inp.gaps === 'number' ? inp.gaps : 0;
+  if (count === 0) return '';
+  const list = Array.isArray(inp.gap_list) ? (inp.gap_list as { start_s: number; length_s: number }[]) : [];
+  const shown = list.slice(0, TERMINAL_GAPS).map((g) => `at ${fmt(g.start_s, 2)} s for ${fmt(g.length_s, 2)} s`);
+  const more = count - shown.length;
+  const silence = (inp.settings as Record<string, RecordedSetting> | undefined)?.max_silence_s?.value;
+  const limit = typeof silence === 'number' ? ` > ${fmt(silence, 3)} s` : '';
+  return (
+    `flow gaps (silent${limit}; no breath built across): ${count} — ${shown.join(', ')}` +
+    (more > 0 ? `${shown.length ? ', ' : ''}and ${more} more (summary.json input.gap_list)` : '')
+  );
+}
+
 /** One line on how the file was read (all reading notes are in summary.json, input.notes). */
 function readingLine(inp: InputSummary): string {
   const cols = inp.columns as { time: string | null; flow: string; co2: string } | undefined;
@@ -331,7 +351,14 @@ function readingLine(inp: InputSummary): string {
   const delim = inp.delimiter === '\t' ? 'tab' : inp.delimiter === ';' ? 'semicolon' : inp.delimiter === ',' ? 'comma' : String(inp.delimiter);
   const rate = typeof inp.rate_hz === 'number' && Number.isFinite(inp.rate_hz) ? `, ${fmt(inp.rate_hz, 0)} Hz` : '';
   return (
-    `read: ${delim}-separated, decimal '${String(inp.decimal)}', time ${cols.time ?? '(from --rate)'} [${units.time}], ` +
-    `flow ${cols.flow} [${units.flow}], CO2 ${cols.co2} [${units.co2}]${rate} (details: summary.json input.notes)`
+    `read: ${delim}-separated, decimal '${String(inp.decimal)}', time ${withUnit(cols.time ?? '(from --rate)', units.time)}, ` +
+    `flow ${withUnit(cols.flow, units.flow)}, CO2 ${withUnit(cols.co2, units.co2)}${rate} (details: summary.json input.notes)`
   );
+}
+
+/** A column name with its unit in brackets, unless the name already carries it: "Time [ms]", "Flow (L/min)". */
+function withUnit(name: string, unit: string): string {
+  const u = unit.toLowerCase();
+  const inName = name.toLowerCase().includes(`[${u}]`) || name.toLowerCase().includes(`(${u})`);
+  return inName ? name : `${name} [${unit}]`;
 }

@@ -62,12 +62,12 @@ describe('batch run (serial)', () => {
     expect(summary.breaths).toEqual(direct.summary.breaths);
   });
 
-  it('DIR/breaths.csv holds every breath of every ok recording, in input order, behind a recording column', () => {
+  it('DIR/breaths.csv holds every breath of every ok recording, in input order, behind recording and recording_id columns', () => {
     const out = join(dir, 'out1');
     const all = read(out, 'breaths.csv');
-    expect(all.split('\n')[0]).toBe(['recording', ...BREATHS_CSV_COLUMNS].join(','));
+    expect(all.split('\n')[0]).toBe(['recording', 'recording_id', ...BREATHS_CSV_COLUMNS].join(','));
     const expected = m.inputs.filter((e) => e.status === 'ok').flatMap((e) =>
-      read(out, e.outputs.breaths).trimEnd().split('\n').slice(1).map((l) => `${e.recording},${l}`));
+      read(out, e.outputs.breaths).trimEnd().split('\n').slice(1).map((l) => `${e.recording},${e.recording_id},${l}`));
     expect(all.trimEnd().split('\n').slice(1)).toEqual(expected);
     expect(expected.length).toBe(m.inputs[1]!.breaths_found! + m.inputs[2]!.breaths_found!);
     expect(m.inputs[1]!.breaths_found).toBeGreaterThan(20);

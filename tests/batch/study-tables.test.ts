@@ -11,7 +11,7 @@ const cli = fileURLToPath(new URL('../../dist/cli.cjs', import.meta.url));
 const samples = fileURLToPath(new URL('../../sample-waveforms/', import.meta.url));
 
 describe.skipIf(!existsSync(cli))('batch study tables', () => {
-  it('trends.csv and events.csv combine the per-recording files with a recording column', () => {
+  it('trends.csv and events.csv combine the per-recording files with recording and recording_id columns', () => {
     const dir = mkdtempSync(join(tmpdir(), 'phasewise-study-'));
     mkdirSync(join(dir, 'data'));
     for (const f of ['adult-healthy.csv', 'adult-perfusion-fall.csv']) copyFileSync(join(samples, f), join(dir, 'data', f));
@@ -22,12 +22,13 @@ describe.skipIf(!existsSync(cli))('batch study tables', () => {
       const expected: string[] = [];
       for (const rec of ['data/adult-healthy.csv', 'data/adult-perfusion-fall.csv']) {
         const own = readFileSync(join(dir, 'out', 'recordings', rec.replace('/', '__'), name), 'utf8').trimEnd().split('\n');
-        if (expected.length === 0) expected.push(`recording,${own[0]}`);
-        expected.push(...own.slice(1).map((l) => `${rec},${l}`));
+        if (expected.length === 0) expected.push(`recording,recording_id,${own[0]}`);
+        const id = rec.replace(/^data\//, '').replace(/\.csv$/, '');
+        expected.push(...own.slice(1).map((l) => `${rec},${id},${l}`));
       }
       expect(study).toEqual(expected);
     }
     // the perfusion-fall recording's event is in the study table
-    expect(readFileSync(join(dir, 'out', 'events.csv'), 'utf8')).toContain('data/adult-perfusion-fall.csv,720,');
+    expect(readFileSync(join(dir, 'out', 'events.csv'), 'utf8')).toContain('data/adult-perfusion-fall.csv,adult-perfusion-fall,720,');
   });
 });
