@@ -147,9 +147,10 @@ export function chooseEncoding(
     : null;
   if (bom) {
     const overridden = given && setting !== bom ? `; the given encoding ${setting} is not used` : '';
-    if (bom !== 'utf-8') return { encoding: bom, origin: 'inferred', note: `decoded as ${bom.toUpperCase()} (byte-order mark${overridden})`, firstInvalid: -1 };
-    if (overridden) return { ...utf8Choice(head, final, name, hint, 'inferred', isValidUtf8), note: `decoded as UTF-8 (byte-order mark${overridden})` };
-    return utf8Choice(head, final, name, hint, 'inferred', isValidUtf8);
+    const origin = setting === bom ? 'given' : 'inferred';
+    if (bom !== 'utf-8') return { encoding: bom, origin, note: `decoded as ${bom.toUpperCase()} (byte-order mark${overridden})`, firstInvalid: -1 };
+    if (overridden) return { ...utf8Choice(head, final, name, hint, origin, isValidUtf8), note: `decoded as UTF-8 (byte-order mark${overridden})` };
+    return utf8Choice(head, final, name, hint, origin, isValidUtf8);
   }
   if (setting === 'windows-1252') {
     refuseControlBytes(head, name, hint);

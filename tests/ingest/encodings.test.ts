@@ -256,3 +256,16 @@ describe('summary.json records the encoding', () => {
     expect(given.settings['ingest.encoding']).toEqual({ value: 'windows-1252', origin: 'given' });
   });
 });
+
+describe('a byte-order mark decides over the setting', () => {
+  it('a UTF-8 mark: read as UTF-8 even when windows-1252 is given, with a note', async () => {
+    const text = germanText(600);
+    const bytes = Uint8Array.from([0xef, 0xbb, 0xbf, ...utf8(text)]);
+    const r = await readBytes(bytes, { encoding: 'windows-1252' });
+    expect(r.layout!.header[1]).toBe('Fluß [L/s]');
+    expect(r.report.settings.encoding).toEqual({ value: 'utf-8', origin: 'inferred' });
+    expect(r.report.notes[0]).toBe('decoded as UTF-8 (byte-order mark; the given encoding windows-1252 is not used)');
+    const same = await readBytes(bytes, { encoding: 'utf-8' });
+    expect(same.report.settings.encoding).toEqual({ value: 'utf-8', origin: 'given' });
+  });
+});
