@@ -33,6 +33,7 @@ export const ingestSchema = z
     max_silence_s: pos,
     flow_condition: z.enum(['btps', 'atps', 'atpd']),
     flow_temp_c: num.min(0).max(45),
+    encoding: z.enum(['auto', 'utf-8', 'windows-1252']),
   })
   .strict()
   .partial();

@@ -29,6 +29,9 @@ export interface IngestSettings {
   flow_condition: 'btps' | 'atps' | 'atpd';
   /** gas temperature at the flow sensor for 'atps' / 'atpd', deg C */
   flow_temp_c: number;
+  /** text encoding of the file: 'auto' (byte-order mark, else UTF-8, else Windows-1252 by the rule in
+   *  src/ingest/encoding.ts), or forced 'utf-8' / 'windows-1252' */
+  encoding: 'auto' | 'utf-8' | 'windows-1252';
 }
 
 export interface AnalysisSettings {
@@ -215,6 +218,7 @@ export const DEFAULT_INGEST: IngestSettings = {
   max_silence_s: 0.5,
   flow_condition: 'btps',
   flow_temp_c: 22,
+  encoding: 'auto',
 };
 
 export const DEFAULT_ANALYSIS: AnalysisSettings = {

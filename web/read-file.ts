@@ -2,7 +2,8 @@
 // scanned as bytes (checked in JavaScript here; Node uses its native all-ASCII test), the same checks, order and
 // notes, so the blocks (and the breaths) are the ones the CLI sees.
 
-import { CHUNK_BYTES, firstInvalidUtf8, notTextError, openDecoder, readRecordingBytes } from '../src/ingest/bytes';
+import { CHUNK_BYTES, notTextError, readRecordingBytes } from '../src/ingest/bytes';
+import { chooseEncoding } from '../src/ingest/encoding';
 import { InputError, SNIFF_CHARS, type IngestReport, type TableLayout, type IngestSettings, type SampleBlock } from '../src/index';
 
 export { CHUNK_BYTES };
@@ -14,24 +15,23 @@ export interface ReadCallbacks {
   onProgress?: (bytesDone: number) => void;
 }
 
-const HINT = 'Save the file as UTF-8 text and open it again.';
+const HINT = 'Export the recording as a CSV text table (UTF-8 or Windows-1252) and open it again.';
 
-/** The first characters of the file (for the mapping step), decoded like the full read. */
-export async function readHead(file: File, chars = SNIFF_CHARS): Promise<string> {
+/**
+ * The first characters of the file (for the mapping step), decoded like the full read: the encoding chosen from the
+ * first MiB by the same rule (src/ingest/encoding.ts), bytes that are not UTF-8 in a UTF-8 file replaced (U+FFFD).
+ */
+export async function readHead(file: File, encoding: IngestSettings['encoding'] = 'auto', chars = SNIFF_CHARS): Promise<string> {
   checkNotEmpty(file);
-  let head = '';
-  let decoder: TextDecoder | null = null;
-  for (let pos = 0; pos < file.size && head.length < chars; pos += 1 << 18) {
-    const buf = new Uint8Array(await file.slice(pos, pos + (1 << 18)).arrayBuffer());
-    if (decoder === null) decoder = openDecoder(buf, file.name).decoder;
-    try {
-      head += decoder.decode(buf, { stream: pos + buf.length < file.size });
-    } catch {
-      const at = pos + firstInvalidUtf8(buf);
-      throw notTextError(file.name, at, decoder.encoding, await lineAtByte(file, at), HINT);
-    }
+  const buf = new Uint8Array(await file.slice(0, CHUNK_BYTES).arrayBuffer());
+  const choice = chooseEncoding(buf, buf.length >= file.size, encoding, file.name, HINT);
+  const decoder = new TextDecoder(choice.encoding, { fatal: choice.encoding.startsWith('utf-16') });
+  try {
+    // the first MiB holds at least SNIFF_CHARS characters (at most 4 bytes each) or the whole file
+    return decoder.decode(buf, { stream: buf.length < file.size }).slice(0, chars);
+  } catch {
+    throw notTextError(file.name, 0, choice.encoding, 1, HINT);
   }
-  return head.slice(0, chars);
 }
 
 /**

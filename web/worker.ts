@@ -37,7 +37,7 @@ function errorOf(e: unknown): { message: string; code: string } {
 }
 
 async function sniff(file: File, settings: Settings): Promise<void> {
-  const head = await readHead(file);
+  const head = await readHead(file, settings.ingest.encoding);
   const layout = sniffTable(head, settings.ingest, settings.analysis.min_rate_hz, file.name);
   const lines = head.split(layout.line_end === '\r' ? '\r' : '\n');
   const rows: string[][] = [];

@@ -1,9 +1,10 @@
-// Byte-level checks shared by the Node file reader (src/node/read-recording.ts) and the viewer's File reader
-// (web/read-file.ts): known binary formats, the text encoding from the byte-order mark, invalid UTF-8, damage
+// Byte-level reading shared by the Node file reader (src/node/read-recording.ts) and the viewer's File reader
+// (web/read-file.ts): the text encoding (encoding.ts decides it from the first MiB), invalid UTF-8, damage
 // counting. Browser-safe.
 import type { IngestSettings } from '../settings';
 import type { SampleBlock } from '../types';
 import { InputError } from './errors';
+import { chooseEncoding, ENCODING_HEAD_BYTES, type EncodingChoice } from './encoding';
 import type { TableLayout } from './layout';
 import { SNIFF_CHARS } from './read-text';
 import type { IngestReport } from './report';
@@ -17,30 +18,10 @@ export function countReplacements(text: string): number {
   return n;
 }
 
-/** Refuses zip/xlsx, PDF and old Office files by their first bytes, with a one-line message. */
-export function refuseKnownBinary(buf: Uint8Array, name: string): void {
-  const magic = String.fromCharCode(...buf.subarray(0, 4));
-  const kind = magic.startsWith('PK\u0003\u0004') ? 'a zip archive (for example an Excel .xlsx workbook)'
-    : magic === '%PDF' ? 'a PDF document'
-    : magic.startsWith('\u00d0\u00cf\u0011\u00e0') ? 'an old Excel (.xls) or Office document'
-    : null;
-  if (kind) throw new InputError('not_text', `the file is ${kind}, not a text table`, 'Export the recording as CSV (text, UTF-8).', { file: name, line: 1 });
-}
-
-/** A fatal TextDecoder for the file's first bytes: UTF-16 with a byte-order mark, else UTF-8; refuses known binaries. */
-export function openDecoder(buf: Uint8Array, name: string): { decoder: TextDecoder; note: string | null } {
-  refuseKnownBinary(buf, name);
-  const enc = buf[0] === 0xff && buf[1] === 0xfe ? 'utf-16le' : buf[0] === 0xfe && buf[1] === 0xff ? 'utf-16be' : 'utf-8';
-  return {
-    decoder: new TextDecoder(enc, { fatal: true }),
-    note: enc === 'utf-8' ? null : `decoded as ${enc.toUpperCase()} (byte-order mark)`,
-  };
-}
-
 /** The one-line error for bytes that are not text at `byteOffset` (on 1-based `line`). */
 export function notTextError(name: string, byteOffset: number, encoding: string, line: number, hint: string): InputError {
   const what = encoding === 'utf-8' ? 'UTF-8' : encoding.toUpperCase();
-  return new InputError('not_text', `the bytes at offset ${byteOffset} are not ${what} text (a binary file, or another encoding such as Latin-1/Windows-1252)`, hint, { file: name, line });
+  return new InputError('not_text', `the bytes at offset ${byteOffset} are not ${what} text (a binary file, or another encoding)`, hint, { file: name, line });
 }
 
 /** Index of the first byte that starts an invalid UTF-8 sequence in `buf` (0 when none is found inside it). */
@@ -125,8 +106,8 @@ export class Utf8Stream {
   }
 }
 
-/** Bytes per chunk of both file readers (the damage note names it: "after the first 1 MiB"). */
-export const CHUNK_BYTES = 1 << 20;
+/** Bytes per chunk of both file readers; the encoding is decided on the first one (ENCODING_HEAD_BYTES). */
+export const CHUNK_BYTES = ENCODING_HEAD_BYTES;
 
 export interface ByteSource {
   /** file name for messages */
@@ -153,11 +134,13 @@ export interface ByteReadCallbacks {
 
 /**
  * Streams a recording's bytes through sniffTable + createTableReader (the one reading algorithm of the CLI and the
- * viewer). Bytes that are not text inside the head refuse the file; later ones are damage: they are replaced
- * (U+FFFD), the lines they hit are skipped, and a note says where they start. Memory: one chunk, the carried partial
- * line and the current block.
- * UTF-8 files go to the scanner as bytes (checked by Utf8Stream, never decoded as a whole); UTF-16 files, and a
- * UTF-8 file from its first damaged chunk on, go as decoded text. Either way the scanner sees the same characters.
+ * viewer). The encoding is chosen from the first MiB (encoding.ts: UTF-8, Windows-1252 or UTF-16 by byte-order
+ * mark; a file that is not text is refused there). In a UTF-8 file, bytes that are not UTF-8 are damage wherever
+ * they are: they are replaced (U+FFFD), the lines they hit are skipped, and a note says where they start. Memory:
+ * the first MiB until the encoding is chosen, then one chunk, the carried partial line and the current block.
+ * Valid UTF-8 goes to the scanner as bytes (checked by Utf8Stream, never decoded as a whole); UTF-16 and
+ * Windows-1252 files, and a UTF-8 file from its first damaged chunk on, go as decoded text. Either way the scanner
+ * sees the same characters.
  */
 export async function readRecordingBytes(
   src: ByteSource, settings: IngestSettings, minRateHz: number, cb: ByteReadCallbacks,
@@ -171,7 +154,10 @@ export async function readRecordingBytes(
 /** The state of one readRecordingBytes call: the decoder, the head until it is sniffed, then the table reader. */
 class ByteReading {
   private decoder: TextDecoder | null = null;
-  private encodingNote: string | null = null;
+  private choice: EncodingChoice | null = null;
+  /** the first chunks, kept until the encoding is chosen on the first ENCODING_HEAD_BYTES */
+  private waiting: Uint8Array[] = [];
+  private waitingBytes = 0;
   private reader: TableReader | null = null;
   private head = '';
   private offset = 0;
@@ -189,9 +175,28 @@ class ByteReading {
     private readonly cb: ByteReadCallbacks,
   ) {}
 
-  /** Takes the file's next chunk: into the head until the reader starts, then to the reader as bytes or as text. */
+  /** Takes the file's next chunk: kept until the encoding is chosen; then into the head until the reader starts, then to the reader as bytes or as text. */
   async chunk(buf: Uint8Array): Promise<void> {
-    if (this.decoder === null) this.open(buf);
+    if (this.choice === null) {
+      this.waiting.push(buf);
+      this.waitingBytes += buf.length;
+      if (this.waitingBytes >= ENCODING_HEAD_BYTES) await this.choose(false);
+      return;
+    }
+    await this.take(buf);
+  }
+
+  /** Chooses the encoding on the kept first chunks (`final`: they are the whole file), then reads them. */
+  private async choose(final: boolean): Promise<void> {
+    const kept = this.waiting;
+    this.waiting = [];
+    const head = kept.length === 1 ? kept[0]! : concatBytes(kept, this.waitingBytes);
+    this.open(head, final);
+    for (const b of kept) await this.take(b);
+  }
+
+  /** One chunk, once the encoding is known. */
+  private async take(buf: Uint8Array): Promise<void> {
     if (this.reader === null) await this.headChunk(buf);
     else if (this.utf8) this.byteChunk(buf);
     else await this.textChunk(buf);
@@ -201,6 +206,7 @@ class ByteReading {
 
   /** After the last chunk: starts the reader on a short head, or hands it what the decoder still holds; then ends it. */
   async end(): Promise<void> {
+    if (this.choice === null) await this.choose(true);
     if (this.reader === null) {
       this.head += this.decoder ? await this.decode(null) : '';
       this.start();
@@ -221,25 +227,40 @@ class ByteReading {
   async report(): Promise<IngestReport> {
     const report = this.reader!.report();
     report.bytes = this.src.size;
-    if (this.encodingNote) report.notes.unshift(this.encodingNote);
+    const choice = this.choice!;
+    if (choice.note) report.notes.unshift(choice.note);
+    // the encoding first among the reading settings, as it is decided first
+    report.settings = { encoding: { value: choice.encoding, origin: choice.origin }, ...report.settings };
     if (this.firstReplacedByte >= 0) {
       const line = await this.src.lineAtByte(this.firstReplacedByte);
-      report.notes.push(`warning: ${Math.max(this.replaced, 1)} byte sequence(s) after the first ${CHUNK_BYTES >> 20} MiB are not ${this.decoder!.encoding.toUpperCase()} text (first at line ${line}, byte ${this.firstReplacedByte}); lines where they hit a time, flow or CO2 cell were skipped`);
+      const enc = this.decoder!.encoding;
+      const other = enc === 'utf-8' && choice.origin === 'inferred' ? '; if the file is Windows-1252 text, set ingest.encoding' : '';
+      report.notes.push(`warning: ${Math.max(this.replaced, 1)} byte sequence(s) are not ${enc === 'utf-8' ? 'UTF-8' : enc.toUpperCase()} text (first at line ${line}, byte ${this.firstReplacedByte}); lines where they hit a time, flow or CO2 cell were skipped${other}`);
     }
     return report;
   }
 
-  /** On the first chunk: the decoder from the byte-order mark (known binaries refused); UTF-8 goes as bytes unless decodeAll. */
-  private open(buf: Uint8Array): void {
-    const d = openDecoder(buf, this.src.name);
-    this.decoder = d.decoder;
-    this.encodingNote = d.note;
-    if (d.decoder.encoding === 'utf-8' && !this.src.decodeAll) this.utf8 = new Utf8Stream(this.src.isAscii ?? null);
+  /**
+   * On the first MiB: the encoding (encoding.ts; a file that is not text is refused there) and its decoder. Valid
+   * UTF-8 goes as bytes unless decodeAll; a UTF-8 head with damage is decoded with replacements from the start.
+   */
+  private open(head: Uint8Array, final: boolean): void {
+    const c = chooseEncoding(head, final, this.settings.encoding, this.src.name, this.src.notTextHint, this.src.isAscii);
+    this.choice = c;
+    if (c.firstInvalid >= 0) {
+      this.firstReplacedByte = c.firstInvalid;
+      this.decoder = new TextDecoder('utf-8', { fatal: false });
+      return;
+    }
+    // UTF-16 stays fatal (a byte-order mark promises it); Windows-1252 decodes every byte
+    this.decoder = new TextDecoder(c.encoding, { fatal: c.encoding !== 'windows-1252' });
+    if (c.encoding === 'utf-8' && !this.src.decodeAll) this.utf8 = new Utf8Stream(this.src.isAscii ?? null);
   }
 
-  /** A chunk of the head: decoded for the sniffer (a fatal decoder refuses text that is not UTF-8/UTF-16 here), kept as bytes too in byte mode. */
+  /** A chunk of the head: decoded for the sniffer (replacements counted in a damaged UTF-8 file), kept as bytes too in byte mode. */
   private async headChunk(buf: Uint8Array): Promise<void> {
     const text = await this.decode(buf);
+    if (this.firstReplacedByte >= 0) this.replaced += countReplacements(text);
     if (this.utf8) {
       const bytes = this.completeBytes(buf);
       if (bytes) this.headBytes.push(bytes);
@@ -290,7 +311,7 @@ class ByteReading {
     this.head = '';
   }
 
-  /** Decodes a chunk (null: the end of the file). Bytes that are not text refuse the file in the head, and are replaced (U+FFFD) after it. */
+  /** Decodes a chunk (null: the end of the file). Bytes that are not text are replaced (U+FFFD) after the head; in the head (only a UTF-16 file can get here) they refuse the file. */
   private async decode(buf: Uint8Array | null): Promise<string> {
     const d = this.decoder!;
     try {
@@ -329,4 +350,15 @@ class ByteReading {
   private feedBytes(bytes: Uint8Array): void {
     for (const b of this.reader!.pushBytes(bytes)) this.cb.onBlock(b);
   }
+}
+
+/** The bytes of `parts` in one array of `n` bytes. */
+function concatBytes(parts: Uint8Array[], n: number): Uint8Array {
+  const out = new Uint8Array(n);
+  let o = 0;
+  for (const p of parts) {
+    out.set(p, o);
+    o += p.length;
+  }
+  return out;
 }

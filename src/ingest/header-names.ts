@@ -29,10 +29,11 @@ const OTHER_QUANTITY = new Set([
   'events', 'marker', 'mark', 'vco2', 'vtco2', 'mv', 'rr', 'leak', 'druck', 'volumen',
 ]);
 
-/** Lower case, CO₂ -> co2, V̇ -> vdot, separators collapsed to one space. */
+/** Lower case, CO₂ -> co2, V̇ -> vdot, ß -> ss (German spelling: Fluß = Fluss), separators collapsed to one space. */
 export function normaliseName(name: string): string {
   return name
     .replace(/₂/g, '2')
+    .replace(/ß/g, 'ss')
     .replace(/[Vv]\u0307/g, 'vdot')
     .replace(/\u1E7F|\u1E7E/g, 'vdot')
     .toLowerCase()

@@ -32,7 +32,7 @@ export async function readRecordingFile(
         chunks: onChunk ? tapped(stream as AsyncIterable<Buffer>, onChunk) : (stream as AsyncIterable<Buffer>),
         lineAtByte: (offset) => lineAtByte(path, offset),
         isAscii,
-        notTextHint: 'Save the file as UTF-8 text (e.g. iconv -f windows-1252 -t utf-8 IN.csv > OUT.csv).',
+        notTextHint: 'Export the recording as a CSV text table (UTF-8 or Windows-1252).',
       },
       settings,
       min_rate_hz,

@@ -17,6 +17,9 @@ export function summaryFor(core: AnalysisCore, report: IngestReport, settings: S
     'ingest.time_unit': { value: report.units.time },
   };
   const record = recordSettings(settings, given, core, inferred);
+  // the encoding the file was read in (given, or chosen from its bytes), as the byte reader recorded it
+  const encoding = report.settings.encoding;
+  if (encoding) record['ingest.encoding'] = encoding;
   // reading notes stay in input.notes; summary.notes holds the analysis notes
   return buildSummary(core, { ...report }, record);
 }

@@ -141,15 +141,15 @@ describe('InputError codes', () => {
     expect(f.code).toBe('rate_too_low');
   });
 
-  it('not_text: NUL characters, non-UTF-8 bytes, zip files', async () => {
+  it('not_text: NUL characters, zip files, random bytes; a lone Latin-1 byte is not (Windows-1252)', async () => {
     const e = caught(readText('time,flow,co2\n0,1,2\n0.01,\u0000,3\n'));
     expect([e.code, e.line]).toEqual(['not_text', 3]);
     const latin1 = join(tmp, 'latin1.csv');
     writeFileSync(latin1, Buffer.concat([Buffer.from('time,flow,co2\n0.00,0.1,38\n0.01,0.2,'), Buffer.from([0xb0]), Buffer.from('38\n')]));
-    const f = await caughtAsync(readFile(latin1));
-    expect([f.code, f.line]).toEqual(['not_text', 3]);
-    // 'time,flow,co2\n' (14 bytes) + '0.00,0.1,38\n' (12) + '0.01,0.2,' (9) -> the bad byte is at offset 35
-    expect(f.message).toMatch(/latin1\.csv line 3: the bytes at offset 35 are not UTF-8 text/);
+    // read as Windows-1252 (tests/ingest/encodings.test.ts); '°38' is not a number, so line 3 is skipped
+    const f = await readFile(latin1);
+    expect(f.settings.encoding).toEqual({ value: 'windows-1252', origin: 'inferred' });
+    expect(f.skipped_examples).toEqual([{ line: 3, column: 3, reason: 'non_numeric' }]);
     const zip = join(tmp, 'book.csv');
     writeFileSync(zip, Buffer.from('PK\u0003\u0004\u0014\u0000\u0006\u0000', 'latin1'));
     const g = await caughtAsync(readFile(zip));
@@ -214,7 +214,7 @@ describe('binary damage after the first part of a file is survived', () => {
     expect(report.skipped_examples).toEqual([{ line: 7001, reason: 'field_count' }]);
     expect(report.rows).toBe(8001);
   });
-  it('bytes that are not UTF-8 after the first MiB: lines skipped, a warning note names the line', async () => {
+  it('bytes that are not UTF-8 after the first MiB: lines skipped, a warning note names the line (as in the first MiB: encodings.test.ts)', async () => {
     const rows = ['time,flow,co2', ...good(80_000)]; // about 1.4 MB
     const text = rows.join('\n') + '\n';
     const k = rows.length - 10; // 0-based index of the damaged line (line k + 1)
@@ -226,6 +226,6 @@ describe('binary damage after the first part of a file is survived', () => {
     const report = await readRecordingFile(path, DEFAULT_INGEST, 20, () => {});
     expect(report.skipped_examples).toEqual([{ line: k + 1, column: 1, reason: 'non_numeric' }]);
     expect(report.rows_used).toBe(80_000 - 1);
-    expect(report.notes.at(-1)).toMatch(new RegExp(`^warning: 1 byte sequence\\(s\\) after the first 1 MiB are not UTF-8 text \\(first at line ${k + 1}, byte ${before + 2}\\)`));
+    expect(report.notes.at(-1)).toMatch(new RegExp(`^warning: 1 byte sequence\\(s\\) are not UTF-8 text \\(first at line ${k + 1}, byte ${before + 2}\\)`));
   });
 });
