@@ -1,11 +1,14 @@
 // Clock time stamps in a time column: ISO 8601 date-times and plain times of day.
 //   2024-03-05T10:15:30.125Z, 2024-03-05 10:15:30,125, 2024-03-05T10:15:30+01:00  (with date)
+//   05.03.2024 10:15:30.125, 05/03/2024 10:15:30                                  (with date, day first)
 //   10:15:30, 10:15:30.125, 7:05:00,5                                            (time of day)
 // Times of day that fall back by more than 12 h are taken to have crossed midnight (see row-assembler.ts).
 
 const TIME_OF_DAY = /^(\d{1,2}):(\d{2}):(\d{2}(?:[.,]\d+)?)$/;
 const DATE_TIME =
   /^(\d{4})-(\d{2})-(\d{2})[T ](\d{2}):(\d{2}):(\d{2}(?:[.,]\d+)?)(Z|[+-]\d{2}(?::?\d{2})?)?$/;
+/** Day-first dates as European device exports write them: dd.mm.yyyy or dd/mm/yyyy, then the time of day. */
+const DAY_FIRST_DATE_TIME = /^(\d{2})[./](\d{2})[./](\d{4})[T ](\d{1,2}):(\d{2}):(\d{2}(?:[.,]\d+)?)$/;
 
 /** Kind of clock stamp: with a calendar date, or a bare time of day. */
 export type ClockKind = 'date_time' | 'time_of_day';
@@ -14,7 +17,7 @@ export type ClockKind = 'date_time' | 'time_of_day';
 export function clockKind(text: string): ClockKind | null {
   const s = stripQuotes(text);
   if (TIME_OF_DAY.test(s)) return 'time_of_day';
-  if (DATE_TIME.test(s)) return 'date_time';
+  if (DATE_TIME.test(s) || DAY_FIRST_DATE_TIME.test(s)) return 'date_time';
   return null;
 }
 
@@ -31,7 +34,9 @@ export function parseClockParts(text: string, kind: ClockKind): { day: number; s
     const sec = hms(Number(m[1]), Number(m[2]), m[3]!);
     return Number.isNaN(sec) ? null : { day: 0, sec };
   }
-  const m = DATE_TIME.exec(s);
+  const dayFirst = DAY_FIRST_DATE_TIME.exec(s);
+  // day-first forms are rearranged into the ISO order (no zone: the wall-clock time taken as is)
+  const m = dayFirst ? [s, dayFirst[3], dayFirst[2], dayFirst[1], dayFirst[4]!.padStart(2, '0'), dayFirst[5], dayFirst[6], undefined] : DATE_TIME.exec(s);
   if (!m) return null;
   const year = Number(m[1]);
   const month = Number(m[2]);

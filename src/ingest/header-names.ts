@@ -7,9 +7,9 @@ export type Role = 'time' | 'flow' | 'co2';
 
 const ALIASES: Record<Role, { exact: string[]; word: string[] }> = {
   time: {
-    exact: ['time', 't', 'timestamp', 'time stamp', 'zeit', 'tiempo', 'temps', 'tempo', 'tid', 'elapsed', 'elapsed time',
+    exact: ['time', 't', 'timestamp', 'time stamp', 'zeit', 'zeitstempel', 'uhrzeit', 'tiempo', 'temps', 'tempo', 'tid', 'elapsed', 'elapsed time',
       'relative time', 'datetime', 'date time', 'clock', 'sec', 'secs', 'seconds', 'ms', 'msec', 'milliseconds'],
-    word: ['time', 'timestamp', 'zeit', 'tiempo', 'temps', 'tempo', 'datetime', 'elapsed'],
+    word: ['time', 'timestamp', 'zeit', 'zeitstempel', 'uhrzeit', 'tiempo', 'temps', 'tempo', 'datetime', 'elapsed'],
   },
   flow: {
     exact: ['flow', 'flw', "v'", 'vdot', 'v dot', 'airflow', 'air flow', 'airway flow', 'flow rate', 'fluss', 'durchfluss',

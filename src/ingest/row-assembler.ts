@@ -20,7 +20,9 @@ import type { TableLayout } from './layout';
 import { MAX_GAPS_LISTED, MAX_SKIPPED_EXAMPLES, type GapSpan, type IngestReport, type SkipReason, type SkippedExample } from './report';
 
 /** Consecutive out-of-order rows that make the file unusable. */
-export const MAX_BACKWARD_RUN = 50;
+export /** A clock step back within this of one hour is read as the daylight-saving change, s. */
+const CLOCK_HOUR_TOLERANCE_S = 60;
+const MAX_BACKWARD_RUN = 50;
 /** Share of out-of-order rows (of all rows) that makes the file unusable. */
 export const MAX_BACKWARD_SHARE = 0.1;
 /** Share of skipped rows above which the file is refused as unreadable. */
@@ -90,6 +92,7 @@ export class RowAssembler {
     else if (this.clockMode) t = this.clockTime(tRaw);
     else t = this.divisor === 1 ? tRaw : tRaw / this.divisor;
     if (!(t > this.lastT)) {
+      if (this.clockMode && Math.abs(this.lastT - t - 3600) < CLOCK_HOUR_TOLERANCE_S) throw this.hourBackError(line);
       if (this.backwardRun++ === 0) this.backwardRunLine = line;
       this.skip(line, 'time_not_increasing');
       if (this.backwardRun >= MAX_BACKWARD_RUN) throw this.backwardError(this.backwardRunLine, `${MAX_BACKWARD_RUN} rows in a row from line ${this.backwardRunLine} on are not later than line ${this.lastLine}`);
@@ -214,6 +217,16 @@ export class RowAssembler {
     const abs = raw + this.dayOffset;
     if (Number.isNaN(this.t0)) this.t0 = abs;
     return abs - this.t0;
+  }
+
+  /** A clock that steps back by one hour: the change from daylight-saving to standard time, most likely. */
+  private hourBackError(line: number): InputError {
+    return new InputError(
+      'time_not_increasing',
+      `time stamps do not increase: the clock steps back by 1 h at line ${line} (after line ${this.lastLine})`,
+      'This looks like the change from daylight-saving to standard time: give --rate HZ to take the time from the sampling rate and ignore the clock, or export the recording in UTC.',
+      { file: this.file, line },
+    );
   }
 
   private backwardError(line: number | undefined, what: string): InputError {

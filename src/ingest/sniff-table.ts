@@ -233,7 +233,7 @@ function decideTime(
   } else {
     const v = sample.values[col]!;
     if (v.length === 0) {
-      throw new InputError('unit_mismatch', `the time column "${st.header[col]}" holds neither numbers nor clock stamps${raw.length ? ` (first cell: "${raw[0]}")` : ''}`, 'Clock stamps must look like 2024-03-05T10:15:30.125 or 10:15:30.125; give --time-col NAME for another column, or --rate HZ.', place);
+      throw new InputError('unit_mismatch', `the time column "${st.header[col]}" holds neither numbers nor clock stamps${raw.length ? ` (first cell: "${raw[0]}")` : ''}`, 'Clock stamps must look like 2024-03-05T10:15:30.125, 05.03.2024 10:15:30.125 (day first, also with /) or 10:15:30.125; give --time-col NAME for another column, or --rate HZ.', place);
     }
     const steps = v.slice(1).map((x, i) => x - v[i]!).filter((d) => d > 0);
     const d = inferTimeUnit(median(steps));
