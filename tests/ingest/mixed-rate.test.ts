@@ -89,3 +89,15 @@ describe('flow silence', () => {
     expect(s.t.length).toBe(101 - 69 - 4 + 1);
   });
 });
+
+describe('a CO2 channel slower than flow is named on the terminal with what it means for the numbers', () => {
+  it('CO2 on every 4th row of a 100 Hz file: a warning note with the CO2 rate and where the accuracy is measured', () => {
+    const lines = ['time,flow,co2'];
+    for (let i = 0; i < 2000; i++) lines.push(`${(i / 100).toFixed(2)},${i % 400 < 200 ? -0.4 : 0.4},${i % 4 === 0 ? (i % 400 < 200 ? 0.3 : 38) : ''}`);
+    const { report } = readRecordingText(lines.join('\n') + '\n', DEFAULT_INGEST, 20, 'slow-co2.csv');
+    const note = report.notes.find((n) => n.startsWith('warning') && n.includes('CO2'));
+    expect(note).toBeDefined();
+    expect(note).toMatch(/CO2 at about 25 Hz/);
+    expect(note).toMatch(/docs\/accuracy\.md/);
+  });
+});
