@@ -162,6 +162,14 @@ describe.skipIf(!existsSync(cli))('phasewise command line', () => {
     expect(existsSync(join(dir, 'no-breath', 'summary.json'))).toBe(true);
   });
 
+  it('a blood gas without oxygen values: the terminal names what is missing (it was only in summary.json)', () => {
+    const gasFile = join(dir, 'gas-no-o2.csv');
+    writeFileSync(gasFile, 'time_s,paco2_mmhg\n60,39.5\n');
+    const r = run('analyse', sample, '--out', join(dir, 'gas-no-o2'), '--gas', gasFile);
+    expect(r.status, r.stderr).toBe(0);
+    expect(r.stdout).toMatch(/gas note: sample 1 \(line 2\): missing .*sao2_pct.*; the values that need them are left empty/);
+  });
+
   it('unknown scenario for simulate: exit 2 with the valid names', () => {
     expectOneLineFailure(run('simulate', 'no-such-patient', '--out', join(dir, 's.csv')), 2, 'adult-healthy');
   });

@@ -101,6 +101,11 @@ function formatGasText(g: GasResult, input: Pick<GasInput, 'file' | 'rejected'>)
   }
   lines.push('  (Pa-ET = PaCO2 - PETCO2; Pa-alv = PaCO2 - mean alveolar expired PCO2 = by shunt + rest; rest = alveolar dead space and V/Q mismatch)');
   for (const r of input.rejected) lines.push(`gas note: ${input.file}: ${r.reason}; row not used`);
+  for (const r of g.rows) {
+    if (isBeforeRecording(r) || !r.missing_inputs) continue;
+    const missing = r.missing_inputs.split(';').filter((m) => m !== 'weight_kg');
+    if (missing.length) lines.push(`gas note: sample ${r.sample} (line ${r.line}): missing ${missing.join(', ')}; the values that need them are left empty`);
+  }
   for (const w of g.warnings) lines.push(`gas note: ${w}`);
   return lines.join('\n');
 }
