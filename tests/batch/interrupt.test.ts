@@ -76,13 +76,16 @@ describe('interrupted batch', () => {
     expect(r.stderr).toContain(`interrupted after ${done} of 8 recordings — rerun the same command with --resume to finish\n`);
   }, 120_000);
 
-  it('a second Ctrl-C exits at once: exit 130, no closing line, the manifest as last written', async () => {
+  // The recording in flight may finish before the second signal is handled (a 3 min recording takes about 0.1 s), so
+  // which of the two exits happens is a race; both must end with 130 and a manifest that matches what was written.
+  it('a second Ctrl-C: exit 130 and a consistent manifest, whether it came before or after the recordings in flight finished', async () => {
     const r = await interrupted('out-twice', 'SIGINT', '1', true);
     expect(r.code, r.stderr).toBe(130);
     expect(r.stderr).toContain('SIGINT received, finishing the recordings in flight');
-    expect(r.stderr).not.toContain('interrupted after');
     const m = JSON.parse(readFileSync(join(dir, 'out-twice', 'manifest.json'), 'utf8')) as Manifest;
     expect(m.finished_at).toBeNull();
     expect(m.counts.pending).toBeGreaterThan(0);
+    const done = m.inputs.filter((i) => i.status === 'ok').length;
+    if (r.stderr.includes('interrupted after')) expect(r.stderr).toContain(`interrupted after ${done} of ${N} recordings`);
   }, 120_000);
 });
