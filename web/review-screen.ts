@@ -98,7 +98,7 @@ export function currentScene(): BreathScene | null {
   if (!d || !a || !row) return null;
   const curve = breathCurve(d.geometry, state.selected);
   if (!curve) return null;
-  const paco2 = paco2ForBreath(row, state.gasInput?.samples ?? [], a.settings);
+  const paco2 = paco2ForBreath(row, state.gasInput?.samples ?? [], a.settings, state.gasInput?.options?.paco2_temperature);
   const shading = byId<HTMLSelectElement>('shading').value as Shading;
   return {
     row,

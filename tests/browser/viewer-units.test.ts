@@ -341,3 +341,16 @@ describe('blood-gas constants in the sidebar', () => {
     expect(JSON.parse(settingsFileText(s))).toEqual({ analysis: { apparatus_ml: 12 } });
   });
 });
+
+describe('the PaCO2 line of the breath view', () => {
+  // The line must be the PaCO2 the breath's Enghoff values use: with temp_c and the default paco2_temperature
+  // 'corrected', 40 mmHg at 37 °C is 40 x 10^(0.019 x (33 - 37)) = 33.58 mmHg at 33 °C (Nunn et al. 1965; derived
+  // here), and the measured 40 with paco2_temperature 'measured'.
+  const row = { ...({} as BreathRow), t_start_s: 100 } as BreathRow;
+  const sample = { line: 2, time_s: 50, paco2_mmhg: 40, temp_c: 33, pao2_mmhg: NaN, sao2_pct: NaN, svo2_pct: NaN, pvco2_mmhg: NaN, pvo2_mmhg: NaN, hb_g_dl: NaN, fio2_pct: NaN };
+  it('follows the temperature rule of the gas settings', async () => {
+    const { paco2ForBreath } = await import('../../web/gas');
+    expectClose(paco2ForBreath(row, [sample], defaultSettings())!.mmhg, 40 * Math.pow(10, 0.019 * (33 - 37)), { abs: 1e-9 });
+    expectClose(paco2ForBreath(row, [sample], defaultSettings(), 'measured')!.mmhg, 40, { abs: 1e-9 });
+  });
+});
