@@ -373,13 +373,14 @@ function calibrationCautions(c: Calibration, dt: number): { code: string; messag
         'volumes of the dead spaces depend on it: give --delay if it is known',
     });
   }
-  const tolerance = Math.max(3 * (Number.isFinite(c.delay_data_uncertainty_s) ? c.delay_data_uncertainty_s : 0), 2 * dt, GIVEN_DELAY_TOLERANCE_S);
+  const se = Number.isFinite(c.delay_data_uncertainty_s) ? c.delay_data_uncertainty_s : 0;
+  const tolerance = Math.max(3 * se, 2 * dt, GIVEN_DELAY_TOLERANCE_S);
   if (c.delay_origin === 'given' && c.delay_data_trusted && Number.isFinite(c.delay_data_s) && Math.abs(c.delay_s - c.delay_data_s) > tolerance) {
     out.push({
       code: 'given_delay_disagrees',
       message:
         `the given CO2 delay ${c.delay_s.toFixed(3)} s disagrees with the ${c.delay_data_s.toFixed(3)} s ` +
-        `(± ${(Number.isFinite(c.delay_data_uncertainty_s) ? c.delay_data_uncertainty_s : 0).toFixed(3)} s) that the inspiratory CO2 downstrokes show: ` +
+        `(± ${se.toFixed(3)} s) that the inspiratory CO2 downstrokes show: ` +
         'the dead-space volumes depend on it; check the value or leave --delay out to use the measured one',
     });
   }

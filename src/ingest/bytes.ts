@@ -4,7 +4,7 @@
 import type { IngestSettings } from '../settings';
 import type { SampleBlock } from '../types';
 import { InputError } from './errors';
-import { chooseEncoding, ENCODING_HEAD_BYTES, type EncodingChoice } from './encoding';
+import { chooseEncoding, countUtf8, ENCODING_HEAD_BYTES, type EncodingChoice } from './encoding';
 import type { TableLayout } from './layout';
 import { SNIFF_CHARS } from './read-text';
 import type { IngestReport } from './report';
@@ -24,30 +24,12 @@ export function notTextError(name: string, byteOffset: number, encoding: string,
   return new InputError('not_text', `the bytes at offset ${byteOffset} are not ${what} text (a binary file, or another encoding)`, hint, { file: name, line });
 }
 
-/** Index of the first byte that starts an invalid UTF-8 sequence in `buf` (0 when none is found inside it). */
+/**
+ * Index of the first byte that starts an invalid UTF-8 sequence in `buf` (0 when none is found inside it; a sequence
+ * cut at the end of the chunk is left for the next one): the first error countUtf8 finds.
+ */
 export function firstInvalidUtf8(buf: Uint8Array): number {
-  let i = 0;
-  const n = buf.length;
-  while (i < n) {
-    const b = buf[i]!;
-    if (b < 0x80) { i++; continue; }
-    let need: number;
-    let min: number;
-    if (b >= 0xc2 && b <= 0xdf) { need = 1; min = 0x80; }
-    else if (b >= 0xe0 && b <= 0xef) { need = 2; min = 0x800; }
-    else if (b >= 0xf0 && b <= 0xf4) { need = 3; min = 0x10000; }
-    else return i;
-    let cp = b & (0x3f >> need);
-    for (let k = 1; k <= need; k++) {
-      if (i + k >= n) return 0; // a sequence cut at the end of the chunk is completed by the next one
-      const c = buf[i + k]!;
-      if ((c & 0xc0) !== 0x80) return i;
-      cp = (cp << 6) | (c & 0x3f);
-    }
-    if (cp < min || cp > 0x10ffff || (cp >= 0xd800 && cp <= 0xdfff)) return i;
-    i += need + 1;
-  }
-  return 0;
+  return Math.max(0, countUtf8(buf, buf.length, false).first);
 }
 
 /**

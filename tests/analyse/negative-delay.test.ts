@@ -8,23 +8,24 @@ import { usableForSummary } from '../../src/analyse/quality';
 import { defaultSettings } from '../../src/settings';
 import { scenarioParams, simulateSignals } from '../../src/simulate/index';
 
+/** The breaths a summary uses from a simulated 1 kHz recording analysed with the delay at -1.5 ms. */
+function usableAtNegativeDelay(scenario: string, minutes: number, seed: number) {
+  const settings = defaultSettings();
+  settings.analysis.delay_s = -0.0015;
+  const analyser = createAnalyser(settings);
+  for (const chunk of simulateSignals(scenarioParams(scenario, { minutes, rate_hz: 1000 }), seed)) analyser.push(chunk.block);
+  return analyser.finish().breaths.filter((b) => usableForSummary(b));
+}
+
 describe('negative transport delay at a high sampling rate', () => {
   it('every usable breath has a finite VTCO2 with the delay at -1.5 samples', () => {
-    const settings = defaultSettings();
-    settings.analysis.delay_s = -0.0015;
-    const analyser = createAnalyser(settings);
-    for (const chunk of simulateSignals(scenarioParams('adult-healthy', { minutes: 1, rate_hz: 1000 }), 7)) analyser.push(chunk.block);
-    const used = analyser.finish().breaths.filter((b) => usableForSummary(b));
+    const used = usableAtNegativeDelay('adult-healthy', 1, 7);
     expect(used.length).toBeGreaterThan(5);
     expect(used.filter((b) => !Number.isFinite(b.vtco2_ml as number)).map((b) => b.t_start_s)).toEqual([]);
   });
 
   it('also where the analyser has just let go of the samples before a breath (3 minutes, streamed in blocks)', () => {
-    const settings = defaultSettings();
-    settings.analysis.delay_s = -0.0015;
-    const analyser = createAnalyser(settings);
-    for (const chunk of simulateSignals(scenarioParams('adult-spontaneous', { minutes: 3, rate_hz: 1000 }), 3)) analyser.push(chunk.block);
-    const used = analyser.finish().breaths.filter((b) => usableForSummary(b));
+    const used = usableAtNegativeDelay('adult-spontaneous', 3, 3);
     expect(used.length).toBeGreaterThan(20);
     expect(used.filter((b) => !Number.isFinite(b.vtco2_ml as number)).map((b) => b.t_start_s)).toEqual([]);
   });
