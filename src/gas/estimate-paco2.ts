@@ -23,8 +23,9 @@ export interface EstimateOptions {
  * absolute successive difference / √2 over the usable breaths); sd²: the gradient's drift per second, pooled over the pairs of
  * successive gases so far with one hour of the prior drift as a pseudo-observation,
  *   sd² = (prior × 1 h + Σ (ΔG² − 2 sa²)) / (1 h + Σ Δt), not below 0
- * (a random walk of the gradient seen through analyser error: E[ΔG²] = sd² Δt + 2 sa²). Model derived here; the
- * analyser SD and the normal quantile are cited in GAS_DEFAULTS and normalQuantile.
+ * (a random walk of the gradient seen through analyser error: E[ΔG²] = sd² Δt + 2 sa²), plus m²/3 for a move m of
+ * PETCO2 since the gas (petco2Movement). Model derived here; the analyser SD and the normal quantile are cited in
+ * GAS_DEFAULTS and normalQuantile.
  */
 export function estimatePaco2(breaths: readonly BreathRow[], gasRows: readonly GasRow[], opts: EstimateOptions = {}): Paco2Estimate[] {
   const d = GAS_DEFAULTS;
@@ -40,13 +41,16 @@ export function estimatePaco2(breaths: readonly BreathRow[], gasRows: readonly G
   const used = breaths.filter((b) => usableForSummary(b, opts) && Number.isFinite(b.petco2_mmhg));
   const sp = petco2NoiseSd(used);
   const drift = driftPerSecond(known, sa, prior);
-  for (const b of used) {
+  const moved = petco2Movement(used, known);
+  for (let i = 0; i < used.length; i++) {
+    const b = used[i]!;
     let n = 0;
     while (n < known.length && known[n]!.time_s <= b.t_start_s) n++;
     if (n === 0) continue;
     const gas = known[n - 1]!;
     const estimate = b.petco2_mmhg + gas.gradient_mmhg;
-    const sd = Math.sqrt(sa * sa + sp * sp + drift[n - 1]! * Math.max(0, b.t_start_s - gas.time_s));
+    const move = moved[i]!;
+    const sd = Math.sqrt(sa * sa + sp * sp + drift[n - 1]! * Math.max(0, b.t_start_s - gas.time_s) + (4 * move * move) / 3);
     out.push({
       breath: b.breath,
       t_start_s: b.t_start_s,
@@ -58,6 +62,7 @@ export function estimatePaco2(breaths: readonly BreathRow[], gasRows: readonly G
       gas_sample: gas.sample,
       gases_in_band: n,
       estimate_sd_mmhg: sd,
+      petco2_moved_mmhg: move,
       band_method: 'prediction',
     });
   }
@@ -73,6 +78,37 @@ function petco2NoiseSd(used: readonly BreathRow[]): number {
   const diffs: number[] = [];
   for (let i = 1; i < used.length; i++) diffs.push(Math.abs(used[i]!.petco2_mmhg - used[i - 1]!.petco2_mmhg));
   return (1.4826 * median(diffs)) / Math.SQRT2;
+}
+
+/**
+ * How far PETCO2 has moved since the breath's gas: the largest |running median of PETCO2 over the last 9 usable
+ * breaths − the gas row's window median PETCO2| over the usable breaths from the gas up to this breath (0 before the
+ * first gas or when the gas row has no PETCO2). Why it widens the band (derived here): when PETCO2 moves by m after a
+ * gas, a change of ventilation moves PaCO2 with it (the gradient holds, the estimate is right), a change of dead space
+ * or perfusion leaves PaCO2 where it was (the gradient changes by m, the estimate is off by m); not knowing which, the
+ * error is taken as uniform between 0 and m, whose mean square is m²/3. The largest move since the gas is kept because
+ * PETCO2 returning later (PaCO2 rising as body CO2 stores fill) does not undo a changed gradient.
+ */
+function petco2Movement(used: readonly BreathRow[], known: readonly GasRow[]): number[] {
+  const out: number[] = [];
+  let gasIndex = -1;
+  let largest = 0;
+  for (let i = 0; i < used.length; i++) {
+    const t = used[i]!.t_start_s;
+    let n = gasIndex + 1;
+    while (n < known.length && known[n]!.time_s <= t) n++;
+    if (n - 1 !== gasIndex) {
+      gasIndex = n - 1;
+      largest = 0;
+    }
+    const ref = gasIndex >= 0 ? known[gasIndex]!.petco2_mmhg : NaN;
+    if (Number.isFinite(ref)) {
+      const recent = used.slice(Math.max(0, i - 8), i + 1).map((b) => b.petco2_mmhg);
+      largest = Math.max(largest, Math.abs(median(recent) - ref));
+    }
+    out.push(largest);
+  }
+  return out;
 }
 
 /** Drift of the gradient per second known after each gas (index k: gases 0..k), pooled with the prior. */

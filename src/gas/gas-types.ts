@@ -201,6 +201,8 @@ export interface Paco2Estimate {
   gases_in_band: number;
   /** SD of the estimate's error, mmHg: analyser, breath-to-breath PETCO2 and the gradient's drift since the gas */
   estimate_sd_mmhg: number;
+  /** largest move of PETCO2 (running median of 9 breaths) since the gas used; it widens the band */
+  petco2_moved_mmhg: number;
   band_method: 'prediction';
 }
 

@@ -303,7 +303,9 @@ export const PACO2_ESTIMATE_METRICS = [
   n('gradient_mmhg', 'Gradient used', 'mmHg', 1, false, 'gradient added to PETCO2 (from the gas sample used)', NO_SOURCE),
   n('gas_sample', 'Gas sample', '', 0, false, 'sample number of the gas used', DERIVED),
   n('gases_in_band', 'Gases in band', '', 0, false, 'gas samples at or before this breath (their successive gradients give the drift)', DERIVED),
-  n('estimate_sd_mmhg', 'Estimate SD', 'mmHg', 2, false, 'SD of the estimate: √(analyser SD² + breath-to-breath PETCO2 SD² + drift × time since the gas)', DERIVED),
+  n('estimate_sd_mmhg', 'Estimate SD', 'mmHg', 2, false, 'SD of the estimate: √(analyser SD² + breath-to-breath PETCO2 SD² + drift × time since the gas + 4/3 × `petco2_moved_mmhg`²)', DERIVED),
+  n('petco2_moved_mmhg', 'PETCO2 moved since gas', 'mmHg', 1, false,
+    'largest move of PETCO2 (running median of the last 9 breaths) away from the gas window median since the gas used: a change of dead space or perfusion moves the gradient by up to about twice this, so it widens the band; draw a gas when it is large', DERIVED),
   txt('band_method', 'Band method', '`prediction` (src/gas/estimate-paco2.ts)', DERIVED),
 ] as const satisfies readonly Entry<Paco2Estimate>[];
 

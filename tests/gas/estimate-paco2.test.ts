@@ -36,21 +36,24 @@ describe('estimatePaco2', () => {
 
   // Band (derived here, the model in src/gas/estimate-paco2.ts): estimate ± z SD, z = 1.281552 for 80 % (standard
   // normal table, Abramowitz & Stegun 1964 Table 26.1), SD² = 1.02² (analyser; Kampelmacher et al. 1997) + sp² +
-  // drift × (t − t_gas). PETCO2 alternates 34/36: successive differences ±2, median absolute difference 2, sp = 1.4826 × 2 / √2.
+  // drift × (t − t_gas) + 4/3 m². PETCO2 alternates 34/36: successive differences ±2, median absolute difference 2,
+  // sp = 1.4826 × 2 / √2; the running median of 9 breaths is 34 or 36 against the window median 35, so PETCO2 has
+  // moved by m = 1 since each gas.
   const z80 = 1.281552;
   const sp = (1.4826 * 2) / Math.SQRT2;
   const prior = 4 / 3600;
+  const moved = 4 / 3;
 
   it('single gas: PETCO2 + 5, band from analyser and PETCO2 noise plus the prior drift', () => {
     const e = byBreath.get(21)!; // t = 100, PETCO2 34, gas at 100 s
     expect(e).toMatchObject({ t_start_s: 100, petco2_mmhg: 34, gas_sample: 1, gases_in_band: 1, band_method: 'prediction' });
-    const sd = Math.sqrt(1.02 ** 2 + sp ** 2);
+    const sd = Math.sqrt(1.02 ** 2 + sp ** 2 + moved);
     expectClose(e.paco2_est_mmhg, 39);
     expectClose(e.estimate_sd_mmhg, sd, { abs: 1e-9 });
     expectClose(e.band_low_mmhg, 39 - z80 * sd, { abs: 2e-3 });
     expectClose(e.band_high_mmhg, 39 + z80 * sd, { abs: 2e-3 });
     const later = byBreath.get(80)!; // t = 395, still gas 1: 295 s of prior drift
-    expectClose(later.estimate_sd_mmhg, Math.sqrt(1.02 ** 2 + sp ** 2 + prior * 295), { abs: 1e-9 });
+    expectClose(later.estimate_sd_mmhg, Math.sqrt(1.02 ** 2 + sp ** 2 + prior * 295 + moved), { abs: 1e-9 });
   });
 
   it('two gases: most recent gradient 8; drift pooled from the change 5 -> 8 over 300 s with one hour of prior', () => {
@@ -58,7 +61,7 @@ describe('estimatePaco2', () => {
     expect(e).toMatchObject({ t_start_s: 405, gas_sample: 2, gases_in_band: 2, band_method: 'prediction' });
     const drift = (prior * 3600 + (3 ** 2 - 2 * 1.02 ** 2)) / (3600 + 300);
     expectClose(e.paco2_est_mmhg, 44);
-    expectClose(e.estimate_sd_mmhg, Math.sqrt(1.02 ** 2 + sp ** 2 + drift * 5), { abs: 1e-9 });
+    expectClose(e.estimate_sd_mmhg, Math.sqrt(1.02 ** 2 + sp ** 2 + drift * 5 + moved), { abs: 1e-9 });
   });
 
   it('three gases: gradient 15; a larger band level widens the band by the ratio of the quantiles', () => {
@@ -77,8 +80,24 @@ describe('estimatePaco2', () => {
     expect(est).toHaveLength(1);
     expect(est[0]).toMatchObject({ gas_sample: 1, band_method: 'prediction', gases_in_band: 1 });
     expectClose(est[0]!.paco2_est_mmhg, 35);
-    // one breath: no PETCO2 noise estimate (sp 0); 9400 s of prior drift
-    expectClose(est[0]!.estimate_sd_mmhg, Math.sqrt(4 + prior * 9400), { abs: 1e-9 });
+    // one breath: no PETCO2 noise estimate (sp 0); 9400 s of prior drift; PETCO2 30 against the gas window's 35: m = 5
+    expect(est[0]!.petco2_moved_mmhg).toBe(5);
+    expectClose(est[0]!.estimate_sd_mmhg, Math.sqrt(4 + prior * 9400 + (4 / 3) * 25), { abs: 1e-9 });
+  });
+
+  it('a move of PETCO2 after the gas widens the band by 4/3 m² (m the largest move of the 9-breath running median)', () => {
+    // 20 breaths at PETCO2 36 then 20 at 30, one gas at t = 0 with gradient 4 and window median 36 (hand-built row).
+    const rows = analyseGas(BREATHS, [makeSample({ time_s: 100, paco2_mmhg: 40 })], { pb_mmhg: 760 }).rows.map((g) => ({
+      ...g, time_s: 0, petco2_mmhg: 36, gradient_mmhg: 4,
+    }));
+    const series = Array.from({ length: 40 }, (_, i) => makeBreath({ breath: i + 1, t_start_s: 5 * i, petco2_mmhg: i < 20 ? 36 : 30 }));
+    const est = estimatePaco2(series, rows, { drift_prior_mmhg2_per_h: 0 });
+    // breath 24: the last 9 PETCO2 are five 36s and four 30s -> median 36, no move yet; breath 25: five 30s -> 30, m = 6
+    expect(est[23]!.petco2_moved_mmhg).toBe(0);
+    expect(est[24]!.petco2_moved_mmhg).toBe(6);
+    // sp: successive differences are 0 but one 6, median 0 -> sp 0; SD² = 1.02² + 4/3 × 36 = 1.0404 + 48
+    expectClose(est[24]!.estimate_sd_mmhg, Math.sqrt(1.02 ** 2 + 48), { abs: 1e-9 });
+    expectClose(est[24]!.paco2_est_mmhg, 34);
   });
 
   it('no gas with a gradient: no estimates', () => {
