@@ -153,7 +153,7 @@ export function showTrends(): void {
   if (!trends) {
     trends = createTrends(
       byId('trends'), () => state.rows, () => state.outputs?.gas?.rows ?? [], () => state.outputs?.events ?? [], select,
-      () => state.analysed?.settings.analysis.summary_breaths,
+      () => state.analysed?.settings.analysis.summary_breaths, () => state.outputs?.gas?.estimates ?? [],
     );
     trendsStale = false;
   } else if (trendsStale) {

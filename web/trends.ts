@@ -1,10 +1,11 @@
 // Trends over time of the per-breath results (ok breaths only, as in every summary): airway, alveolar and
 // physiological dead space, VD/VT, phase III slope, PETCO2 and VTCO2. Blood-gas samples are marked on every chart
 // (dashed vertical line) and their own values drawn as diamonds where they belong (PaCO2 on the PETCO2 chart,
-// physiological dead space and Enghoff VD/VT from the gas table).
+// physiological dead space and Enghoff VD/VT from the gas table). Between gases, the Enghoff VD/VT and PaCO2 computed
+// from the estimated PaCO2 (paco2_estimates.csv) are drawn beside the per-breath values, which keep the last gas's PaCO2.
 
 import uPlot from 'uplot';
-import { usableForSummary, type BreathRow, type EventRow, type GasRow, type SummaryBreaths } from '../src/index';
+import { usableForSummary, type BreathRow, type EventRow, type GasRow, type Paco2Estimate, type SummaryBreaths } from '../src/index';
 import { clockLabel } from './overview-chart';
 import { COLOURS, TREND_COLOURS } from './palette';
 
@@ -13,9 +14,13 @@ interface TrendSpec {
   title: string;
   unit: string;
   series: [keyof BreathRow, string][];
+  /** columns of the PaCO2 estimates between gases, drawn after `series` at their breaths */
+  estimated?: [EstimateKey, string][];
   /** gas-table value drawn as diamonds on this chart */
   gas?: { key: keyof GasRow; label: string };
 }
+
+type EstimateKey = 'paco2_est_mmhg' | 'vdvt_enghoff_est' | 'avdsf_est';
 
 export const TREND_SPECS: TrendSpec[] = [
   {
@@ -30,6 +35,7 @@ export const TREND_SPECS: TrendSpec[] = [
     title: 'VD/VT',
     unit: '',
     series: [['vdvt_bohr', 'Bohr'], ['vdvt_enghoff', 'Enghoff']],
+    estimated: [['vdvt_enghoff_est', 'Enghoff, estimated PaCO2']],
     gas: { key: 'vdvt_enghoff', label: 'Enghoff, gas sample' },
   },
   { id: 'slope3', title: 'phase III slope', unit: 'mmHg/L', series: [['slope3_mmhg_per_l', 'phase III slope']] },
@@ -38,6 +44,7 @@ export const TREND_SPECS: TrendSpec[] = [
     title: 'PETCO2',
     unit: 'mmHg',
     series: [['petco2_mmhg', 'PETCO2']],
+    estimated: [['paco2_est_mmhg', 'PaCO2 estimate']],
     gas: { key: 'paco2_mmhg', label: 'PaCO2, gas sample' },
   },
   { id: 'vtco2', title: 'VTCO2 per breath', unit: 'mL STPD', series: [['vtco2_ml', 'VTCO2']] },
@@ -52,16 +59,33 @@ export interface Trends {
   destroy(): void;
 }
 
-/** Column arrays of the breaths usable for a summary (usableForSummary; null elsewhere) for the given keys. */
+/**
+ * Column arrays of the breaths usable for a summary (usableForSummary; null elsewhere) for the given keys, then the
+ * given columns of each breath's PaCO2 estimate (null where the breath has none).
+ */
 export function trendColumns(
   rows: readonly BreathRow[], keys: (keyof BreathRow)[], summaryBreaths?: SummaryBreaths,
+  estimateKeys: EstimateKey[] = [], estimates: readonly Paco2Estimate[] = [],
 ): { x: number[]; ys: (number | null)[][] } {
   const x = rows.map((r) => r.t_start_s);
   const ys = keys.map((k) => rows.map((r) => {
     const v = r[k] as number;
     return usableForSummary(r, { summary_breaths: summaryBreaths }) && Number.isFinite(v) ? v : null;
   }));
+  const byBreath = new Map(estimates.map((e) => [e.breath, e]));
+  for (const k of estimateKeys) {
+    ys.push(rows.map((r) => {
+      const v = byBreath.get(r.breath)?.[k];
+      return v !== undefined && Number.isFinite(v) && usableForSummary(r, { summary_breaths: summaryBreaths }) ? v : null;
+    }));
+  }
   return { x, ys };
+}
+
+/** The columns a chart draws: its breath series, then its estimate series. */
+function specColumns(spec: TrendSpec, rs: readonly BreathRow[], summaryBreaths: SummaryBreaths | undefined, estimates: readonly Paco2Estimate[]) {
+  const est = spec.estimated ?? [];
+  return trendColumns(rs, spec.series.map(([k]) => k), summaryBreaths, est.map(([k]) => k), estimates);
 }
 
 export function createTrends(
@@ -71,6 +95,7 @@ export function createTrends(
   events: () => readonly EventRow[],
   onSelect: (index: number) => void,
   summaryBreaths: () => SummaryBreaths | undefined = () => undefined,
+  estimates: () => readonly Paco2Estimate[] = () => [],
 ): Trends {
   let syncing = false;
   const plots: uPlot[] = [];
@@ -153,8 +178,8 @@ export function createTrends(
     host.replaceChildren();
     const rs = rows();
     for (const spec of TREND_SPECS) {
-      const keys = spec.series.map(([k]) => k);
-      const { x, ys } = trendColumns(rs, keys, summaryBreaths());
+      const { x, ys } = specColumns(spec, rs, summaryBreaths(), estimates());
+      const labels = [...spec.series, ...(spec.estimated ?? [])].map(([, label]) => label);
       const present = ys.map((col) => col.some((v) => v !== null));
       if (!present.some(Boolean) && !(spec.gas && gas().length)) continue;
       const wrap = host.appendChild(document.createElement('div'));
@@ -172,7 +197,7 @@ export function createTrends(
         ],
         series: [
           { label: 'time', value: (_u, v) => (v == null ? '–' : clockLabel(v, 1e9)) },
-          ...spec.series.map(([, label], i) => ({
+          ...labels.map((label, i) => ({
             label,
             show: present[i],
             stroke: TREND_COLOURS[i % TREND_COLOURS.length],
@@ -215,7 +240,7 @@ export function createTrends(
     update() {
       const rs = rows();
       plots.forEach((p, i) => {
-        const { x, ys } = trendColumns(rs, shown[i]!.series.map(([k]) => k), summaryBreaths());
+        const { x, ys } = specColumns(shown[i]!, rs, summaryBreaths(), estimates());
         p.setData([x, ...ys] as uPlot.AlignedData, false);
         p.redraw();
       });

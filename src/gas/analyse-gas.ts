@@ -375,6 +375,8 @@ export function analyseGas(
     drift_prior_mmhg2_per_h: opts.drift_prior_mmhg2_per_h ?? d.drift_prior_mmhg2_per_h.value,
   };
   const settings = gasSettings({ opts, analysis, shuntSettings, weight, paco2Temperature, splitAlveolar, windowS, gradientChangeMmhg, band });
-  const estimates = estimatePaco2(breaths, rows, { ...band, summary_breaths: analysis.summary_breaths });
+  const estimates = estimatePaco2(breaths, rows, {
+    ...band, summary_breaths: analysis.summary_breaths, apparatus_ml: analysis.apparatus_ml, inspired_term: analysis.inspired_term,
+  });
   return { rows, estimates, settings, warnings };
 }

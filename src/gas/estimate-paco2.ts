@@ -1,5 +1,8 @@
 import { usableForSummary, type SummaryBreaths } from '../analyse/quality';
 import { median, normalQuantile } from '../numeric/stats';
+import { avdsf } from '../physiology/avdsf';
+import { enghoffDeadSpaceFraction } from '../physiology/enghoff-dead-space-fraction';
+import { patientDeadSpace } from '../physiology/patient-dead-space';
 import type { BreathRow } from '../types';
 import { GAS_DEFAULTS } from './gas-defaults';
 import type { GasRow, Paco2Estimate } from './gas-types';
@@ -10,6 +13,10 @@ export interface EstimateOptions {
   analyser_sd_mmhg?: number;
   drift_prior_mmhg2_per_h?: number;
   summary_breaths?: SummaryBreaths;
+  /** apparatus volume between sensor and patient, mL, removed from the estimated Enghoff dead space (default 0) */
+  apparatus_ml?: number;
+  /** subtract the breath's inspired PCO2 in Enghoff's equation (default true), as `bohr_inspired_term` */
+  inspired_term?: boolean;
 }
 
 /**
@@ -63,10 +70,22 @@ export function estimatePaco2(breaths: readonly BreathRow[], gasRows: readonly G
       gases_in_band: n,
       estimate_sd_mmhg: sd,
       petco2_moved_mmhg: move,
+      ...estimatedDeadSpace(b, estimate, opts),
       band_method: 'prediction',
     });
   }
   return out;
+}
+
+/**
+ * The breath's Enghoff VD/VT and arterial–end-tidal fraction with the estimated PaCO2 in place of a measured one, by
+ * the functions the gas table and the per-breath columns use (enghoffDeadSpaceFraction, patientDeadSpace, avdsf): the
+ * trends of these follow PaCO2 between gases, where `vdvt_enghoff` of breaths.csv keeps the last gas's PaCO2.
+ */
+function estimatedDeadSpace(b: BreathRow, paco2EstMmhg: number, opts: EstimateOptions): { vdvt_enghoff_est: number; avdsf_est: number } {
+  const inspired = (opts.inspired_term ?? true) && Number.isFinite(b.fico2_mmhg) ? b.fico2_mmhg : 0;
+  const enghoff = patientDeadSpace(enghoffDeadSpaceFraction(paco2EstMmhg, b.peco2_mmhg, inspired), b.vt_exp_ml, opts.apparatus_ml ?? 0);
+  return { vdvt_enghoff_est: enghoff.fraction, avdsf_est: avdsf(paco2EstMmhg, b.petco2_mmhg) };
 }
 
 /**

@@ -203,6 +203,10 @@ export interface Paco2Estimate {
   estimate_sd_mmhg: number;
   /** largest move of PETCO2 (running median of 9 breaths) since the gas used; it widens the band */
   petco2_moved_mmhg: number;
+  /** Enghoff VD/VT of the breath with the estimated PaCO2 (apparatus removed, inspired term by setting) */
+  vdvt_enghoff_est: number;
+  /** arterial–end-tidal fraction (estimate − PETCO2) / estimate */
+  avdsf_est: number;
   band_method: 'prediction';
 }
 

@@ -233,6 +233,11 @@ export const TREND_METRICS = [
   n('vd_aw_ml', 'Airway dead space (Fowler)', 'mL', 1, false, 'median airway dead space over ok breaths', FOWLER),
   n('vdvt_bohr', 'VD/VT Bohr', '', 3, false, 'median Bohr VD/VT over ok breaths', BOHR),
   n('slope3_mmhg_per_l', 'Phase III slope', 'mmHg/L', 2, false, 'median phase III slope over ok breaths', TUSMAN_2012),
+  n('paco2_est_mmhg', 'PaCO2 estimate', 'mmHg', 1, false,
+    "median of the bin's PaCO2 estimates between blood gases (`paco2_estimates.csv`; PETCO2 + the latest gradient); empty without gases or before the first", NO_SOURCE),
+  n('vdvt_enghoff_est', 'VD/VT Enghoff (estimated PaCO2)', '', 3, false,
+    "median of the bin's `vdvt_enghoff_est` (Enghoff with the estimated PaCO2 of each breath): follows PaCO2 between gases", ENGHOFF),
+  n('avdsf_est', 'AVDSF (estimated PaCO2)', '', 3, false, "median of the bin's `avdsf_est`, (estimated PaCO2 − PETCO2) / estimated PaCO2", HARDMAN),
   n('fico2_mmhg', 'Inspired PCO2', 'mmHg', 2, false, 'median inspired PCO2 over all breaths (rebreathing itself excludes breaths)', NO_SOURCE),
   n('delay_s', 'CO2 delay measured', 's', 3, false, 'median of the per-breath measured delay (`delay_measured_s`) over all breaths', DERIVED),
   n('ok_share', 'Ok share', '', 2, false, 'ok breaths / breaths (empty when the bin has no breath)', DERIVED),
@@ -306,6 +311,9 @@ export const PACO2_ESTIMATE_METRICS = [
   n('estimate_sd_mmhg', 'Estimate SD', 'mmHg', 2, false, 'SD of the estimate: √(analyser SD² + breath-to-breath PETCO2 SD² + drift × time since the gas + 4/3 × `petco2_moved_mmhg`²)', DERIVED),
   n('petco2_moved_mmhg', 'PETCO2 moved since gas', 'mmHg', 1, false,
     'largest move of PETCO2 (running median of the last 9 breaths) away from the gas window median since the gas used: a change of dead space or perfusion moves the gradient by up to about twice this, so it widens the band; draw a gas when it is large', DERIVED),
+  n('vdvt_enghoff_est', 'VD/VT Enghoff (estimated PaCO2)', '', 3, false,
+    "Enghoff VD/VT of the breath with `paco2_est_mmhg` for PaCO2: (estimate − PĒCO2)/(estimate − PICO2) × V_E minus `apparatus_ml`, over V_E (inspired term with `bohr_inspired_term`); follows PaCO2 between gases where breaths.csv's `vdvt_enghoff` keeps the last gas's", ENGHOFF),
+  n('avdsf_est', 'AVDSF (estimated PaCO2)', '', 3, false, '(`paco2_est_mmhg` − PETCO2) / `paco2_est_mmhg`', HARDMAN),
   txt('band_method', 'Band method', '`prediction` (src/gas/estimate-paco2.ts)', DERIVED),
 ] as const satisfies readonly Entry<Paco2Estimate>[];
 

@@ -105,7 +105,10 @@ export function composeOutputs(
   const note = exclusionNote(core.breaths, excluded);
   if (note) summary.notes.push(note);
   const gasesInRecording = gas ? samplesInRecording(gas.samples) : [];
-  const te = trendsAndEvents(rows, { ...settings.events, summary_breaths: settings.analysis.summary_breaths }, gasesInRecording, settings.analysis.apparatus_ml);
+  const te = trendsAndEvents(
+    rows, { ...settings.events, summary_breaths: settings.analysis.summary_breaths }, gasesInRecording, settings.analysis.apparatus_ml,
+    gasResult?.estimates ?? [],
+  );
   summary.events = jsonSafe(te.events);
   return { rows, summary, gas: gasResult, trends: te.trends, events: te.events };
 }

@@ -2,6 +2,7 @@
 import { computeTrends, detectEvents, EVENT_COLUMNS, TREND_COLUMNS, type EventRow, type TrendRow } from '../trends/index';
 import type { SummaryBreaths } from '../analyse/quality';
 import type { TrendSettings } from '../settings';
+import type { Paco2Estimate } from '../gas/gas-types';
 import type { BreathRow } from '../types';
 import { csvTable } from './format';
 
@@ -15,8 +16,9 @@ export function trendsAndEvents(
   opts: TrendSettings & { summary_breaths?: SummaryBreaths },
   bloodGases: readonly { time_s: number; paco2_mmhg: number }[] = [],
   apparatusMl = 0,
+  estimates: readonly Paco2Estimate[] = [],
 ): TrendsAndEvents {
-  const trends = computeTrends(breaths, opts, apparatusMl);
+  const trends = computeTrends(breaths, opts, apparatusMl, estimates);
   const events = detectEvents(trends, opts, { blood_gases: bloodGases });
   return { trends, events };
 }

@@ -1,6 +1,7 @@
 import { usableForSummary, type SummaryBreaths } from '../analyse/quality';
 import { median } from '../numeric/stats';
 import { alveolarTidalVolumeMl } from '../physiology/patient-dead-space';
+import type { Paco2Estimate } from '../gas/gas-types';
 import type { BreathRow } from '../types';
 import type { TrendSettings } from '../settings';
 import type { TrendRow } from './trend-row';
@@ -11,12 +12,14 @@ import type { TrendRow } from './trend-row';
  * last breath's bin gets a row, so gaps show as rows with breaths = 0. Formulas and the handling of excluded breaths:
  * see TrendRow (src/trends/trend-row.ts). `apparatusMl`: the apparatus volume between sensor and patient, which the
  * breath rows' airway dead space excludes but which no more reaches alveoli than the airway does (alveolar
- * ventilation). Cost O(n log n) in the number of breaths (medians).
+ * ventilation). `estimates`: the PaCO2 estimates between blood gases (estimatePaco2), whose medians per bin give the
+ * estimate-based columns (empty without gases). Cost O(n log n) in the number of breaths (medians).
  */
 export function computeTrends(
   breaths: readonly BreathRow[],
   opts: Pick<TrendSettings, 'bin_s' | 'min_ok_breaths'> & { summary_breaths?: SummaryBreaths },
   apparatusMl = 0,
+  estimates: readonly Paco2Estimate[] = [],
 ): TrendRow[] {
   const binS = opts.bin_s;
   if (!(binS > 0)) throw new RangeError('bin_s must be positive');
@@ -31,7 +34,28 @@ export function computeTrends(
   }
   const groups: BreathRow[][] = Array.from({ length: last - first + 1 }, () => []);
   for (const b of withTime) groups[Math.floor(b.t_start_s / binS) - first]!.push(b);
-  return groups.map((g, j) => summariseBin((first + j) * binS, g, opts.min_ok_breaths, opts.summary_breaths, apparatusMl));
+  const rows = groups.map((g, j) => summariseBin((first + j) * binS, g, opts.min_ok_breaths, opts.summary_breaths, apparatusMl));
+  addEstimates(rows, estimates, binS, first);
+  return rows;
+}
+
+/** Medians of the PaCO2 estimates per bin (bin of the breath's start), in bins that have their ok breaths. */
+function addEstimates(rows: TrendRow[], estimates: readonly Paco2Estimate[], binS: number, first: number): void {
+  const groups = new Map<number, Paco2Estimate[]>();
+  for (const e of estimates) {
+    const j = Math.floor(e.t_start_s / binS) - first;
+    if (!(j >= 0 && j < rows.length)) continue;
+    const g = groups.get(j) ?? [];
+    g.push(e);
+    groups.set(j, g);
+  }
+  for (const [j, g] of groups) {
+    const row = rows[j]!;
+    if (!Number.isFinite(row.petco2_mmhg)) continue; // too few ok breaths in the bin
+    row.paco2_est_mmhg = median(g.map((e) => e.paco2_est_mmhg));
+    row.vdvt_enghoff_est = median(g.map((e) => e.vdvt_enghoff_est));
+    row.avdsf_est = median(g.map((e) => e.avdsf_est));
+  }
 }
 
 function summariseBin(tS: number, all: BreathRow[], minOk: number, summaryBreaths: SummaryBreaths | undefined, apparatusMl: number): TrendRow {
@@ -48,6 +72,9 @@ function summariseBin(tS: number, all: BreathRow[], minOk: number, summaryBreath
     vd_aw_ml: NaN,
     vdvt_bohr: NaN,
     slope3_mmhg_per_l: NaN,
+    paco2_est_mmhg: NaN,
+    vdvt_enghoff_est: NaN,
+    avdsf_est: NaN,
     fico2_mmhg: median(all.map((b) => b.fico2_mmhg)),
     delay_s: median(all.map((b) => b.delay_measured_s)),
     ok_share: all.length > 0 ? ok.length / all.length : NaN,

@@ -283,6 +283,12 @@ describe.skipIf(!HAVE)('review viewer in headless Chromium', () => {
       const f = await downloadText(page, EXPORT_BUTTON[name]!);
       expect(f.text, name).toBe(readFileSync(join(gasDir, 'out', name), 'utf8'));
     }
+    // the trends draw Enghoff VD/VT and PaCO2 from the estimated PaCO2 between gases beside the per-breath values
+    await page.click('#tabs button[data-pane="trends"]');
+    await page.waitForSelector('#trends [data-trend="vdvt"]');
+    expect(await page.textContent('#trends [data-trend="vdvt"] .u-legend')).toContain('Enghoff, estimated PaCO2');
+    expect(await page.textContent('#trends [data-trend="petco2"] .u-legend')).toContain('PaCO2 estimate');
+    await page.click('#tabs button[data-pane="review"]');
   });
 
   it('takes the patient options of the gas analysis: the same files as analyse --gas --weight --gas-window', async () => {

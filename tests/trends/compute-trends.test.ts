@@ -7,6 +7,8 @@ import { DEFAULT_TRENDS } from '../../src/settings';
 import { TREND_COLUMNS } from '../../src/trends/trend-row';
 import { expectClose } from '../helpers/expect-close';
 import { breathRow } from './make-row';
+import { analyseGas, estimatePaco2 } from '../../src/gas/index';
+import { makeSample } from '../gas/make-breath';
 
 const opts = { bin_s: 60, min_ok_breaths: 3 };
 
@@ -73,5 +75,40 @@ describe('computeTrends', () => {
     expect(DEFAULT_TRENDS.bin_s).toBe(60);
     const rows = Array.from({ length: 30 }, (_, i) => b(i * 4, 4, 500, 14, 36));
     expect(computeTrends(rows, { bin_s: 30, min_ok_breaths: 3 }).map((r) => r.breaths)).toEqual([8, 7, 8, 7]);
+  });
+});
+
+describe('computeTrends with PaCO2 estimates between blood gases', () => {
+  // Three ok breaths in bin 0 (PETCO2 36, 37, 35; PĒCO2 28, VTe 500, no inspired CO2), one gas at t = 0 with a
+  // gradient of 4 mmHg: estimates 40, 41, 39 by the definition PETCO2 + gradient. Hand-worked from Enghoff's equation
+  // (Enghoff 1938; VD/VT = (PaCO2 − PĒCO2)/PaCO2 without inspired CO2) and AVDSF = (PaCO2 − PETCO2)/PaCO2 (Hardman &
+  // Aitkenhead 2003): Enghoff 12/40 = 0.3, 13/41 = 0.31707, 11/39 = 0.28205 -> median 0.3; AVDSF 4/40 = 0.1,
+  // 4/41 = 0.09756, 4/39 = 0.10256 -> median 0.1.
+  const rows = [b(0, 4, 500, 14, 36, { peco2_mmhg: 28 }), b(4, 4, 500, 14, 37, { peco2_mmhg: 28 }), b(8, 4, 500, 14, 35, { peco2_mmhg: 28 }),
+    b(60, 4, 500, 14, 36, { peco2_mmhg: 28 })];
+  // one gas row (the table's other columns as analyseGas makes them), placed at t = 0 with gradient 4 and PETCO2 36
+  const gasRows = analyseGas(rows, [makeSample({ time_s: 20, paco2_mmhg: 40 })], { pb_mmhg: 760 }).rows.map((g) => ({
+    ...g, time_s: 0, petco2_mmhg: 36, gradient_mmhg: 4,
+  }));
+
+  it('the bin medians of the estimated PaCO2, Enghoff VD/VT and AVDSF', () => {
+    const est = estimatePaco2(rows, gasRows);
+    expect(est.map((e) => e.paco2_est_mmhg)).toEqual([40, 41, 39, 40]);
+    expectClose(est[1]!.vdvt_enghoff_est, 13 / 41, { abs: 1e-12 });
+    expectClose(est[2]!.avdsf_est, 4 / 39, { abs: 1e-12 });
+    const [t0, t1] = computeTrends(rows, opts, 0, est);
+    expect(t0!.paco2_est_mmhg).toBe(40);
+    expectClose(t0!.vdvt_enghoff_est, 0.3, { abs: 1e-12 });
+    expectClose(t0!.avdsf_est, 0.1, { abs: 1e-12 });
+    // bin 1 has one ok breath, fewer than min_ok_breaths (3): no value, as for the other columns
+    expect(t1!.paco2_est_mmhg).toBeNaN();
+    expect(t1!.petco2_mmhg).toBeNaN();
+  });
+
+  it('without estimates the columns are empty', () => {
+    const [t0] = computeTrends(rows, opts);
+    expect(t0!.paco2_est_mmhg).toBeNaN();
+    expect(t0!.vdvt_enghoff_est).toBeNaN();
+    expect(t0!.avdsf_est).toBeNaN();
   });
 });
