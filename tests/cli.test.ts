@@ -31,6 +31,29 @@ describe.skipIf(!existsSync(cli))('phasewise command line', () => {
     for (const f of ['breaths.csv', 'summary.json', 'trends.csv', 'events.csv']) expect(existsSync(join(out, f))).toBe(true);
   });
 
+  it('--weight gives per-kg breath values and the summary records the weight, with or without a gas file', () => {
+    const out = join(dir, 'weight');
+    const r = run('analyse', sample, '--out', out, '--weight', '80');
+    expect(r.status, r.stderr).toBe(0);
+    expect(r.stdout).toContain('Airway dead space per kg');
+    const [head, ...lines] = readFileSync(join(out, 'breaths.csv'), 'utf8').trim().split('\n');
+    const col = (name: string) => head!.split(',').indexOf(name);
+    expect(col('vd_aw_ml_per_kg')).toBeGreaterThan(0);
+    let checked = 0;
+    for (const line of lines) {
+      const f = line.split(',');
+      const vd = Number(f[col('vd_aw_ml')]);
+      if (f[col('vd_aw_ml')] === '' || !Number.isFinite(vd)) continue;
+      // the per-kg column is the dead space over 80 kg, to the file's rounding
+      expectClose(Number(f[col('vd_aw_ml_per_kg')]), vd / 80, { abs: 0.01 });
+      checked++;
+    }
+    expect(checked).toBeGreaterThan(10);
+    const summary = JSON.parse(readFileSync(join(out, 'summary.json'), 'utf8'));
+    expect(summary.weight).toMatchObject({ basis: 'actual_weight', weight_kg: 80 });
+    expect(summary.metrics.vd_aw_ml_per_kg.n).toBeGreaterThan(10);
+  });
+
   it('missing file: exit 3, one line naming the file', () => {
     expectOneLineFailure(run('analyse', join(dir, 'nope.csv'), '--out', join(dir, 'x')), 3, 'nope.csv');
   });

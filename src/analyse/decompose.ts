@@ -111,6 +111,7 @@ class BreathRowRecord implements BreathRow {
   te_s = NaN;
   vt_insp_ml = NaN;
   vt_exp_ml = NaN;
+  vt_exp_ml_per_kg = NaN;
   vd_aw_ml = NaN;
   vd_inflection_ml = NaN;
   v_phase2_start_ml = NaN;
@@ -125,15 +126,18 @@ class BreathRowRecord implements BreathRow {
   alv_co2_mmhg = NaN;
   vtco2_ml = NaN;
   vco2_ml_min = NaN;
+  vco2_ml_kg_min = NaN;
   veco2_ml = NaN;
   vico2_ml = NaN;
   fico2_mmhg = NaN;
   vd_bohr_ml = NaN;
   vdvt_bohr = NaN;
   vdaw_vt = NaN;
+  vd_aw_ml_per_kg = NaN;
   vt_alv_ml = NaN;
   vd_alv_bohr_ml = NaN;
   vd_enghoff_ml = NaN;
+  vd_enghoff_ml_per_kg = NaN;
   vdvt_enghoff = NaN;
   vdalv_vtalv = NaN;
   delay_s = NaN;

@@ -1,3 +1,4 @@
+import { perKilogram } from '../physiology/per-kilogram';
 import { alveolarDeadSpaceMl } from '../physiology/alveolar-dead-space';
 import { avdsf } from '../physiology/avdsf';
 import { enghoffDeadSpaceFraction } from '../physiology/enghoff-dead-space-fraction';
@@ -155,7 +156,7 @@ interface RowParts {
 function gasRow(r: RowParts): GasRow {
   const { sample, med, dead, shunt } = r;
   const paco2 = r.paco2.used_mmhg;
-  const perKg = (v: number) => v / r.weightKg;
+  const perKg = (v: number) => perKilogram(v, r.weightKg);
   return {
     sample: r.number,
     line: sample.line,

@@ -24,5 +24,6 @@ export { GAS_DEFAULTS } from './gas-defaults';
 export { GAS_COLUMNS, PACO2_ESTIMATE_COLUMNS } from './gas-columns';
 export { median as finiteMedian } from '../numeric/stats';
 export { applyArterialPco2 } from './apply-paco2';
+export { applyWeight } from './apply-weight';
 export { paco2Basis, type Paco2Basis } from './paco2-basis';
 export { isBeforeRecording, samplesInRecording } from './before-recording';

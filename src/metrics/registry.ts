@@ -120,6 +120,7 @@ export const BREATH_METRICS = [
   n('te_s', 'Expiratory time', 's', 2, false, 'expiratory time', NO_SOURCE),
   n('vt_insp_ml', 'Inspired tidal volume', 'mL', 1, true, 'inspired tidal volume (flow integrated by the trapezoid rule, offset-corrected)', NO_SOURCE),
   n('vt_exp_ml', 'Expired tidal volume', 'mL', 1, true, 'expired tidal volume V_E (flow integrated by the trapezoid rule, offset-corrected)', NO_SOURCE),
+  n('vt_exp_ml_per_kg', 'Expired tidal volume per kg', 'mL/kg', 1, true, '`vt_exp_ml` per kg of predicted body weight (adults with `--height --sex`) or of `--weight`; empty without a weight', ARDSNET),
   n('vd_aw_ml', 'Airway dead space (Fowler)', 'mL', 1, true,
     "airway dead space by Fowler's equal-area construction on CO2 above the inspired level, upper limit V_E (setting), minus `apparatus_ml`", FOWLER),
   n('vd_inflection_ml', 'Airway dead space (inflection)', 'mL', 1, true,
@@ -139,15 +140,18 @@ export const BREATH_METRICS = [
   n('vtco2_ml', 'VTCO2 per breath (STPD)', 'mL', 2, true,
     'CO2 eliminated per breath, mL STPD = expired − inspired CO2 volume; 1.1588e-3 × ∫P dV at 37 °C', FLETCHER),
   n('vco2_ml_min', "V'CO2 (this breath)", 'mL/min', 1, true, 'CO2 elimination rate of the breath, mL/min STPD = VTCO2 × 60 / breath duration', FLETCHER),
+  n('vco2_ml_kg_min', "V'CO2 per kg", 'mL/kg/min', 2, true, '`vco2_ml_min` per kg, same weight as `vt_exp_ml_per_kg`', FLETCHER),
   n('veco2_ml', 'Expired CO2 volume (STPD)', 'mL', 2, false, 'expired CO2 volume, mL STPD', FLETCHER),
   n('vico2_ml', 'Re-inspired CO2 volume (STPD)', 'mL', 3, false, 'inspired CO2 volume, mL STPD', FLETCHER),
   n('fico2_mmhg', 'Inspired PCO2', 'mmHg', 2, true, 'volume-weighted mean inspired PCO2', NO_SOURCE),
   n('vd_bohr_ml', 'Bohr dead space', 'mL', 1, true, 'Bohr dead space at the sensor minus `apparatus_ml` (VD/VT Bohr × V_E)', BOHR),
   n('vdvt_bohr', 'VD/VT Bohr', '', 3, true, 'Bohr: (PACO2 − PĒCO2)/(PACO2 − PICO2) × V_E minus `apparatus_ml`, over V_E (the published equation when `apparatus_ml` is 0)', BOHR),
   n('vdaw_vt', 'VDaw/VT', '', 3, true, 'airway (Fowler) dead space over expired tidal volume, `vd_aw_ml` / `vt_exp_ml`', FOWLER),
+  n('vd_aw_ml_per_kg', 'Airway dead space per kg', 'mL/kg', 2, true, '`vd_aw_ml` per kg, same weight as `vt_exp_ml_per_kg`', ARDSNET),
   n('vt_alv_ml', 'Alveolar tidal volume', 'mL', 1, true, 'V_E − airway dead space − `apparatus_ml`: the part of the breath that reached alveoli', FOWLER),
   n('vd_alv_bohr_ml', 'Alveolar dead space (Bohr-based)', 'mL', 1, true, 'alveolar dead space = Bohr dead space − airway (Fowler) dead space', FLETCHER),
   n('vd_enghoff_ml', 'Enghoff dead space', 'mL', 1, true, 'Enghoff dead space at the sensor minus `apparatus_ml` (VD/VT Enghoff × V_E; needs `--paco2` or `--gas`)', ENGHOFF),
+  n('vd_enghoff_ml_per_kg', 'Enghoff dead space per kg', 'mL/kg', 2, true, '`vd_enghoff_ml` per kg, same weight as `vt_exp_ml_per_kg` (needs `--paco2` or `--gas`)', ARDSNET),
   n('vdvt_enghoff', 'VD/VT Enghoff', '', 3, true, 'Enghoff: (PaCO2 − PĒCO2)/(PaCO2 − PICO2) × V_E minus `apparatus_ml`, over V_E (needs `--paco2` or `--gas`)', ENGHOFF),
   n('vdalv_vtalv', 'Alveolar VD/VT (arterial)', '', 3, true, 'alveolar dead-space fraction of the alveolar volume, (PaCO2 − PĀECO2)/(PaCO2 − PICO2), PĀECO2 = `paeco2_mmhg` (needs `--paco2` or `--gas`)', FLETCHER),
   n('delay_s', 'CO2 delay used', 's', 3, true, 'CO2 transport delay used for this breath', DERIVED),
@@ -191,7 +195,7 @@ export function blankBreathRow(): BreathRow {
 /** The terminal summary table (median, p25, p75, n over ok breaths; shown when n > 0). */
 export const TERMINAL_SUMMARY_ROWS: readonly SummaryKey[] = [
   'rr_bpm', 'vt_exp_ml', 'vt_insp_ml', 'vd_aw_ml', 'vd_inflection_ml', 'slope3_mmhg_per_l', 'petco2_mmhg', 'peco2_mmhg',
-  'alv_co2_mmhg', 'vtco2_ml', 'vco2_ml_min', 'vdaw_vt', 'vdvt_bohr', 'vd_bohr_ml', 'vd_alv_bohr_ml', 'vdvt_enghoff', 'vd_enghoff_ml', 'vdalv_vtalv',
+  'alv_co2_mmhg', 'vtco2_ml', 'vco2_ml_min', 'vco2_ml_kg_min', 'vdaw_vt', 'vd_aw_ml_per_kg', 'vdvt_bohr', 'vd_bohr_ml', 'vd_alv_bohr_ml', 'vdvt_enghoff', 'vd_enghoff_ml', 'vdalv_vtalv',
 ];
 
 /** The viewer's recording summary panel. */
@@ -203,10 +207,10 @@ export const VIEWER_SUMMARY_ROWS: readonly SummaryKey[] = [
 /** The viewer's table of the selected breath, by group. */
 export const VIEWER_BREATH_GROUPS: readonly (readonly [string, readonly NumericBreathKey[]])[] = [
   ['timing', ['t_start_s', 'rr_bpm', 'ti_s', 'te_s']],
-  ['volumes', ['vt_insp_ml', 'vt_exp_ml']],
-  ['dead space', ['vd_aw_ml', 'vdaw_vt', 'vt_alv_ml', 'vd_inflection_ml', 'vd_alv_bohr_ml', 'vd_bohr_ml', 'vdvt_bohr', 'vd_enghoff_ml', 'vdvt_enghoff', 'vdalv_vtalv']],
+  ['volumes', ['vt_insp_ml', 'vt_exp_ml', 'vt_exp_ml_per_kg']],
+  ['dead space', ['vd_aw_ml', 'vd_aw_ml_per_kg', 'vdaw_vt', 'vt_alv_ml', 'vd_inflection_ml', 'vd_alv_bohr_ml', 'vd_bohr_ml', 'vdvt_bohr', 'vd_enghoff_ml', 'vd_enghoff_ml_per_kg', 'vdvt_enghoff', 'vdalv_vtalv']],
   ['phases', ['v_phase2_start_ml', 'v_phase3_start_ml', 'slope2_mmhg_per_l', 'slope3_mmhg_per_l', 'slope3_norm_per_l', 'slope3_r2']],
-  ['CO2', ['petco2_mmhg', 'peco2_mmhg', 'alv_co2_mmhg', 'paeco2_mmhg', 'fico2_mmhg', 'vtco2_ml', 'vco2_ml_min', 'veco2_ml', 'vico2_ml', 'delay_s']],
+  ['CO2', ['petco2_mmhg', 'peco2_mmhg', 'alv_co2_mmhg', 'paeco2_mmhg', 'fico2_mmhg', 'vtco2_ml', 'vco2_ml_min', 'vco2_ml_kg_min', 'veco2_ml', 'vico2_ml', 'delay_s']],
 ];
 
 // ---------------------------------------------------------------------------------------------------------------

@@ -26,6 +26,7 @@ export {
   type PatientDeadSpace,
 } from './patient-dead-space';
 export { avdsf } from './avdsf';
+export { perKilogram } from './per-kilogram';
 export { fletcherAreas, type FletcherAreas } from './fletcher-areas';
 export { endCapillaryPco2 } from './end-capillary-pco2';
 export { shuntCorrectedEnghoff } from './shunt-corrected-enghoff';

@@ -7,7 +7,7 @@
 
 import type { AnalysisCore } from '../analyse/analyser';
 import {
-  analyseGas, applyArterialPco2, GAS_COLUMNS, PACO2_ESTIMATE_COLUMNS, samplesInRecording, type GasOptions, type GasParseResult, type GasResult, type GasSample,
+  analyseGas, applyArterialPco2, applyWeight, chooseWeight, GAS_COLUMNS, PACO2_ESTIMATE_COLUMNS, samplesInRecording, type GasOptions, type GasParseResult, type GasResult, type GasSample,
 } from '../gas/index';
 import type { IngestReport } from '../ingest/index';
 import { breathsCsv } from './breaths-csv';
@@ -56,11 +56,14 @@ export function jsonSafe<T>(x: T): T {
 export function exportRows(
   core: AnalysisCore, settings: Settings, excluded: ReadonlyMap<number, string>, gas: GasInput | null,
   paco2Temperature = gas?.options?.paco2_temperature,
+  weightKg = chooseWeight(gas?.options ?? {}).weight_kg,
 ): BreathRow[] {
   const rows = reviewedRows(core.breaths, excluded);
-  if (!gas || settings.analysis.paco2_mmhg !== null) return rows;
+  const withGas = gas !== null && settings.analysis.paco2_mmhg === null;
+  if (!withGas && !(weightKg > 0)) return rows;
   const copies = rows.map((r) => ({ ...r, flags: [...r.flags] }));
-  applyArterialPco2(copies, gas.samples, settings.analysis.bohr_inspired_term, settings.analysis.apparatus_ml, paco2Temperature);
+  if (withGas) applyArterialPco2(copies, gas.samples, settings.analysis.bohr_inspired_term, settings.analysis.apparatus_ml, paco2Temperature);
+  if (weightKg > 0) applyWeight(copies, weightKg);
   return copies;
 }
 
@@ -76,7 +79,8 @@ export function composeOutputs(
   gas: GasInput | null,
   gasOptions: GasOptions = { pb_mmhg: settings.ingest.pb_mmhg, ...(gas?.options ?? {}) },
 ): Outputs {
-  const rows = exportRows(core, settings, excluded, gas, gasOptions.paco2_temperature);
+  const weight = chooseWeight(gasOptions);
+  const rows = exportRows(core, settings, excluded, gas, gasOptions.paco2_temperature, weight.weight_kg);
   const reviewed: AnalysisCore = { ...core, breaths: rows };
   let gasResult: GasResult | null = null;
   let summary: Summary;
@@ -102,6 +106,8 @@ export function composeOutputs(
   } else {
     summary = summaryFor(reviewed, report, settings, given);
   }
+  if (weight.basis !== 'none') summary.weight = { basis: weight.basis, weight_kg: weight.weight_kg, note: weight.note };
+  if (weight.warnings.length && !gas) summary.notes.push(...weight.warnings);
   const note = exclusionNote(core.breaths, excluded);
   if (note) summary.notes.push(note);
   const gasesInRecording = gas ? samplesInRecording(gas.samples) : [];
