@@ -1,5 +1,5 @@
 // The metrics of the selected breath, beside the breath view: the row the core computed (same values as
-// breaths.csv), its quality codes explained, and Fletcher's areas (src/physiology/fletcher-areas.ts) when a PaCO2 is
+// breaths.csv, Fletcher's areas among them), its quality codes explained, and the fractions of Fletcher's areas (src/physiology/fletcher-areas.ts) when a PaCO2 is
 // known. Which metrics, in which groups, with their labels, units and decimals: the metric registry
 // (src/metrics/registry.ts, VIEWER_BREATH_GROUPS).
 
@@ -32,13 +32,9 @@ export function renderBreathMetrics(
     table.append(h('tr', { class: 'group' }, [h('th', { colspan: 3, text: `with PaCO2 ${fixed(paco2.mmhg, 1)} mmHg (${paco2.source})` })]));
     const items: [string, number, string, number][] = [
       ['Pa−ETCO2 gradient', paco2.mmhg - row.petco2_mmhg, 'mmHg', 1],
-      ['area X (CO2 out)', f.x_mmhg_ml, 'mmHg·mL', 0],
-      ['area Y (alveolar dead space)', f.y_mmhg_ml, 'mmHg·mL', 0],
-      ['area Z (airway dead space)', f.z_mmhg_ml, 'mmHg·mL', 0],
       ['VDaw/VT', f.vdaw_fraction, '', 3],
       ['VDalv/VT', f.vdalv_fraction, '', 3],
       ['VDphys/VT', f.vdphys_fraction, '', 3],
-      ['efficiency X/(X+Y+Z)', f.efficiency, '', 3],
     ];
     for (const [label, v, unit, d] of items) table.append(h('tr', {}, [h('th', { text: label }), h('td', { class: 'num', text: fixed(v, d) }), h('td', { class: 'unit', text: unit })]));
   }

@@ -11,9 +11,7 @@
 // the phase III fit (phase3-fit.ts) and the dead-space family (below).
 
 import { alveolarDeadSpaceMl } from '../physiology/alveolar-dead-space';
-import { alveolarDeadSpaceFractionArterial } from '../physiology/alveolar-dead-space-fraction';
 import { bohrDeadSpaceFraction } from '../physiology/bohr-dead-space-fraction';
-import { enghoffDeadSpaceFraction } from '../physiology/enghoff-dead-space-fraction';
 import { fowlerDeadSpace } from '../physiology/fowler-dead-space';
 import { meanAlveolarExpiredPco2 } from '../physiology/mean-alveolar-expired-pco2';
 import { mixedExpiredPco2 } from '../physiology/mixed-expired-pco2';
@@ -23,6 +21,7 @@ import { co2EliminationMlPerMin } from '../physiology/co2-elimination-rate';
 import { vtco2FromArea } from '../physiology/vtco2-from-area';
 import type { AnalysisSettings } from '../settings';
 import type { BreathRow } from '../types';
+import { setArterialColumns } from './arterial-columns';
 import {
   expirationSamples,
   integrateExpiration,
@@ -140,6 +139,10 @@ class BreathRowRecord implements BreathRow {
   vd_enghoff_ml_per_kg = NaN;
   vdvt_enghoff = NaN;
   vdalv_vtalv = NaN;
+  fletcher_x_mmhg_ml = NaN;
+  fletcher_y_mmhg_ml = NaN;
+  fletcher_z_mmhg_ml = NaN;
+  co2_efficiency = NaN;
   delay_s = NaN;
   delay_measured_s = NaN;
   flags: string[] = [];
@@ -346,11 +349,5 @@ function recordDeadSpaces(
   row.vdvt_bohr = bohr.fraction;
   row.vd_bohr_ml = bohr.volume_ml;
   if (Number.isFinite(fowler) && fowler > 0) row.vd_alv_bohr_ml = alveolarDeadSpaceMl(bohrAtSensor * vte, fowler);
-  if (settings.paco2_mmhg !== null) {
-    const enghoffAtSensor = enghoffDeadSpaceFraction(settings.paco2_mmhg, row.peco2_mmhg, inspired);
-    const enghoff = patientDeadSpace(enghoffAtSensor, vte, settings.apparatus_ml);
-    row.vdvt_enghoff = enghoff.fraction;
-    row.vd_enghoff_ml = enghoff.volume_ml;
-    row.vdalv_vtalv = alveolarDeadSpaceFractionArterial(settings.paco2_mmhg, row.paeco2_mmhg, inspired);
-  }
+  if (settings.paco2_mmhg !== null) setArterialColumns(row, settings.paco2_mmhg, inspired, settings.apparatus_ml);
 }

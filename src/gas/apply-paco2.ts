@@ -1,10 +1,8 @@
 // Per-breath Enghoff dead space and the arterial alveolar dead-space fraction from blood gases: each breath uses the arterial PCO2 of the most recent sample drawn
 // at or before the breath's start (none before the first sample; a sample drawn before the recording is not used). Same functions as the analysis with --paco2:
-// enghoffDeadSpaceFraction with the breath's inspired PCO2 when bohr_inspired_term is on, and patientDeadSpace to
-// remove the apparatus volume.
-import { alveolarDeadSpaceFractionArterial } from '../physiology/alveolar-dead-space-fraction';
-import { enghoffDeadSpaceFraction } from '../physiology/enghoff-dead-space-fraction';
-import { patientDeadSpace } from '../physiology/patient-dead-space';
+// setArterialColumns (Enghoff with the breath's inspired PCO2 when bohr_inspired_term is on, the apparatus volume
+// removed; the arterial alveolar dead-space fraction; Fletcher's areas).
+import { setArterialColumns } from '../analyse/arterial-columns';
 import type { BreathRow } from '../types';
 import { samplesInRecording } from './before-recording';
 import { GAS_DEFAULTS } from './gas-defaults';
@@ -24,9 +22,6 @@ export function applyArterialPco2(
     if (k < 0) continue;
     const paco2 = paco2Basis(sorted[k]!, paco2Temperature).used_mmhg;
     const inspired = inspiredTerm && Number.isFinite(r.fico2_mmhg) ? r.fico2_mmhg : 0;
-    const enghoff = patientDeadSpace(enghoffDeadSpaceFraction(paco2, r.peco2_mmhg, inspired), r.vt_exp_ml, apparatusMl);
-    r.vdvt_enghoff = enghoff.fraction;
-    r.vd_enghoff_ml = enghoff.volume_ml;
-    r.vdalv_vtalv = alveolarDeadSpaceFractionArterial(paco2, r.paeco2_mmhg, inspired);
+    setArterialColumns(r, paco2, inspired, apparatusMl);
   }
 }

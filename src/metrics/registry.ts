@@ -154,6 +154,10 @@ export const BREATH_METRICS = [
   n('vd_enghoff_ml_per_kg', 'Enghoff dead space per kg', 'mL/kg', 2, true, '`vd_enghoff_ml` per kg, same weight as `vt_exp_ml_per_kg` (needs `--paco2` or `--gas`)', ARDSNET),
   n('vdvt_enghoff', 'VD/VT Enghoff', '', 3, true, 'Enghoff: (PaCO2 − PĒCO2)/(PaCO2 − PICO2) × V_E minus `apparatus_ml`, over V_E (needs `--paco2` or `--gas`)', ENGHOFF),
   n('vdalv_vtalv', 'Alveolar VD/VT (arterial)', '', 3, true, 'alveolar dead-space fraction of the alveolar volume, (PaCO2 − PĀECO2)/(PaCO2 − PICO2), PĀECO2 = `paeco2_mmhg` (needs `--paco2` or `--gas`)', FLETCHER),
+  n('fletcher_x_mmhg_ml', 'Fletcher area X (CO2 eliminated)', 'mmHg·mL', 0, true, "Fletcher's area X: ∫P dV over the expiration = PĒCO2 × V_E, at the sensor (needs `--paco2` or `--gas`)", FLETCHER),
+  n('fletcher_y_mmhg_ml', 'Fletcher area Y (alveolar dead space)', 'mmHg·mL', 0, true, "Fletcher's area Y: PaCO2 × V_E − X − Z, the CO2 not eliminated because of alveolar dead space", FLETCHER),
+  n('fletcher_z_mmhg_ml', 'Fletcher area Z (airway dead space)', 'mmHg·mL', 0, true, "Fletcher's area Z: PaCO2 × airway dead space at the sensor (`vd_aw_ml` + `apparatus_ml`)", FLETCHER),
+  n('co2_efficiency', 'CO2 elimination efficiency', '', 3, true, 'X / (X + Y + Z) = PĒCO2 / PaCO2: the share of the CO2 a breath of arterial gas would carry that it eliminates', FLETCHER),
   n('delay_s', 'CO2 delay used', 's', 3, true, 'CO2 transport delay used for this breath', DERIVED),
   n('delay_measured_s', 'CO2 delay measured', 's', 3, false,
     "delay measured on this breath's own inspiratory CO2 downstroke (empty when none was found); trends use it to see a delay jump", DERIVED),
@@ -208,7 +212,7 @@ export const VIEWER_SUMMARY_ROWS: readonly SummaryKey[] = [
 export const VIEWER_BREATH_GROUPS: readonly (readonly [string, readonly NumericBreathKey[]])[] = [
   ['timing', ['t_start_s', 'rr_bpm', 'ti_s', 'te_s']],
   ['volumes', ['vt_insp_ml', 'vt_exp_ml', 'vt_exp_ml_per_kg']],
-  ['dead space', ['vd_aw_ml', 'vd_aw_ml_per_kg', 'vdaw_vt', 'vt_alv_ml', 'vd_inflection_ml', 'vd_alv_bohr_ml', 'vd_bohr_ml', 'vdvt_bohr', 'vd_enghoff_ml', 'vd_enghoff_ml_per_kg', 'vdvt_enghoff', 'vdalv_vtalv']],
+  ['dead space', ['vd_aw_ml', 'vd_aw_ml_per_kg', 'vdaw_vt', 'vt_alv_ml', 'vd_inflection_ml', 'vd_alv_bohr_ml', 'vd_bohr_ml', 'vdvt_bohr', 'vd_enghoff_ml', 'vd_enghoff_ml_per_kg', 'vdvt_enghoff', 'vdalv_vtalv', 'fletcher_x_mmhg_ml', 'fletcher_y_mmhg_ml', 'fletcher_z_mmhg_ml', 'co2_efficiency']],
   ['phases', ['v_phase2_start_ml', 'v_phase3_start_ml', 'slope2_mmhg_per_l', 'slope3_mmhg_per_l', 'slope3_norm_per_l', 'slope3_r2']],
   ['CO2', ['petco2_mmhg', 'peco2_mmhg', 'alv_co2_mmhg', 'paeco2_mmhg', 'fico2_mmhg', 'vtco2_ml', 'vco2_ml_min', 'vco2_ml_kg_min', 'veco2_ml', 'vico2_ml', 'delay_s']],
 ];

@@ -9,7 +9,7 @@ import { makeBreath } from './make-breath';
 
 describe('per-kg breath values', () => {
   it('divide by the weight: 500 mL / 70 kg = 7.1429 mL/kg, 150 / 70 = 2.1429, 210 mL/min / 70 = 3 mL/kg/min', () => {
-    const rows = [makeBreath({ vt_exp_ml: 500, vd_aw_ml: 150, vd_enghoff_ml: 175, vco2_ml_min: 210 })];
+    const rows = [makeBreath({ t_start_s: 0, vt_exp_ml: 500, vd_aw_ml: 150, vd_enghoff_ml: 175, vco2_ml_min: 210 })];
     applyWeight(rows, 70);
     expectClose(rows[0]!.vt_exp_ml_per_kg, 7.142857, { abs: 1e-6 });
     expectClose(rows[0]!.vd_aw_ml_per_kg, 2.142857, { abs: 1e-6 });
@@ -24,7 +24,7 @@ describe('per-kg breath values', () => {
   });
 
   it('no weight: empty values, and a missing value stays empty', () => {
-    const rows = [makeBreath({ vt_exp_ml: 500, vd_aw_ml: 150, vd_enghoff_ml: NaN })];
+    const rows = [makeBreath({ t_start_s: 0, vt_exp_ml: 500, vd_aw_ml: 150, vd_enghoff_ml: NaN })];
     applyWeight(rows, NaN);
     expect(rows[0]!.vt_exp_ml_per_kg).toBeNaN();
     applyWeight(rows, 10);
