@@ -16,6 +16,10 @@ import { fowlerDeadSpace } from '../physiology/fowler-dead-space';
 import { meanAlveolarExpiredPco2 } from '../physiology/mean-alveolar-expired-pco2';
 import { mixedExpiredPco2 } from '../physiology/mixed-expired-pco2';
 import { normalisedPhase3Slope } from '../physiology/normalised-phase3-slope';
+import { alveolarEjectionFraction } from '../physiology/alveolar-ejection-fraction';
+import { normalisedSlope } from '../physiology/normalised-slope';
+import { phase23AngleDeg } from '../physiology/phase23-angle';
+import { tidalVolumeNormalisedPhase3Slope } from '../physiology/tidal-volume-normalised-phase3-slope';
 import { alveolarTidalVolumeMl, patientDeadSpace, patientDeadSpaceMl } from '../physiology/patient-dead-space';
 import { co2EliminationMlPerMin } from '../physiology/co2-elimination-rate';
 import { vtco2FromArea } from '../physiology/vtco2-from-area';
@@ -119,6 +123,11 @@ class BreathRowRecord implements BreathRow {
   slope3_mmhg_per_l = NaN;
   slope3_norm_per_l = NaN;
   slope3_r2 = NaN;
+  slope3_norm_paeco2_per_l = NaN;
+  slope3_vt_norm = NaN;
+  slope2_norm_paeco2_per_l = NaN;
+  angle23_deg = NaN;
+  vae_vt = NaN;
   petco2_mmhg = NaN;
   peco2_mmhg = NaN;
   paeco2_mmhg = NaN;
@@ -281,7 +290,22 @@ export function decomposeBreath(s: BreathSignals, ctx: BreathContext): BreathDec
   const alveolarLineMmhg = base + fit.a + fit.b * (0.5 * (phase3Start + vte));
   const expiredAreaMmhgMl = expiration.co2_area_mmhg_ml;
   recordDeadSpaces(row, flags, settings, { fowlerMl, windowFromMl: window.from_ml, expiredAreaMmhgMl, alveolarLineMmhg });
+  recordPhaseShape(row);
   return { row, geometry, flags };
+}
+
+/**
+ * Phase-shape indices from the phase slopes, PĀECO2 and the phase III start (NaN where an input is NaN): slopes
+ * normalised by PĀECO2 (Tusman et al. 2013 J Clin Monit Comput), the phase III slope also by tidal volume (derived
+ * here), the II/III angle on axes of litres and PCO2 / PĀECO2 (axis convention derived here) and VAE/VT with the
+ * start of VAE taken as the phase III start (Romero et al. 1997 Eur Respir J; start criterion assumed).
+ */
+function recordPhaseShape(row: BreathRow): void {
+  row.slope3_norm_paeco2_per_l = normalisedSlope(row.slope3_mmhg_per_l, row.paeco2_mmhg);
+  row.slope2_norm_paeco2_per_l = normalisedSlope(row.slope2_mmhg_per_l, row.paeco2_mmhg);
+  row.slope3_vt_norm = tidalVolumeNormalisedPhase3Slope(row.slope3_mmhg_per_l, row.vt_exp_ml, row.paeco2_mmhg);
+  row.angle23_deg = phase23AngleDeg(row.slope2_norm_paeco2_per_l, row.slope3_norm_paeco2_per_l);
+  row.vae_vt = alveolarEjectionFraction(row.vt_exp_ml, row.v_phase3_start_ml);
 }
 
 /**

@@ -43,6 +43,12 @@ export const REFERENCES = {
   'Bohr 1891': 'Bohr C 1891. Über die Lungenathmung. Skand Arch Physiol 2:236-268',
   'Enghoff 1938': 'Enghoff H 1938. Volumen inefficax. Bemerkungen zur Frage des schädlichen Raumes. Upsala Läkareförenings Förhandlingar 44:191-218',
   'Tusman et al. 2012': 'Tusman G, Sipmann FS, Bohm SH 2012. Rationale of dead space measurement by volumetric capnography. Anesth Analg 114:866-874',
+  'Tusman et al. 2013':
+    'Tusman G, Gogniat E, Bohm SH, Scandurra A, Suarez-Sipmann F, Torroba A, Casella F, Giannasi S, San Roman E 2013. Reference values for volumetric capnography-derived non-invasive parameters in healthy individuals. J Clin Monit Comput 27:281-288',
+  'Romero et al. 1997':
+    'Romero PV, Lucangelo U, Lopez Aguilar J, Fernandez R, Blanch L 1997. Physiologically based indices of volumetric capnography in patients receiving mechanical ventilation. Eur Respir J 10:1309-1315',
+  'Jalušić Glunčić et al. 2015':
+    'Jalušić Glunčić T, Basara L, Konecki L, Tomić S, Samaržija M, Jakopović M 2015. Capnographic measurement as a screening method for respiratory obstructive diseases. Eur Respir J 46 suppl 59:PA1039 (congress abstract)',
   'Tusman et al. 2011':
     'Tusman G, Sipmann FS, Borges JB, Hedenstierna G, Bohm SH 2011. Validation of Bohr dead space measured by volumetric capnography. Intensive Care Med 37:870-874',
   'Hardman & Aitkenhead 2003':
@@ -64,6 +70,9 @@ const BOHR = 'Bohr 1891';
 const ENGHOFF = 'Enghoff 1938';
 const TUSMAN_2012 = 'Tusman et al. 2012';
 const TUSMAN_2011 = 'Tusman et al. 2011';
+const TUSMAN_2013 = 'Tusman et al. 2013';
+const ROMERO_1997 = 'Romero et al. 1997';
+const ALPHA_ANGLE = 'Jalušić Glunčić et al. 2015';
 const HARDMAN = 'Hardman & Aitkenhead 2003';
 const ARDSNET = 'ARDS Network 2000';
 const FENN = 'Fenn et al. 1946';
@@ -132,6 +141,15 @@ export const BREATH_METRICS = [
     'phase III slope: least-squares line over the middle half of phase III, low-flow samples left out, sensor lag modelled', TUSMAN_2012),
   n('slope3_norm_per_l', 'Phase III slope / PETCO2', '1/L', 3, true, 'phase III slope / PETCO2', NO_SOURCE),
   n('slope3_r2', 'Phase III fit R²', '', 4, false, 'R² of the phase III fit: 1 − residual sum of squares / variance of the readings in the fit window', NO_SOURCE),
+  n('slope3_norm_paeco2_per_l', 'Phase III slope / PĀECO2', '1/L', 3, true,
+    'normalised phase III slope, `slope3_mmhg_per_l` / `paeco2_mmhg` (the source reports a normalised phase III slope; its divisor could not be checked in the full text)', TUSMAN_2013),
+  n('slope3_vt_norm', 'Phase III slope × VT / PĀECO2', '', 3, false,
+    'phase III slope normalised by PĀECO2 and expired tidal volume: `slope3_mmhg_per_l` × `vt_exp_ml`/1000 / `paeco2_mmhg` (no published definition found)', DERIVED),
+  n('slope2_norm_paeco2_per_l', 'Phase II slope / PĀECO2', '1/L', 2, false, 'normalised phase II slope, `slope2_mmhg_per_l` / `paeco2_mmhg` (divisor as for `slope3_norm_paeco2_per_l`)', TUSMAN_2013),
+  n('angle23_deg', 'Phase II/III angle', '°', 1, true,
+    'angle between the phase II and phase III lines with volume in L and PCO2 as a fraction of PĀECO2: 180° − atan(`slope2_norm_paeco2_per_l`) + atan(`slope3_norm_paeco2_per_l`) (axis convention derived here)', ALPHA_ANGLE),
+  n('vae_vt', 'VAE/VT', '', 3, true,
+    'alveolar ejection volume over expired tidal volume, (`vt_exp_ml` − start of VAE) / `vt_exp_ml`; start of VAE ASSUMED = `v_phase3_start_ml` (the source\'s own criterion not verified here)', ROMERO_1997),
   n('petco2_mmhg', 'PETCO2', 'mmHg', 1, true, 'end-tidal PCO2 (default: the phase III line at end of expiration; see `petco2_method`)', NO_SOURCE),
   n('peco2_mmhg', 'PECO2 (mixed expired)', 'mmHg', 1, true, 'mixed expired PCO2 = ∫P dV / V_E over the whole expiration', FLETCHER),
   n('paeco2_mmhg', 'Mean alveolar expired PCO2', 'mmHg', 1, true, 'average alveolar expired PCO2 = (∫P dV − PICO2 × VDaw) / (V_E − VDaw), VDaw at the sensor; the inspired term follows `bohr_inspired_term`', FLETCHER),
@@ -198,7 +216,7 @@ export function blankBreathRow(): BreathRow {
 
 /** The terminal summary table (median, p25, p75, n over ok breaths; shown when n > 0). */
 export const TERMINAL_SUMMARY_ROWS: readonly SummaryKey[] = [
-  'rr_bpm', 'vt_exp_ml', 'vt_insp_ml', 'vd_aw_ml', 'vd_inflection_ml', 'slope3_mmhg_per_l', 'petco2_mmhg', 'peco2_mmhg',
+  'rr_bpm', 'vt_exp_ml', 'vt_insp_ml', 'vd_aw_ml', 'vd_inflection_ml', 'slope3_mmhg_per_l', 'slope3_norm_paeco2_per_l', 'petco2_mmhg', 'peco2_mmhg',
   'alv_co2_mmhg', 'vtco2_ml', 'vco2_ml_min', 'vco2_ml_kg_min', 'vdaw_vt', 'vd_aw_ml_per_kg', 'vdvt_bohr', 'vd_bohr_ml', 'vd_alv_bohr_ml', 'vdvt_enghoff', 'vd_enghoff_ml', 'vdalv_vtalv',
 ];
 
@@ -213,7 +231,10 @@ export const VIEWER_BREATH_GROUPS: readonly (readonly [string, readonly NumericB
   ['timing', ['t_start_s', 'rr_bpm', 'ti_s', 'te_s']],
   ['volumes', ['vt_insp_ml', 'vt_exp_ml', 'vt_exp_ml_per_kg']],
   ['dead space', ['vd_aw_ml', 'vd_aw_ml_per_kg', 'vdaw_vt', 'vt_alv_ml', 'vd_inflection_ml', 'vd_alv_bohr_ml', 'vd_bohr_ml', 'vdvt_bohr', 'vd_enghoff_ml', 'vd_enghoff_ml_per_kg', 'vdvt_enghoff', 'vdalv_vtalv', 'fletcher_x_mmhg_ml', 'fletcher_y_mmhg_ml', 'fletcher_z_mmhg_ml', 'co2_efficiency']],
-  ['phases', ['v_phase2_start_ml', 'v_phase3_start_ml', 'slope2_mmhg_per_l', 'slope3_mmhg_per_l', 'slope3_norm_per_l', 'slope3_r2']],
+  ['phases', [
+    'v_phase2_start_ml', 'v_phase3_start_ml', 'slope2_mmhg_per_l', 'slope3_mmhg_per_l', 'slope3_norm_per_l', 'slope3_r2',
+    'slope3_norm_paeco2_per_l', 'slope3_vt_norm', 'slope2_norm_paeco2_per_l', 'angle23_deg', 'vae_vt',
+  ]],
   ['CO2', ['petco2_mmhg', 'peco2_mmhg', 'alv_co2_mmhg', 'paeco2_mmhg', 'fico2_mmhg', 'vtco2_ml', 'vco2_ml_min', 'vco2_ml_kg_min', 'veco2_ml', 'vico2_ml', 'delay_s']],
 ];
 

@@ -12,6 +12,10 @@ export { vtco2FromArea } from './vtco2-from-area';
 export { mixedExpiredPco2 } from './mixed-expired-pco2';
 export { meanAlveolarExpiredPco2 } from './mean-alveolar-expired-pco2';
 export { normalisedPhase3Slope } from './normalised-phase3-slope';
+export { normalisedSlope } from './normalised-slope';
+export { tidalVolumeNormalisedPhase3Slope } from './tidal-volume-normalised-phase3-slope';
+export { phase23AngleDeg } from './phase23-angle';
+export { alveolarEjectionFraction } from './alveolar-ejection-fraction';
 
 // Dead-space family
 export { fowlerDeadSpace } from './fowler-dead-space';

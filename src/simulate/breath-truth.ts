@@ -21,7 +21,8 @@ export interface BreathConditions {
 /**
  * True values of one breath from its noise-free expired curve and gas exchange (definitions in truth.ts).
  * VTCO2 = 1.1588e-3 (integral P dV_exp - PI VTi) mL STPD (derived here, docs/methods.md); PECO2 = integral / V_E;
- * PAECO2 = integral / (V_E - VDaw); Bohr and Enghoff with the inspired term (Bohr 1891, Enghoff 1938).
+ * PAECO2 = integral / (V_E - VDaw); normalised phase III slopes = true slope / PAECO2 (and x V_E / 1000); Bohr and
+ * Enghoff with the inspired term (Bohr 1891, Enghoff 1938).
  */
 export function breathTruth(
   timing: BreathTiming,
@@ -44,6 +45,7 @@ export function breathTruth(
   const vico2 = STPD_ML_PER_MMHG_ML * pi * vtInspMl;
   const fowlerRaw = fowlerEqualArea(area, curve.a_mmhg, curve.b_mmhg_per_ml, ve);
   const fowlerNet = fowlerEqualArea(area - pi * ve, curve.a_mmhg - pi, curve.b_mmhg_per_ml, ve);
+  const paeco2 = area / (ve - vd);
   return {
     ...timing,
     rr_bpm: 60 / (timing.t_end_s - timing.t_start_s),
@@ -63,9 +65,11 @@ export function breathTruth(
     pa_perfused_mmhg: gas.pa_perfused_mmhg,
     petco2_mmhg: curvePco2(curve, ve),
     peco2_mmhg: peco2,
-    paeco2_mmhg: area / (ve - vd),
+    paeco2_mmhg: paeco2,
     alv_co2_mmhg: alv,
     slope3_mmhg_per_l: cond.slope3_mmhg_per_l,
+    slope3_norm_paeco2_per_l: cond.slope3_mmhg_per_l / paeco2,
+    slope3_vt_norm: (cond.slope3_mmhg_per_l * (ve / 1000)) / paeco2,
     vtco2_ml: veco2 - vico2,
     veco2_ml: veco2,
     vico2_ml: vico2,

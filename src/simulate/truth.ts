@@ -47,6 +47,10 @@ export interface TruthBreath {
   /** true phase III line at the midpoint of [VDaw + 3 sigma, V_E] */
   alv_co2_mmhg: number;
   slope3_mmhg_per_l: number;
+  /** true phase III slope / paeco2_mmhg, 1/L (the definition of breaths.csv `slope3_norm_paeco2_per_l`) */
+  slope3_norm_paeco2_per_l: number;
+  /** true phase III slope x vt_exp_ml / 1000 / paeco2_mmhg (the definition of breaths.csv `slope3_vt_norm`) */
+  slope3_vt_norm: number;
   /** net CO2 volume: veco2 - vico2, mL STPD */
   vtco2_ml: number;
   veco2_ml: number;

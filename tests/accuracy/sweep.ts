@@ -81,7 +81,10 @@ export function sweepCombos(count: number, seed = 2026): Combo[] {
   return combos;
 }
 
-const METRICS: [string, keyof BreathRow, string][] = [
+/** A compared metric: its name in the result, the breaths.csv column, the truth field. */
+export type SweepMetric = [string, keyof BreathRow, string];
+
+const METRICS: SweepMetric[] = [
   ['vd_aw_ml', 'vd_aw_ml', 'vd_aw_ml'],
   ['petco2_mmhg', 'petco2_mmhg', 'petco2_mmhg'],
   ['peco2_mmhg', 'peco2_mmhg', 'peco2_mmhg'],
@@ -90,8 +93,8 @@ const METRICS: [string, keyof BreathRow, string][] = [
   ['vtco2_ml', 'vtco2_ml', 'vtco2_ml'],
 ];
 
-/** Runs one combination: simulate, analyse with the true median PaCO2, compare medians. */
-export function runCombo(combo: Combo): ComboResult {
+/** Runs one combination: simulate, analyse with the true median PaCO2, compare medians (of `metrics`). */
+export function runCombo(combo: Combo, metrics: readonly SweepMetric[] = METRICS): ComboResult {
   const params = scenarioParams(combo.base, combo.overrides);
   const truthBreaths: Record<string, number>[] = [];
   // the true PaCO2 is known only after simulation; analyse twice is wasteful, so collect blocks first (2 min)
@@ -110,7 +113,7 @@ export function runCombo(combo: Combo): ComboResult {
   const used = core.breaths.filter((b) => usableForSummary(b));
   const measured: Record<string, number> = {};
   const truth: Record<string, number> = {};
-  for (const [key, col, truthKey] of METRICS) {
+  for (const [key, col, truthKey] of metrics) {
     measured[key] = quantile(used.map((b) => b[col] as number), 0.5);
     truth[key] = quantile(truthBreaths.map((b) => b[truthKey]!), 0.5);
   }

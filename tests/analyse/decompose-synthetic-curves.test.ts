@@ -64,6 +64,15 @@ describe('decomposeBreath on analytic curve B (sloped plateau, PaCO2 40)', () =>
   it('Bohr VD/VT at the midpoint of phase III = 0.3040 (our phase III starts at the 95 % level, 195 mL, not 200)', () => {
     expectClose(d.row.vdvt_bohr, 0.304, { abs: 1e-3 });
   });
+  // phase-shape indices, worked by hand in tests/derived/phase-shape-indices.test.ts (PĀECO2 37.248, SII 360 mmHg/L)
+  it('SnIII / PĀECO2 = 10 / 37.248 = 0.2685 /L; SnII = 360 / 37.248 = 9.665 /L; SIII x VT / PĀECO2 = 10 x 0.49975 / 37.248 = 0.1342', () => {
+    expectClose(d.row.slope3_norm_paeco2_per_l, 0.26847, { abs: 2e-4 });
+    expectClose(d.row.slope2_norm_paeco2_per_l, 9.6649, { abs: 5e-3 });
+    expectClose(d.row.slope3_vt_norm, 0.13417, { abs: 1e-4 });
+  });
+  it('II/III angle = 180 - atan(9.6649) + atan(0.26847) = 110.935°', () => expectClose(d.row.angle23_deg, 110.935, { abs: 0.01 }));
+  it('VAE/VT = (499.75 - 194.86) / 499.75 = 0.6101 (VAE from the 95 % level on the phase II ramp; start on the sample grid, within 1 mL)', () =>
+    expectClose(d.row.vae_vt, 0.6101, { abs: 2e-3 }));
 });
 
 describe('decomposeBreath on analytic curve C (smooth symmetric front)', () => {

@@ -30,10 +30,13 @@ const KEY_ENDING: Record<string, RegExp> = {
   'mL/min': /_ml_min$/,
   'L/min': /_l_min$/,
   'mL/kg': /_ml_per_kg$/,
+  'mL/kg/min': /_ml_kg_min$/,
+  'mmHg·mL': /_mmhg_ml$/,
   '°C': /_c$/,
+  '°': /_deg$/,
   'g/dL': /_g_dl$/,
 };
-const UNIT_ENDINGS = /_(s|ml|mmhg|per_l|bpm|ml_min|l_min|ml_per_kg|c|pct|g_dl)$/;
+const UNIT_ENDINGS = /_(s|ml|mmhg|per_l|bpm|ml_min|l_min|ml_per_kg|ml_kg_min|mmhg_ml|c|pct|g_dl|deg)$/;
 
 describe('metric registry', () => {
   it('lists every field of the breath rows the analysis produces (flags aside)', () => {
