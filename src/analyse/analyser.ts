@@ -350,7 +350,8 @@ const LOW_RATE_HZ = 50;
 const GIVEN_DELAY_TOLERANCE_S = 0.01;
 
 /**
- * Recording-level cautions: a flow sampling rate below 50 Hz, a delay the breaths do not agree on, and a given delay that the CO2
+ * Recording-level cautions: a flow sampling rate below 50 Hz, valve edges within one sample (the delay is then known
+ * to about half an interval only), a delay the breaths do not agree on, and a given delay that the CO2
  * downstrokes contradict (beyond max(3 standard errors, 2 samples, 10 ms) of the delay they show).
  */
 function calibrationCautions(c: Calibration, dt: number): { code: string; message: string }[] {
@@ -363,6 +364,17 @@ function calibrationCautions(c: Calibration, dt: number): { code: string; messag
         `flow is sampled at ${rate.toFixed(rate < 10 ? 1 : 0)} Hz: below ${LOW_RATE_HZ} Hz the CO2 front passes the sensor within one or two samples; on ` +
         'simulated recordings exported at 25 Hz airway dead space was off by up to 6 % (fast expirations, sidestream sensors) and a fast ' +
         'infant pattern gave no usable breaths (docs/accuracy.md); record at 100 Hz or faster',
+    });
+  }
+  if (c.delay_origin !== 'given' && c.edge_samples <= 1) {
+    const half = (500 * dt).toFixed(0);
+    out.push({
+      code: 'valve_edge_unresolved',
+      message:
+        `the inspiratory flow edges pass within one sample interval (${(1000 * dt).toFixed(0)} ms): the samples hold their area but not ` +
+        `where they start, so the CO2 delay is known only to about ± ${half} ms and airway dead space to about ± (expiratory flow at ` +
+        `phase II × ${half} ms), e.g. ± ${(1.5 * 500 * dt).toFixed(0)} mL at 1.5 L/s; on simulated 50 Hz exports of fast pressure-controlled ` +
+        'breathing it read 6 % low (docs/accuracy.md); record at 100 Hz or faster, or give --delay if it is known',
     });
   }
   if (!c.delay_trusted) {

@@ -7,7 +7,7 @@ import type { SettingOrigin } from '../types';
 import { fitInspiratoryFall, type FallFit } from './fall-fit';
 import { mad, median, medianStep, quantile } from '../numeric/stats';
 import { createSegmenter, type BreathBounds } from './segment';
-import { inspirationReversalTime, rippleRestSpan } from './flow-reversal';
+import { edgeSampleCount, inspirationReversalTime, rippleRestSpan } from './flow-reversal';
 import { restsOscillate, type RestSpan } from './ripple-baseline';
 import { robustDelay } from './robust-delay';
 
@@ -46,6 +46,8 @@ export interface Calibration {
   /** its standard error, s, and whether its cluster holds most breaths */
   delay_data_uncertainty_s: number;
   delay_data_trusted: boolean;
+  /** median number of samples on the inspiratory valve edges of the calibration breaths (edgeSampleCount; NaN: none) */
+  edge_samples: number;
   fall_fits: number;
   /** whether the end-expiratory rests carry cardiogenic flow oscillation; then each inspiration's onset is the kink
    *  where its own rise leaves the oscillation (flow-reversal.ts) */
@@ -422,7 +424,7 @@ function estimateTiming(
   notes: string[],
 ): Pick<
   Calibration,
-  'delay_s' | 'delay_origin' | 'response_ms' | 'response_origin' | 'response_uncertainty_ms' | 'delay_iqr_s' | 'delay_uncertainty_s' | 'delay_agreement' | 'delay_trusted' | 'fall_fits' | 'ripple' | 'delay_data_s' | 'delay_data_uncertainty_s' | 'delay_data_trusted'
+  'delay_s' | 'delay_origin' | 'response_ms' | 'response_origin' | 'response_uncertainty_ms' | 'delay_iqr_s' | 'delay_uncertainty_s' | 'delay_agreement' | 'delay_trusted' | 'fall_fits' | 'ripple' | 'delay_data_s' | 'delay_data_uncertainty_s' | 'delay_data_trusted' | 'edge_samples'
 > {
   const a = settings.analysis;
   const delayGiven = a.delay_s !== null;
@@ -430,6 +432,7 @@ function estimateTiming(
   const ripple = recordingHasRipple(t, flow, bounds);
   const fits = fallFits(t, flow, co2, bounds, delayGiven ? a.delay_s! : grid.coarseLag, ripple);
   const delaySamples = fits.map((f) => f.delay);
+  const edges = fits.map((f) => f.edge).filter(Number.isFinite);
   const taus = fits.map((f) => f.fit.tau_s);
   const responseGiven = a.response_ms !== null;
   const tau = responseGiven ? a.response_ms! / 1000 : taus.length ? Math.max(0, median(taus)) : 0;
@@ -466,6 +469,7 @@ function estimateTiming(
     delay_data_s: fits.length ? est.delay_s : NaN,
     delay_data_uncertainty_s: est.uncertainty_s,
     delay_data_trusted: fits.length > 0 && est.trusted,
+    edge_samples: edges.length ? median(edges) : NaN,
   };
 }
 
@@ -535,13 +539,15 @@ function lastBefore(t: Float64Array, i: number, x: number): number {
 }
 
 /** The inspiratory CO2 fall of each breath, searched from `lag` - 0.35 s after its inspiration onset. */
-function fallFits(t: Float64Array, flow: Float64Array, co2: Float64Array, bounds: BreathBounds[], lag: number, ripple: boolean): { delay: number; fit: FallFit }[] {
-  const fits: { delay: number; fit: FallFit }[] = [];
+function fallFits(
+  t: Float64Array, flow: Float64Array, co2: Float64Array, bounds: BreathBounds[], lag: number, ripple: boolean,
+): { delay: number; fit: FallFit; edge: number }[] {
+  const fits: { delay: number; fit: FallFit; edge: number }[] = [];
   for (const b of bounds) {
     const tr = inspirationReversalTime(t, flow, b.t_end_s, ripple);
     const lo = tr + lag - 0.35;
     const fit = fitInspiratoryFall(t, co2, Math.max(tr - 0.05, lo), lo + 1.0);
-    if (fit) fits.push({ delay: fit.t0_s - tr, fit });
+    if (fit) fits.push({ delay: fit.t0_s - tr, fit, edge: edgeSampleCount(t, flow, b.t_end_s) });
   }
   return fits;
 }

@@ -47,6 +47,28 @@ export function inspirationReversalTime(t: ArrayLike<number>, flow: ArrayLike<nu
   return rise <= FAST_EDGE_S ? risingEdgeOnset(t, flow, lowerBound(t, crossS - 2 * step), peak, crossS) : crossS;
 }
 
+/** Fractions of the inspiratory peak between which the samples of a valve edge are counted (edgeSampleCount). */
+const EDGE_LOW = 0.02;
+const EDGE_HIGH = 0.9;
+
+/**
+ * How many samples fall on an inspiration's rising edge: those with |flow| strictly between 2 % and 90 % of the
+ * peak, from two samples before the segmenter's crossing to the first sample at or beyond 90 % (NaN without a clear
+ * inspiratory peak). With at most one such sample the edge passed within one sample interval: the samples then carry
+ * only its area, not where it started, so the start (and with it the CO2 delay) is known to about ± half an interval
+ * (docs/accuracy.md, "Accuracy by sampling rate"; derived here).
+ */
+export function edgeSampleCount(t: ArrayLike<number>, flow: ArrayLike<number>, crossS: number, searchS = 0.7): number {
+  const start = Math.max(0, lowerBound(t, crossS) - 2);
+  const stop = Math.min(t.length - 1, lowerBound(t, crossS + searchS));
+  let peak = 0;
+  for (let i = start; i <= stop; i++) if (flow[i]! < peak) peak = flow[i]!;
+  if (!(peak < 0)) return NaN;
+  let count = 0;
+  for (let i = start; i <= stop && flow[i]! > EDGE_HIGH * peak; i++) if (flow[i]! < EDGE_LOW * peak) count++;
+  return count;
+}
+
 /** The inspiratory rise between 15 % and 40 % of its peak, extrapolated back to zero flow. */
 interface RiseLine {
   /** most negative flow in the search window, L/s */

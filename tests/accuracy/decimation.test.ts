@@ -29,5 +29,16 @@ describe('sampling-rate sweep: device-style exports at 200, 100 and 50 Hz', () =
       if (KNOWN_SHORTFALLS.has(key)) it.fails(`${pattern.name} at ${rate} Hz (known shortfall)`, body);
       else it(`${pattern.name} at ${rate} Hz is within the limits`, body);
     }
+    // where the limits are missed because the valve edge falls within one sample, the recording says so; at 200 Hz
+    // every edge here spans several samples and no recording carries the caution (at 100 Hz the infant's 15 ms edge
+    // may fall within one 10 ms interval: then the caution is right, the delay is known to ± 5 ms only)
+    it(`${pattern.name}: valve_edge_unresolved where the edge falls within one sample, and only there`, () => {
+      const { results } = run();
+      for (const r of results) {
+        const shortfall = KNOWN_SHORTFALLS.has(`${index}:${r.rate_hz}`);
+        if (shortfall) expect(r.cautions, `${r.rate_hz} Hz`).toContain('valve_edge_unresolved');
+        if (r.rate_hz >= 200) expect(r.cautions, `${r.rate_hz} Hz`).not.toContain('valve_edge_unresolved');
+      }
+    });
   });
 });

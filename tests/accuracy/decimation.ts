@@ -118,6 +118,8 @@ export interface RateResult {
   delay_s: number;
   medians: Record<string, number>;
   rows: BreathRow[];
+  /** codes of the recording-level cautions */
+  cautions: string[];
 }
 
 
@@ -135,7 +137,10 @@ export function analyseBlock(block: SampleBlock, paco2: number, rateHz: number, 
   const used = core.breaths.filter((b) => usableForSummary(b));
   const medians: Record<string, number> = {};
   for (const k of METRICS) medians[k] = used.length ? quantile(used.map((b) => b[k] as number), 0.5) : NaN;
-  return { rate_hz: rateHz, rounding, breaths: core.breaths.length, used: used.length, delay_s: core.calibration.delay_s, medians, rows: core.breaths };
+  return {
+    rate_hz: rateHz, rounding, breaths: core.breaths.length, used: used.length, delay_s: core.calibration.delay_s, medians, rows: core.breaths,
+    cautions: (core.recording_cautions ?? []).map((c) => c.code),
+  };
 }
 
 /** Runs one pattern at every rate. */
