@@ -1,10 +1,13 @@
 // `npm run bench`: speed and memory of the analysis and of batch mode on simulated recordings.
 // Generates into a temporary folder: a 24-hour and a 6-hour 100 Hz recording (adult-stable-long), 20 recordings of
-// 10 minutes and 20 of 60 minutes (the built-in scenarios in turn, seeds 1-20), then measures in child processes:
+// 10 minutes and 20 of 60 minutes (the built-in scenarios in turn, seeds 1-20), 200 recordings of 5 minutes (the
+// scenarios in turn, seeds 1-200), then measures in child processes:
 //   1. `phasewise analyse` of the 24-hour file: wall time (process start included), rows/s, MB/s, peak RSS;
 //   2. a plain papaparse parse of the same file (read stream, step + dynamicTyping), the baseline of the ratio;
 //   3. peak RSS of `analyse` on the 6-hour file (memory must not grow with length);
-//   4. `phasewise batch` of each set of 20 files with --jobs 1 and --jobs 2 (wall time, CPU time and ratio).
+//   4. `phasewise batch` of each set of 20 files with --jobs 1 and --jobs 2 (wall time, CPU time and ratio);
+//   5. `phasewise batch` of the 200 short files with --jobs 1 and --jobs 2: throughput per byte against the 24-hour
+//      analysis (many short recordings pay each recording's start and calibration), peak RSS.
 // Peak RSS is process.resourceUsage().maxRSS of the child, written at exit by a preloaded hook.
 // Each measurement runs three times (--repeat N to change) and the shorter wall time is shown (best of N), because other
 // processes on the machine only ever slow a run down; peak RSS is the largest of the runs. The two sides of each
@@ -131,19 +134,23 @@ async function main(): Promise<void> {
     const mid = join(dir, 'adult-6h.csv');
     const midBytes = generate(mid, 'adult-stable-long', 360, 1);
     const scenarios = listScenarios().map((s) => s.name);
-    const makeSet = (name: string, minutes: number): { dir: string; bytes: number } => {
+    const makeSet = (name: string, minutes: number, count = 20): { dir: string; bytes: number } => {
       const d = join(dir, name);
       mkdirSync(d);
       let bytes = 0;
-      for (let k = 0; k < 20; k++) {
+      for (let k = 0; k < count; k++) {
         const sc = scenarios[k % scenarios.length]!;
-        bytes += generate(join(d, `${String(k + 1).padStart(2, '0')}-${sc}.csv`), sc, minutes, k + 1);
+        bytes += generate(join(d, `${String(k + 1).padStart(3, '0')}-${sc}.csv`), sc, minutes, k + 1);
       }
       return { dir: d, bytes };
     };
     const set10 = makeSet('set10', 10);
     const set60 = makeSet('set60', 60);
-    log(`generated in ${f1((Date.now() - t) / 1000)} s: 24 h file ${f1(bigBytes / 1e6)} MB, 6 h file ${f1(midBytes / 1e6)} MB, 20 x 10 min ${f1(set10.bytes / 1e6)} MB, 20 x 60 min ${f1(set60.bytes / 1e6)} MB`);
+    const set5 = makeSet('set5', 5, 200);
+    log(
+      `generated in ${f1((Date.now() - t) / 1000)} s: 24 h file ${f1(bigBytes / 1e6)} MB, 6 h file ${f1(midBytes / 1e6)} MB, ` +
+        `20 x 10 min ${f1(set10.bytes / 1e6)} MB, 20 x 60 min ${f1(set60.bytes / 1e6)} MB, 200 x 5 min ${f1(set5.bytes / 1e6)} MB`,
+    );
 
     const out = join(dir, 'out');
     const skipPapa = args.includes('--skip-papa');
@@ -203,6 +210,21 @@ async function main(): Promise<void> {
       const cores = availableParallelism();
       log(`  floor on ${cores} cores: (jobs 1 CPU / ${cores}) / jobs 1 wall = ${f2(b1.cpu_s / cores / b1.wall_s)} (a --jobs 2 run doing the same CPU work cannot go below this ratio here)`);
       log(`  tables identical between --jobs 1 and --jobs 2: ${same ? 'yes' : 'NO'}`);
+    }
+    // many short recordings: throughput per byte against the single 24 h file (each recording pays its process share,
+    // its reading set-up and its calibration window)
+    const [s1, s2] = measurePair(
+      dir,
+      [CLI, 'batch', set5.dir, '--out', join(out, 's5-1'), '--jobs', '1', '--quiet'],
+      [CLI, 'batch', set5.dir, '--out', join(out, 's5-2'), '--jobs', '2', '--quiet'],
+    );
+    for (const [r, j] of [[s1, 1], [s2, 2]] as const) if (r.status !== 0 && r.status !== 4) must(r, `batch of 200 short files --jobs ${j}`);
+    const shortMbps = (r: Run) => set5.bytes / 1e6 / r.wall_s;
+    log('');
+    log(`batch of 200 x 5 min (${f1(set5.bytes / 1e6)} MB), process start included, against the 24 h analyse (${f1(mbps)} MB/s):`);
+    for (const [r, j] of [[s1, 1], [s2, 2]] as const) {
+      const ratio = shortMbps(r) / mbps;
+      log(`  --jobs ${j}  ${f2(r.wall_s)} s wall, ${f2(r.cpu_s)} s CPU, ${f1(shortMbps(r))} MB/s, peak RSS ${f1(r.max_rss_mb)} MB   per-byte ratio to the 24 h file ${f2(ratio)}   target >= 0.5: ${mark(ratio >= 0.5)}, peak RSS < 300 MB: ${mark(r.max_rss_mb < 300)}`);
     }
     log(`load average at the end ${load()} (other processes on the machine distort every figure above)`);
   } finally {

@@ -158,16 +158,23 @@ function fitDecay(t: ArrayLike<number>, flow: ArrayLike<number>, from: number, t
   return { level: best.level, tailEnd: best.tailEnd, rms: Math.sqrt(best.sse / (to - from)) };
 }
 
+/** exp(-(t - t_from)/tau) of the current span, kept between the two passes of decayFitAt. Speed: one exponential per
+ *  sample instead of two took `batch --jobs 1` of 40 five-minute recordings from 3.37-3.53 s CPU to 2.79-3.00 s (3 runs each, user + system). */
+let decayScratch = new Float64Array(1024);
+
 /** Linear least squares of flow on [1, exp(-(t - t_from)/tau)] for one tau. */
 function decayFitAt(t: ArrayLike<number>, flow: ArrayLike<number>, from: number, to: number, tau: number): { level: number; tailEnd: number; sse: number } | null {
   const m = to - from;
   const t0 = t[from]!;
+  if (decayScratch.length < m) decayScratch = new Float64Array(2 * m);
+  const us = decayScratch;
   let su = 0;
   let suu = 0;
   let sy = 0;
   let suy = 0;
   for (let i = from; i < to; i++) {
     const u = detExp(-(t[i]! - t0) / tau);
+    us[i - from] = u;
     const y = flow[i]!;
     su += u;
     suu += u * u;
@@ -179,8 +186,8 @@ function decayFitAt(t: ArrayLike<number>, flow: ArrayLike<number>, from: number,
   const amp = (m * suy - su * sy) / det;
   const level = (sy - amp * su) / m;
   let sse = 0;
-  for (let i = from; i < to; i++) sse += (flow[i]! - level - amp * detExp(-(t[i]! - t0) / tau)) ** 2;
-  return { level, tailEnd: amp * detExp(-(t[to - 1]! - t0) / tau), sse };
+  for (let i = from; i < to; i++) sse += (flow[i]! - level - amp * us[i - from]!) ** 2;
+  return { level, tailEnd: amp * us[m - 1]!, sse };
 }
 
 function absValues(a: ArrayLike<number>): Float64Array {
