@@ -6,7 +6,7 @@ import { BASE_PARAMS, listScenarios, scenarioParams, writeRecordingCsv, type Sim
 
 class UsageError extends Error {}
 
-const LIST_KEYS = new Set<keyof SimParams>(['events', 'gaps', 'extra_columns']);
+const LIST_KEYS = new Set<keyof SimParams>(['events', 'gaps', 'extra_columns', 'compartments']);
 
 /** Parse one `key=value` override, typed after the parameter's default. */
 export function parseOverride(text: string): [keyof SimParams, unknown] {
