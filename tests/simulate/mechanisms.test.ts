@@ -140,6 +140,25 @@ describe('compartment model: the phase III slope is a result (derived here: sequ
   });
 });
 
+describe('compartment model: where the unperfused units empty (derived here)', () => {
+  it('in parallel Bohr VD/VT does not see them; emptying late (series) or early it sees part; Enghoff sees all in every case', () => {
+    const at = (tauPerf: number, tauDead: number) =>
+      truthOf(mech([{ vent_share: 0.8, perf_share: 1, tau_s: tauPerf }, { vent_share: 0.2, perf_share: 0, tau_s: tauDead }], { shunt_fraction: 0 }));
+    const none = truthOf(mech(ONE, { shunt_fraction: 0 }));
+    const parallel = at(0.5, 0.5);
+    const late = at(0.4, 1.6);
+    const early = at(1.0, 0.2);
+    expectClose(parallel.vdvt_bohr!, none.vdvt_bohr!, { abs: 1e-6 });
+    expectClose(parallel.slope3_mmhg_per_l!, 0, { abs: 1e-6 });
+    expect(late.slope3_mmhg_per_l!).toBeLessThan(-10);
+    expect(early.slope3_mmhg_per_l!).toBeGreaterThan(10);
+    for (const t of [late, early]) expect(t.vdvt_bohr! - none.vdvt_bohr!).toBeGreaterThan(0.02);
+    for (const t of [parallel, late, early]) expectClose(t.vdvt_enghoff!, parallel.vdvt_enghoff!, { abs: 0.003 });
+    // Enghoff: airway 150 mL of 500 plus 20 % of the alveolar 350 mL = (150 + 70) / 500 = 0.44
+    expectClose(parallel.vdvt_enghoff!, 0.44, { abs: 0.003 });
+  });
+});
+
 describe('sidestream sample flow drawn before the flow sensor', () => {
   it('the flow sensor reads patient flow minus Qs: over whole breaths the mean flow is -Qs, and the truth names the volume missed', () => {
     const p = scenarioParams('infant-sidestream-sample-flow', { minutes: 1, co2_noise_mmhg: 0, flow_noise_lps: 0 });
