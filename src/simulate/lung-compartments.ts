@@ -153,3 +153,18 @@ export function compartmentBreathGas(
   };
   return { gas, comp, next: { pv_mmhg: pvNext, va_smooth_l_min: vaSmooth } };
 }
+
+/**
+ * The compartments with an embolism: compartment `which` (1-based; 0 = none) loses the share `blocked` of its blood
+ * flow, and the other perfused compartments take it in proportion to their shares (the total stays Q (1 - s))
+ * [derived here]. Returns the same list when nothing is blocked.
+ */
+export function embolisedCompartments(comps: readonly LungCompartment[], which: number, blocked: number): readonly LungCompartment[] {
+  if (which < 1 || !(blocked > 0)) return comps;
+  const target = comps[which - 1]!;
+  const lost = target.perf_share * blocked;
+  const others = 1 - target.perf_share;
+  return comps.map((c, i) =>
+    i === which - 1 ? { ...c, perf_share: c.perf_share - lost } : { ...c, perf_share: c.perf_share + (lost * c.perf_share) / others },
+  );
+}

@@ -38,7 +38,8 @@ export type EventParam =
   | 'pi_co2_mmhg'
   | 'slope3_mmhg_per_l'
   | 'leak_fraction'
-  | 'co2_clip_mmhg';
+  | 'co2_clip_mmhg'
+  | 'embolism_fraction';
 
 /** What an event means, as recorded in the truth (the trend/event issue classifies by these). */
 export type EventKind = 'perfusion' | 'dead_space' | 'ventilation' | 'shunt' | 'metabolic' | 'rebreathing' | 'slope' | 'sensor';
@@ -54,6 +55,7 @@ export const EVENT_KIND_OF: Readonly<Record<EventParam, EventKind>> = {
   slope3_mmhg_per_l: 'slope',
   leak_fraction: 'sensor',
   co2_clip_mmhg: 'sensor',
+  embolism_fraction: 'dead_space',
 };
 
 /** A change of one parameter starting at t_s (recording time): a step (ramp_s = 0) or a linear ramp. */
@@ -115,6 +117,11 @@ export interface SimParams {
   lung_model: LungModel;
   /** compartments of the 'compartments' model (ignored by 'single'; must be empty there) */
   compartments: LungCompartment[];
+  /** 'compartments' model: the compartment (1-based) whose blood flow an embolism blocks; 0 = none */
+  embolism_compartment: number;
+  /** share of that compartment's blood flow blocked (0-1; events may ramp it); the blood goes to the other perfused
+   *  compartments in proportion to their shares */
+  embolism_fraction: number;
   /** zone-1 rule of the 'compartments' model: vertical height of the lung, cm (0 = no zone 1) */
   zone1_lung_height_cm: number;
   /** height of the pulmonary artery above the lowest point of the lung, cm */
@@ -223,6 +230,8 @@ export const BASE_PARAMS: Readonly<SimParams> = {
   alv_mixing_tau_s: 30,
   lung_model: 'single',
   compartments: [],
+  embolism_compartment: 0,
+  embolism_fraction: 0,
   zone1_lung_height_cm: 0,
   zone1_pa_level_cm: 8,
   zone1_pla_mmhg: 8,

@@ -85,14 +85,16 @@ const MECHANISM_SCENARIOS: Readonly<Record<string, Scenario>> = {
   },
   'adult-mech-embolism': {
     description:
-      'Compartment lung model, adult with an embolised region: 30 % of the ventilation goes to a region with no blood flow, emptying in parallel with the rest (rate raised to 18/min); Bohr VD/VT does not see it, the gradient does',
+      'Compartment lung model, adult, 6 min: at 2 min an embolus blocks the blood flow of a region that keeps 30 % of the ventilation (10 s ramp); it empties in parallel with the rest, so Bohr VD/VT does not see it, PETCO2 and the gradient do',
     params: {
-      ...MECH, rr_bpm: 18,
+      ...MECH, minutes: 6,
       compartments: [
-        { vent_share: 0.4, perf_share: 0.6, tau_s: 0.5 },
-        { vent_share: 0.3, perf_share: 0.4, tau_s: 0.8 },
-        { vent_share: 0.3, perf_share: 0, tau_s: 0.6 },
+        { vent_share: 0.4, perf_share: 0.42, tau_s: 0.5 },
+        { vent_share: 0.3, perf_share: 0.28, tau_s: 0.8 },
+        { vent_share: 0.3, perf_share: 0.3, tau_s: 0.6 },
       ],
+      embolism_compartment: 3,
+      events: [{ t_s: 120, param: 'embolism_fraction', to: 1, ramp_s: 10, description: 'embolus blocks the blood flow of region 3' }],
     },
   },
   'infant-sidestream-sample-flow': {

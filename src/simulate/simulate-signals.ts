@@ -5,7 +5,7 @@ import { createCo2Sensor, type Co2Sensor } from './co2-sensor';
 import { paramAt, sortedEvents } from './events';
 import { curvePco2, makeExpiredCurve, makeProfileCurve, type ExpiredCurve } from './expired-curve';
 import { breathGasExchange, steadyCo2State, type BreathGas, type Co2BodyState, type GasInputs } from './gas-exchange';
-import { compartmentBreathGas, steadyCompartmentState, type CompartmentGas } from './lung-compartments';
+import { compartmentBreathGas, embolisedCompartments, steadyCompartmentState, type CompartmentGas } from './lung-compartments';
 import type { SimEvent, SimParams } from './params';
 import { createRng, streamSeed, type Rng } from './prng';
 import { sequentialEmptyingProfile } from './sequential-emptying';
@@ -177,7 +177,7 @@ function simulateBreath(run: SimRun, breathStart: number, state: Co2BodyState): 
       edgeS: p.flow_edge_ms / 1000, leak, fsHz: run.fsHz, sampleLps: p.sample_flow_ml_min / 60000 },
     breathRng,
   );
-  if (p.lung_model === 'compartments') return { t0, g, slope3, clip, ...compartmentBreath(run, state, g, vt) };
+  if (p.lung_model === 'compartments') return { t0, g, slope3, clip, ...compartmentBreath(run, state, g, vt, t0) };
   const { gas, next } = breathGasExchange(state, g, vt, wave.n * run.dt);
   const curve = makeExpiredCurve(g.pi_co2_mmhg, p.vd_aw_ml, p.sigma_ml, p.front_shape, p.front_tail_ml, slope3, gas.alv_mean_mmhg, wave.veMl);
   return { t0, g, slope3, clip, gas, next, curve };
@@ -193,9 +193,11 @@ function compartmentBreath(
   state: Co2BodyState,
   g: GasInputs,
   vt: number,
+  tS: number,
 ): { gas: BreathGas; next: Co2BodyState; curve: ExpiredCurve; comp: CompartmentGas } {
   const { p, wave } = run;
-  const { gas, comp, next } = compartmentBreathGas(state, g, p.compartments, p, vt, wave.n * run.dt);
+  const comps = embolisedCompartments(p.compartments, p.embolism_compartment, paramAt(p, run.events, 'embolism_fraction', tS));
+  const { gas, comp, next } = compartmentBreathGas(state, g, comps, p, vt, wave.n * run.dt);
   const profile = sequentialEmptyingProfile(
     p.compartments.map((c) => c.vent_share),
     p.compartments.map((c) => c.tau_s),
@@ -318,7 +320,13 @@ export function* simulateSignals(params: SimParams, seed: number): Generator<Sim
   const g0 = gasInputsAt(p, run.events, -run.skip / run.fsHz);
   let state =
     p.lung_model === 'compartments'
-      ? steadyCompartmentState(p.vt_ml, 60 / p.rr_bpm, g0, p.compartments, p)
+      ? steadyCompartmentState(
+          p.vt_ml,
+          60 / p.rr_bpm,
+          g0,
+          embolisedCompartments(p.compartments, p.embolism_compartment, paramAt(p, run.events, 'embolism_fraction', -run.skip / run.fsHz)),
+          p,
+        )
       : steadyCo2State(p.vt_ml, 60 / p.rr_bpm, g0);
   const cursor: SimCursor = { chunk: allocChunk(run.chunkN), outIndex: 0 };
   let breathStart = 0; // internal index of the current breath's first sample

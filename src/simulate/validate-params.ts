@@ -79,6 +79,28 @@ function checkCompartments(p: SimParams): void {
   if (Math.abs(perf - 1) > 1e-6) throw new RangeError(`simulate: the compartments' perf_share must add up to 1 (got ${perf})`);
 }
 
+/** The embolised compartment exists and is not the only perfused one; the blocked share and its events are 0-1. */
+function checkEmbolism(p: SimParams): void {
+  checkNumber(p, 'embolism_compartment', 0, p.compartments.length);
+  if (!Number.isInteger(p.embolism_compartment)) {
+    throw new RangeError(`simulate: embolism_compartment must be a whole compartment number (got ${p.embolism_compartment})`);
+  }
+  checkNumber(p, 'embolism_fraction', 0, 1);
+  const events = (Array.isArray(p.events) ? p.events : []).filter((e) => e && e.param === 'embolism_fraction');
+  const bad = events.find((e) => !(e.to >= 0 && e.to <= 1));
+  if (bad) throw new RangeError(`simulate: an embolism_fraction event must go to a value 0-1 (got ${bad.to})`);
+  if (p.embolism_compartment === 0) {
+    if (p.embolism_fraction !== 0 || events.length > 0) throw new RangeError('simulate: embolism_fraction needs an embolism_compartment (1 or more)');
+    return;
+  }
+  const target = p.compartments[p.embolism_compartment - 1]!;
+  if (!(target.perf_share > 0) || !(target.perf_share < 1)) {
+    throw new RangeError(
+      `simulate: the embolised compartment ${p.embolism_compartment} must have blood flow to lose and another perfused compartment to take it (perf_share ${target.perf_share})`,
+    );
+  }
+}
+
 /** The lung model and what it needs: compartments and the zone-1 rule, and the inputs it replaces set to 0. */
 function checkLungModel(p: SimParams): void {
   checkOneOf(p, 'lung_model', ['single', 'compartments']);
@@ -86,9 +108,14 @@ function checkLungModel(p: SimParams): void {
     if (!Array.isArray(p.compartments) || p.compartments.length > 0) {
       throw new RangeError("simulate: compartments are used only with lung_model 'compartments'; leave the list empty");
     }
+    const embolismEvent = Array.isArray(p.events) && p.events.some((e) => e && e.param === 'embolism_fraction');
+    if (p.embolism_compartment !== 0 || p.embolism_fraction !== 0 || embolismEvent) {
+      throw new RangeError("simulate: embolism_compartment and embolism_fraction (and their events) need lung_model 'compartments'");
+    }
     return;
   }
   checkCompartments(p);
+  checkEmbolism(p);
   checkNumber(p, 'zone1_lung_height_cm', 0, 40);
   if (p.zone1_lung_height_cm > 0) checkNumber(p, 'zone1_pa_level_cm', 0, p.zone1_lung_height_cm);
   checkNumber(p, 'zone1_pla_mmhg', 0, 40);

@@ -1,5 +1,6 @@
 // Prints the tables of docs/mechanisms.md: each compartment-model scenario through the command line (`phasewise
-// simulate`, then `phasewise analyse --gas`), the tool's numbers beside the simulator's truth.
+// simulate`, then `phasewise analyse --gas`), the tool's numbers beside the simulator's truth. Truth is the median of
+// the breaths in the 60 s before the blood gas, the analysis's default window (gas.window_s).
 // Run after `node scripts/build.mjs`: `npx tsx tests/accuracy/print-mechanisms.ts`.
 // The simulator has no oxygen model, so the gas file's saturations are made up to carry the simulator's shunt
 // fraction through the saturation route the analysis uses when PaO2, Hb and FiO2 are missing: SvO2 70 %,
@@ -21,11 +22,11 @@ interface Case {
 }
 
 const CASES: Case[] = [
-  { scenario: 'adult-mech-healthy', label: 'healthy (reference)', gas_t_s: 170, from_s: 60 },
-  { scenario: 'adult-mech-congested', label: 'congested: low V/Q + 15 % shunt', gas_t_s: 170, from_s: 60 },
-  { scenario: 'infant-mech-cyanotic-shunt', label: 'cyanotic infant: 40 % shunt', gas_t_s: 170, from_s: 60 },
-  { scenario: 'adult-mech-embolism', label: 'embolised region: 30 % of ventilation unperfused', gas_t_s: 170, from_s: 60 },
-  { scenario: 'adult-mech-low-output', label: 'cardiac output 5.0 -> 1.8 L/min: zone 1', gas_t_s: 350, from_s: 240 },
+  { scenario: 'adult-mech-healthy', label: 'healthy (reference)', gas_t_s: 170, from_s: 110 },
+  { scenario: 'adult-mech-congested', label: 'congested: low V/Q + 15 % shunt', gas_t_s: 170, from_s: 110 },
+  { scenario: 'infant-mech-cyanotic-shunt', label: 'cyanotic infant: 40 % shunt', gas_t_s: 170, from_s: 110 },
+  { scenario: 'adult-mech-embolism', label: 'embolus at 2 min: 30 % of ventilation unperfused', gas_t_s: 350, from_s: 290 },
+  { scenario: 'adult-mech-low-output', label: 'cardiac output 5.0 -> 1.8 L/min: zone 1', gas_t_s: 350, from_s: 290 },
 ];
 
 type Row = Record<string, number>;
@@ -49,12 +50,20 @@ function truthWindow(truthFile: string, from: number, to: number): Row {
   return out;
 }
 
-/** The first data row of a CSV as numbers by column name. */
-function firstRow(file: string): Row {
-  const [head, line] = readFileSync(file, 'utf8').split('\n');
+/** The data rows of a CSV as numbers by column name (text cells become NaN; status is kept apart). */
+function csvRows(file: string): { row: Row; status: string }[] {
+  const [head, ...lines] = readFileSync(file, 'utf8').trim().split('\n');
   const names = head!.split(',');
-  const cells = line!.split(',');
-  return Object.fromEntries(names.map((n, i) => [n, Number(cells[i])]));
+  return lines.map((line) => {
+    const cells = line.split(',');
+    return { row: Object.fromEntries(names.map((n, i) => [n, Number(cells[i])])), status: cells[names.indexOf('status')] ?? '' };
+  });
+}
+
+/** Median of a breaths.csv column over the ok and caution breaths inside [from, to]. */
+function breathsMedian(file: string, column: string, from: number, to: number): number {
+  const rows = csvRows(file).filter((r) => (r.status === 'ok' || r.status.startsWith('caution')) && r.row.t_start_s! >= from && r.row.t_end_s! <= to);
+  return median(rows.map((r) => r.row[column]!));
 }
 
 function runCase(c: Case): { t: Row; g: Row; m: Row } {
@@ -67,9 +76,9 @@ function runCase(c: Case): { t: Row; g: Row; m: Row } {
   writeFileSync(gasFile, `time_s,paco2_mmhg,pvco2_mmhg,sao2_pct,svo2_pct\n${c.gas_t_s},${t.paco2_mmhg!.toFixed(1)},${t.pvco2_mmhg!.toFixed(1)},${sa},70\n`);
   const out = join(dir, `${c.scenario}-out`);
   cli(['analyse', csv, '--gas', gasFile, '--out', out]);
-  const summary = JSON.parse(readFileSync(join(out, 'summary.json'), 'utf8')) as { metrics: Record<string, { median: number }> };
-  const m: Row = Object.fromEntries(Object.entries(summary.metrics).map(([k, v]) => [k, v.median]));
-  return { t, g: firstRow(join(out, 'gas.csv')), m };
+  const breaths = join(out, 'breaths.csv');
+  const m: Row = { slope3_mmhg_per_l: breathsMedian(breaths, 'slope3_mmhg_per_l', c.from_s, c.gas_t_s) };
+  return { t, g: csvRows(join(out, 'gas.csv'))[0]!.row, m };
 }
 
 const f = (x: number | undefined, d = 1) => (x === undefined || !Number.isFinite(x) ? '–' : x.toFixed(d));
@@ -86,7 +95,7 @@ for (const c of CASES) {
       `${f(t.grad_vq_mmhg)} / ${f(t.grad_dead_space_mmhg)} / ${f(t.grad_emptying_mmhg)} |`,
   );
   second.push(
-    `| ${c.label} | ${f(m.vd_aw_ml)} / ${f(t.vd_aw_ml)} | ${f(g.vdvt_bohr, 3)} / ${f(t.vdvt_bohr, 3)} | ${f(g.vdvt_enghoff, 3)} / ${f(t.vdvt_enghoff, 3)} | ` +
+    `| ${c.label} | ${f(g.vd_aw_ml)} / ${f(t.vd_aw_ml)} | ${f(g.vdvt_bohr, 3)} / ${f(t.vdvt_bohr, 3)} | ${f(g.vdvt_enghoff, 3)} / ${f(t.vdvt_enghoff, 3)} | ` +
       `${f(m.slope3_mmhg_per_l)} / ${f(t.slope3_mmhg_per_l)} | ${f(t.alv_dead_space_fraction, 3)} | ${f(t.zone1_fraction, 3)} |`,
   );
 }

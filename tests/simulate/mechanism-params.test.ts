@@ -32,6 +32,21 @@ describe('compartment model and sample flow parameters', () => {
     expect(congested({ zone1_pvr_mmhg_min_per_l: -1 })).toThrow(/zone1_pvr_mmhg_min_per_l must be >= 0/);
     expect(() => scenarioParams('adult-healthy', { sample_flow_ml_min: 900 })).toThrow(/sample_flow_ml_min must be >= 0 and <= 500 \(got 900\)/);
   });
+  it('an embolism needs the compartment model, an existing compartment with blood flow to lose, and a share 0-1', () => {
+    expect(() => scenarioParams('adult-healthy', { embolism_compartment: 1 })).toThrow(/need lung_model 'compartments'/);
+    expect(() => scenarioParams('adult-healthy', { events: [{ t_s: 1, param: 'embolism_fraction', to: 1, ramp_s: 0 }] })).toThrow(
+      /need lung_model 'compartments'/,
+    );
+    expect(() => scenarioParams('adult-mech-embolism', { embolism_compartment: 4 })).toThrow(/embolism_compartment must be >= 0 and <= 3 \(got 4\)/);
+    expect(() => scenarioParams('adult-mech-embolism', { embolism_compartment: 1.5 })).toThrow(/whole compartment number/);
+    expect(() =>
+      scenarioParams('adult-mech-embolism', { events: [{ t_s: 1, param: 'embolism_fraction', to: 1.5, ramp_s: 0 }] }),
+    ).toThrow(/must go to a value 0-1 \(got 1.5\)/);
+    expect(() =>
+      scenarioParams('adult-mech-healthy', { compartments: [{ vent_share: 1, perf_share: 1, tau_s: 0.5 }], embolism_compartment: 1 }),
+    ).toThrow(/must have blood flow to lose and another perfused compartment to take it \(perf_share 1\)/);
+    expect(() => scenarioParams('adult-mech-healthy', { embolism_fraction: 0.5 })).toThrow(/needs an embolism_compartment/);
+  });
   it('every new scenario is valid as given', () => {
     for (const name of ['adult-mech-healthy', 'adult-mech-congested', 'infant-mech-cyanotic-shunt', 'adult-mech-low-output', 'adult-mech-embolism', 'infant-sidestream-sample-flow']) {
       expect(() => validateParams(scenarioParams(name))).not.toThrow();

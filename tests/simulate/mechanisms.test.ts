@@ -126,6 +126,21 @@ describe('compartment model: published relations', () => {
   });
 });
 
+describe('compartment model: an embolus during the recording (event)', () => {
+  it('blocking a region that keeps its ventilation: unperfused share 0 -> 0.3, PETCO2 falls, Enghoff rises, Bohr does not', () => {
+    const { truth } = simulateRecording(scenarioParams('adult-mech-embolism', { co2_noise_mmhg: 0, flow_noise_lps: 0 }), 1);
+    const med = (xs: TruthBreath[], k: keyof TruthBreath) => xs.map((b) => b[k] as number).sort((a, b) => a - b)[xs.length >> 1]!;
+    const before = truth.breaths.filter((b) => b.t_end_s < 118);
+    const after = truth.breaths.filter((b) => b.t_start_s > 135 && b.t_end_s < 180);
+    expect(med(before, 'alv_dead_space_fraction')).toBe(0);
+    expectClose(med(after, 'alv_dead_space_fraction'), 0.3, { abs: 1e-9 });
+    expect(med(before, 'petco2_mmhg') - med(after, 'petco2_mmhg')).toBeGreaterThan(5);
+    expect(med(after, 'vdvt_enghoff') - med(before, 'vdvt_enghoff')).toBeGreaterThan(0.15);
+    expectClose(med(after, 'vdvt_bohr'), med(before, 'vdvt_bohr'), { abs: 0.01 });
+    expect(truth.events).toEqual([expect.objectContaining({ t_s: 120, kind: 'dead_space', param: 'embolism_fraction', from: 0, to: 1 })]);
+  });
+});
+
 describe('compartment model: the phase III slope is a result (derived here: sequential emptying)', () => {
   it('a slow low-V/Q compartment gives a positive slope that grows with the time-constant spread; a slow high-V/Q one a negative slope', () => {
     const slope = (tauSlow: number, slowPerf: number) =>
