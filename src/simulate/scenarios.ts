@@ -73,28 +73,28 @@ const MECHANISM_SCENARIOS: Readonly<Record<string, Scenario>> = {
   },
   'adult-mech-low-output': {
     description:
-      'Compartment lung model, adult, 6 min: cardiac output falls from 5.0 to 1.8 L/min at 2 min (30 s ramp); zone 1 (ventilated, unperfused lung) grows from 0 to about 11 %, PETCO2 falls, the gradient widens',
+      'Compartment lung model, adult, 15 min: cardiac output falls from 5.0 to 1.8 L/min at 6 min (30 s ramp); zone 1 (ventilated, unperfused lung) grows from 0 to about 11 %, PETCO2 falls, the gradient widens',
     params: {
-      ...MECH, minutes: 6,
+      ...MECH, minutes: 15,
       compartments: [
         { vent_share: 0.5, perf_share: 0.55, tau_s: 0.5 },
         { vent_share: 0.5, perf_share: 0.45, tau_s: 0.9 },
       ],
-      events: [{ t_s: 120, param: 'q_l_min', to: 1.8, ramp_s: 30, description: 'fall in cardiac output 5.0 -> 1.8 L/min' }],
+      events: [{ t_s: 360, param: 'q_l_min', to: 1.8, ramp_s: 30, description: 'fall in cardiac output 5.0 -> 1.8 L/min' }],
     },
   },
   'adult-mech-embolism': {
     description:
-      'Compartment lung model, adult, 6 min: at 2 min an embolus blocks the blood flow of a region that keeps 30 % of the ventilation (10 s ramp); it empties in parallel with the rest, so Bohr VD/VT does not see it, PETCO2 and the gradient do',
+      'Compartment lung model, adult, 15 min: at 6 min an embolus blocks the blood flow of a region that keeps 30 % of the ventilation (10 s ramp); it empties in parallel with the rest, so Bohr VD/VT does not see it, PETCO2 and the gradient do',
     params: {
-      ...MECH, minutes: 6,
+      ...MECH, minutes: 15,
       compartments: [
         { vent_share: 0.4, perf_share: 0.42, tau_s: 0.5 },
         { vent_share: 0.3, perf_share: 0.28, tau_s: 0.8 },
         { vent_share: 0.3, perf_share: 0.3, tau_s: 0.6 },
       ],
       embolism_compartment: 3,
-      events: [{ t_s: 120, param: 'embolism_fraction', to: 1, ramp_s: 10, description: 'embolus blocks the blood flow of region 3' }],
+      events: [{ t_s: 360, param: 'embolism_fraction', to: 1, ramp_s: 10, description: 'embolus blocks the blood flow of region 3' }],
     },
   },
   'infant-sidestream-sample-flow': {

@@ -25,8 +25,8 @@ const CASES: Case[] = [
   { scenario: 'adult-mech-healthy', label: 'healthy (reference)', gas_t_s: 170, from_s: 110 },
   { scenario: 'adult-mech-congested', label: 'congested: low V/Q + 15 % shunt', gas_t_s: 170, from_s: 110 },
   { scenario: 'infant-mech-cyanotic-shunt', label: 'cyanotic infant: 40 % shunt', gas_t_s: 170, from_s: 110 },
-  { scenario: 'adult-mech-embolism', label: 'embolus at 2 min: 30 % of ventilation unperfused', gas_t_s: 350, from_s: 290 },
-  { scenario: 'adult-mech-low-output', label: 'cardiac output 5.0 -> 1.8 L/min: zone 1', gas_t_s: 350, from_s: 290 },
+  { scenario: 'adult-mech-embolism', label: 'embolus at 6 min: 30 % of ventilation unperfused', gas_t_s: 840, from_s: 780 },
+  { scenario: 'adult-mech-low-output', label: 'cardiac output 5.0 -> 1.8 L/min at 6 min: zone 1', gas_t_s: 840, from_s: 780 },
 ];
 
 type Row = Record<string, number>;
@@ -102,6 +102,31 @@ for (const c of CASES) {
 console.log('\n| scenario | VDaw (mL): tool / truth | Bohr VD/VT: tool / truth | Enghoff VD/VT: tool / truth | phase III slope (mmHg/L): tool / truth | truth unperfused share | truth zone 1 |');
 console.log('|---|---|---|---|---|---|---|');
 for (const line of second) console.log(line);
+
+// event detection on the two recordings with an event at 6 min: without a blood gas, and with one before (300 s) and
+// one after (840 s), each carrying the true medians of its 60 s window
+console.log('\n| scenario | events found: without gases | with gases at 5 and 14 min |');
+console.log('|---|---|---|');
+for (const c of CASES.filter((x) => x.gas_t_s > 600)) {
+  const csv = join(dir, `${c.scenario}.csv`);
+  const truthFile = csv.replace(/\.csv$/, '.truth.json');
+  const line = (tS: number) => {
+    const t = truthWindow(truthFile, tS - 60, tS);
+    return `${tS},${t.paco2_mmhg!.toFixed(1)},${t.pvco2_mmhg!.toFixed(1)},${(100 - 30 * t.shunt_fraction!).toFixed(1)},70`;
+  };
+  const gasFile = join(dir, `${c.scenario}.two-gases.csv`);
+  writeFileSync(gasFile, `time_s,paco2_mmhg,pvco2_mmhg,sao2_pct,svo2_pct\n${line(300)}\n${line(840)}\n`);
+  const events = (out: string) =>
+    readFileSync(join(out, 'events.csv'), 'utf8').trim().split('\n').slice(1)
+      .map((l) => l.split(','))
+      .map(([t, kind]) => `${f(Number(t) / 60, 1)} min ${kind}`)
+      .join('; ') || 'none';
+  const plain = join(dir, `${c.scenario}-plain`);
+  cli(['analyse', csv, '--out', plain]);
+  const withGas = join(dir, `${c.scenario}-two-gases`);
+  cli(['analyse', csv, '--gas', gasFile, '--out', withGas]);
+  console.log(`| ${c.label} | ${events(plain)} | ${events(withGas)} |`);
+}
 
 // sidestream sample flow: the same infant with and without the 150 mL/min drawn before the flow sensor; the third
 // row gives the analysis a flow offset of 0 (settings file), so it does not take the -Qs at end-expiratory rest for a

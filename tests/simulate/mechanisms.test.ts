@@ -114,9 +114,9 @@ describe('compartment model: published relations', () => {
   });
 
   it('a fall in cardiac output grows zone 1 (West JB, Dollery CT, Naimark A 1964, J Appl Physiol 19:713-724): PETCO2 falls, the gradient widens', () => {
-    const { truth } = simulateRecording(scenarioParams('adult-mech-low-output', { co2_noise_mmhg: 0, flow_noise_lps: 0 }), 1);
-    const before = truth.breaths.filter((b) => b.t_end_s < 115);
-    const after = truth.breaths.filter((b) => b.t_start_s > 300);
+    const { truth } = simulateRecording(scenarioParams('adult-mech-low-output', { minutes: 10, co2_noise_mmhg: 0, flow_noise_lps: 0 }), 1);
+    const before = truth.breaths.filter((b) => b.t_end_s < 355);
+    const after = truth.breaths.filter((b) => b.t_start_s > 540);
     const med = (xs: TruthBreath[], k: keyof TruthBreath) => xs.map((b) => b[k] as number).sort((a, b) => a - b)[xs.length >> 1]!;
     expect(med(before, 'zone1_fraction')).toBe(0);
     expect(med(after, 'zone1_fraction')).toBeGreaterThan(0.08);
@@ -128,16 +128,16 @@ describe('compartment model: published relations', () => {
 
 describe('compartment model: an embolus during the recording (event)', () => {
   it('blocking a region that keeps its ventilation: unperfused share 0 -> 0.3, PETCO2 falls, Enghoff rises, Bohr does not', () => {
-    const { truth } = simulateRecording(scenarioParams('adult-mech-embolism', { co2_noise_mmhg: 0, flow_noise_lps: 0 }), 1);
+    const { truth } = simulateRecording(scenarioParams('adult-mech-embolism', { minutes: 8, co2_noise_mmhg: 0, flow_noise_lps: 0 }), 1);
     const med = (xs: TruthBreath[], k: keyof TruthBreath) => xs.map((b) => b[k] as number).sort((a, b) => a - b)[xs.length >> 1]!;
-    const before = truth.breaths.filter((b) => b.t_end_s < 118);
-    const after = truth.breaths.filter((b) => b.t_start_s > 135 && b.t_end_s < 180);
+    const before = truth.breaths.filter((b) => b.t_end_s < 358);
+    const after = truth.breaths.filter((b) => b.t_start_s > 375 && b.t_end_s < 420);
     expect(med(before, 'alv_dead_space_fraction')).toBe(0);
     expectClose(med(after, 'alv_dead_space_fraction'), 0.3, { abs: 1e-9 });
     expect(med(before, 'petco2_mmhg') - med(after, 'petco2_mmhg')).toBeGreaterThan(5);
     expect(med(after, 'vdvt_enghoff') - med(before, 'vdvt_enghoff')).toBeGreaterThan(0.15);
     expectClose(med(after, 'vdvt_bohr'), med(before, 'vdvt_bohr'), { abs: 0.01 });
-    expect(truth.events).toEqual([expect.objectContaining({ t_s: 120, kind: 'dead_space', param: 'embolism_fraction', from: 0, to: 1 })]);
+    expect(truth.events).toEqual([expect.objectContaining({ t_s: 360, kind: 'dead_space', param: 'embolism_fraction', from: 0, to: 1 })]);
   });
 });
 
