@@ -83,7 +83,7 @@ describe('docs/', () => {
     }
   });
   it('every local link of the docs pages exists, with its heading anchor', () => {
-    for (const page of ['manual', 'methods', 'batch', 'performance', 'accuracy']) {
+    for (const page of ['manual', 'methods', 'batch', 'performance', 'accuracy', 'mechanisms']) {
       expectLinksResolve(read(`docs/${page}.md`), new URL('docs/', root), `docs/${page}.md`);
     }
   });

@@ -6,7 +6,7 @@ import { BASE_PARAMS, listScenarios, scenarioParams, writeRecordingCsv, type Sim
 
 class UsageError extends Error {}
 
-const LIST_KEYS = new Set<keyof SimParams>(['events', 'gaps', 'extra_columns']);
+const LIST_KEYS = new Set<keyof SimParams>(['events', 'gaps', 'extra_columns', 'compartments']);
 
 /** Parse one `key=value` override, typed after the parameter's default. */
 export function parseOverride(text: string): [keyof SimParams, unknown] {
@@ -23,7 +23,8 @@ export function parseOverride(text: string): [keyof SimParams, unknown] {
     try {
       return [key, JSON.parse(raw)];
     } catch {
-      throw new UsageError(`--set ${key}: value must be JSON, e.g. ${key}='[{"t_s":600,"param":"q_l_min","to":2,"ramp_s":30}]'`);
+      const example = key === 'compartments' ? '[{"vent_share":0.6,"perf_share":0.5,"tau_s":0.4},{"vent_share":0.4,"perf_share":0.5,"tau_s":0.9}]' : '[{"t_s":600,"param":"q_l_min","to":2,"ramp_s":30}]';
+      throw new UsageError(`--set ${key}: value must be JSON, e.g. ${key}='${example}'`);
     }
   }
   if (key === 'co2_rate_hz' && (raw === 'null' || raw === '')) return [key, null];

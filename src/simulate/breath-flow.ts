@@ -12,7 +12,10 @@ import type { Rng } from './prng';
  * - ventilated expiration is passive: ~ exp(-t / RC) [common practice, no source: first-order respiratory mechanics].
  * Every flow edge is smoothed with a raised cosine of `edgeS` (real valves and muscles do not step), and each phase
  * is scaled so its trapezoid volume at the internal rate is exactly the breath's volume. A leak removes the
- * fraction `leak` of the expiratory flow before the sensor.
+ * fraction `leak` of the expiratory flow before the sensor. A sidestream sample flow Qs is drawn at the CO2 port, which
+ * lies between the patient and the flow sensor: the flow sensor reads (port flow - Qs) with expiration positive (more
+ * inspiratory flow, less expiratory flow, -Qs when the patient's flow is zero), while the gas at the port, and so the
+ * expired volume the CO2 curve is read at, is the patient's [derived here: volume balance at the port].
  */
 export interface BreathWave {
   /** samples in the breath (the next breath starts at sample n) */
@@ -21,9 +24,10 @@ export interface BreathWave {
   nExp: number;
   /** lung flow, L/s, + = expiration */
   lungFlow: Float64Array;
-  /** flow at the sensor, L/s (expiration reduced by the leak) */
+  /** flow at the flow sensor, L/s (expiration reduced by the leak; sample flow subtracted) */
   sensorFlow: Float64Array;
-  /** expired volume at the sensor since the start of expiration, mL (0 during inspiration) */
+  /** expired volume past the CO2 port since the start of expiration (after the leak, before the sample flow is
+   *  drawn), mL (0 during inspiration) */
   expVolume: Float64Array;
   /** lung volume above end-expiratory volume, mL */
   lungVolume: Float64Array;
@@ -41,6 +45,8 @@ export interface BreathShape {
   edgeS: number;
   leak: number;
   fsHz: number;
+  /** sidestream sample flow drawn between the patient and the flow sensor, L/s (0 or absent = none) */
+  sampleLps?: number;
 }
 
 function ramp(x: number): number {
@@ -113,21 +119,22 @@ export function fillBreathWave(w: BreathWave, s: BreathShape, rng: Rng): void {
   const ampI = s.vtMl / 1000 / (sumI * dt);
   const ampE = s.vtMl / 1000 / (sumE * dt);
   const keep = 1 - s.leak;
+  const sample = s.sampleLps ?? 0;
   let lungVol = 0;
   let expVol = 0;
-  let prevSensor = 0;
+  let prevPort = 0;
   let prevLung = 0;
   for (let k = 0; k < n; k++) {
     const lung = k < nExp ? -ampI * f[k]! : ampE * f[k]!;
-    const sensor = lung > 0 ? lung * keep : lung;
+    const port = lung > 0 ? lung * keep : lung;
     lungVol -= ((prevLung + lung) / 2) * dt * 1000;
-    if (k > nExp) expVol += ((prevSensor + sensor) / 2) * dt * 1000;
+    if (k > nExp) expVol += ((prevPort + port) / 2) * dt * 1000;
     w.lungFlow[k] = lung;
-    w.sensorFlow[k] = sensor;
+    w.sensorFlow[k] = sample > 0 ? port - sample : port;
     w.lungVolume[k] = lungVol;
     w.expVolume[k] = k >= nExp ? expVol : 0;
     prevLung = lung;
-    prevSensor = sensor;
+    prevPort = port;
   }
   w.n = n;
   w.nExp = nExp;

@@ -1,6 +1,7 @@
 import { STPD_ML_PER_MMHG_ML } from './constants';
 import { curveArea, curvePco2, fowlerEqualArea, lineAt, type ExpiredCurve } from './expired-curve';
 import type { BreathGas } from './gas-exchange';
+import type { CompartmentGas } from './lung-compartments';
 import type { TruthBreath } from './truth';
 
 export interface BreathTiming {
@@ -18,6 +19,41 @@ export interface BreathConditions {
   slope3_mmhg_per_l: number;
 }
 
+/** What only the 'compartments' model or a sidestream sample flow adds to a breath's truth. */
+export interface BreathExtras {
+  comp?: CompartmentGas;
+  /** sample flow, mL/s, with the breath's inspiratory and expiratory times, s */
+  sample?: { ml_per_s: number; ti_s: number; te_s: number };
+}
+
+/**
+ * The parts of PaCO2 - PETCO2 in the compartment model (each a difference of true values, so they add up exactly):
+ * shunt Pa - Pc', V/Q mismatch Pc' - PA(perfused, ventilation-weighted), alveolar dead space PA(perfused) - Pmix,
+ * sequential emptying Pmix - PETCO2 [derived here].
+ */
+export function gradientParts(gas: BreathGas, comp: CompartmentGas, petco2Mmhg: number): Partial<TruthBreath> {
+  return {
+    pcco2_mmhg: comp.pc_mmhg,
+    pa_perfused_vent_mmhg: comp.pa_perfused_vent_mmhg,
+    zone1_fraction: comp.zone1_fraction,
+    grad_total_mmhg: gas.paco2_mmhg - petco2Mmhg,
+    grad_shunt_mmhg: gas.paco2_mmhg - comp.pc_mmhg,
+    grad_vq_mmhg: comp.pc_mmhg - comp.pa_perfused_vent_mmhg,
+    grad_dead_space_mmhg: comp.pa_perfused_vent_mmhg - gas.alv_mean_mmhg,
+    grad_emptying_mmhg: gas.alv_mean_mmhg - petco2Mmhg,
+  };
+}
+
+function extraFields(curve: ExpiredCurve, gas: BreathGas, petco2Mmhg: number, extras: BreathExtras): Partial<TruthBreath> {
+  const out: Partial<TruthBreath> = extras.comp ? gradientParts(gas, extras.comp, petco2Mmhg) : {};
+  if (extras.comp) out.petco2_line_end_mmhg = lineAt(curve, curve.ve_ml);
+  if (extras.sample) {
+    out.sample_loss_exp_ml = extras.sample.ml_per_s * extras.sample.te_s;
+    out.sample_gain_insp_ml = extras.sample.ml_per_s * extras.sample.ti_s;
+  }
+  return out;
+}
+
 /**
  * True values of one breath from its noise-free expired curve and gas exchange (definitions in truth.ts).
  * VTCO2 = 1.1588e-3 (integral P dV_exp - PI VTi) mL STPD (derived here, docs/methods.md); PECO2 = integral / V_E;
@@ -30,6 +66,7 @@ export function breathTruth(
   gas: BreathGas,
   vtInspMl: number,
   cond: BreathConditions,
+  extras: BreathExtras = {},
 ): TruthBreath {
   const ve = curve.ve_ml;
   const vd = curve.vd_aw_ml;
@@ -46,6 +83,7 @@ export function breathTruth(
   const fowlerRaw = fowlerEqualArea(area, curve.a_mmhg, curve.b_mmhg_per_ml, ve);
   const fowlerNet = fowlerEqualArea(area - pi * ve, curve.a_mmhg - pi, curve.b_mmhg_per_ml, ve);
   const paeco2 = area / (ve - vd);
+  const petco2 = curvePco2(curve, ve);
   return {
     ...timing,
     rr_bpm: 60 / (timing.t_end_s - timing.t_start_s),
@@ -63,7 +101,7 @@ export function breathTruth(
     paco2_mmhg: pa,
     pvco2_mmhg: gas.pv_mmhg,
     pa_perfused_mmhg: gas.pa_perfused_mmhg,
-    petco2_mmhg: curvePco2(curve, ve),
+    petco2_mmhg: petco2,
     peco2_mmhg: peco2,
     paeco2_mmhg: paeco2,
     alv_co2_mmhg: alv,
@@ -79,5 +117,6 @@ export function breathTruth(
     q_l_min: cond.q_l_min,
     vco2_ml_min: cond.vco2_ml_min,
     eliminated_ml: gas.eliminated_ml,
+    ...extraFields(curve, gas, petco2, extras),
   };
 }

@@ -1,5 +1,6 @@
 import type { FrontShape } from './params';
 import { emgCdf, normalCdf } from './normal-cdf';
+import { profileAt, type AlveolarProfile } from './sequential-emptying';
 
 /**
  * True expired CO2 at the airway opening as a function of expired volume v (mL), for one breath:
@@ -25,6 +26,9 @@ export interface ExpiredCurve {
   a_mmhg: number;
   b_mmhg_per_ml: number;
   ve_ml: number;
+  /** 'compartments' lung model: the alveolar gas as a function of alveolar expired volume (sequential emptying);
+   *  then a + b v is the least-squares line of the curve over the middle half of [VDaw + 3 sigma, V_E] */
+  profile?: AlveolarProfile;
 }
 
 export function makeExpiredCurve(
@@ -51,6 +55,52 @@ export function makeExpiredCurve(
   };
 }
 
+/**
+ * Expired curve of the 'compartments' model: P(v) = PI + (A(v - VDaw) - PI) F(v - VDaw) with A the sequential-emptying
+ * profile (A(u) = A(0) for u < 0). Its phase III line a + b v is the least-squares line through 201 evenly spaced
+ * volumes of the middle half of [VDaw + 3 sigma, V_E], the window the analysis fits by default (settings.ts
+ * phase3_window 'middle_half') [common practice, no source: regression window].
+ */
+export function makeProfileCurve(
+  piMmhg: number,
+  vdAwMl: number,
+  sigmaMl: number,
+  shape: FrontShape,
+  tailMl: number,
+  profile: AlveolarProfile,
+  veMl: number,
+): ExpiredCurve {
+  const c: ExpiredCurve = {
+    pi_mmhg: piMmhg, vd_aw_ml: vdAwMl, sigma_ml: sigmaMl, shape, tail_ml: shape === 'skewed' ? tailMl : 0,
+    a_mmhg: 0, b_mmhg_per_ml: 0, ve_ml: veMl, profile,
+  };
+  const start = vdAwMl + 3 * sigmaMl;
+  const from = start + 0.25 * (veMl - start);
+  const to = start + 0.75 * (veMl - start);
+  const mid = (from + to) / 2;
+  const m = 201;
+  let sy = 0;
+  let sxx = 0;
+  let sxy = 0;
+  for (let j = 0; j < m; j++) {
+    const x = ((to - from) * j) / (m - 1) - (mid - from);
+    const y = curvePco2(c, mid + x);
+    sy += y;
+    sxx += x * x;
+    sxy += x * y;
+  }
+  // x is centred on mid (sum x = 0), so b = sxy / sxx and the line passes through (mid, mean y)
+  const b = sxy / sxx;
+  c.b_mmhg_per_ml = b;
+  c.a_mmhg = sy / m - b * mid;
+  return c;
+}
+
+/** Alveolar gas reaching the airway at expired volume v before the front is applied: the profile or the line, mmHg. */
+export function alveolarAt(c: ExpiredCurve, vMl: number): number {
+  return c.profile ? profileAt(c.profile, vMl - c.vd_aw_ml) : lineAt(c, vMl);
+}
+
 /** Front F(u), u = v - VDaw. */
 export function frontFraction(c: ExpiredCurve, uMl: number): number {
   return c.shape === 'skewed' && c.tail_ml > 0 ? emgCdf(uMl + c.tail_ml, c.sigma_ml, c.tail_ml) : normalCdf(uMl / c.sigma_ml);
@@ -63,7 +113,7 @@ export function lineAt(c: ExpiredCurve, vMl: number): number {
 
 /** True PCO2 at expired volume v, mmHg. */
 export function curvePco2(c: ExpiredCurve, vMl: number): number {
-  return c.pi_mmhg + (lineAt(c, vMl) - c.pi_mmhg) * frontFraction(c, vMl - c.vd_aw_ml);
+  return c.pi_mmhg + (alveolarAt(c, vMl) - c.pi_mmhg) * frontFraction(c, vMl - c.vd_aw_ml);
 }
 
 /**

@@ -17,6 +17,8 @@ export {
   type Co2Unit,
   type TimeFormat,
   type ExtraColumn,
+  type LungModel,
+  type LungCompartment,
 } from './params';
 export { minimumTidalVolume, validateParams } from './validate-params';
 export { listScenarios, scenarioParams } from './scenarios';
@@ -31,7 +33,17 @@ export { truthEvents, paramAt, type TruthEvent } from './events';
 // Model pieces (exposed for tests and teaching)
 export { arterialPco2ByMixing, shuntGradientFick, shuntGradientFromVenousArterial } from './shunt-mixing';
 export { steadyCo2State, breathGasExchange, capillaryConductance, perfusedAlveolarVentilation, type GasInputs, type BreathGas, type Co2BodyState } from './gas-exchange';
-export { makeExpiredCurve, curvePco2, curveArea, lineAt, frontFraction, fowlerEqualArea, fowlerResidualMl, type ExpiredCurve } from './expired-curve';
+export {
+  zone1Fraction,
+  steadyCompartmentState,
+  compartmentBreathGas,
+  compartmentPco2,
+  totalAlveolarVentilation,
+  type CompartmentGas,
+  type Zone1Inputs,
+} from './lung-compartments';
+export { sequentialEmptyingProfile, profileAt, type AlveolarProfile } from './sequential-emptying';
+export { makeProfileCurve, alveolarAt, makeExpiredCurve, curvePco2, curveArea, lineAt, frontFraction, fowlerEqualArea, fowlerResidualMl, type ExpiredCurve } from './expired-curve';
 export { STPD_ML_PER_MMHG_ML, ALV_VENT_CONSTANT, MMHG_PER_KPA } from './constants';
 export { createRng, streamSeed, type Rng } from './prng';
 export { columnFormat, LPM_PER_LPS, MLPS_PER_LPS } from './csv-format';

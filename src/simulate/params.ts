@@ -13,6 +13,19 @@ export type FlowUnit = 'L/s' | 'L/min' | 'mL/s';
 export type Co2Unit = 'mmHg' | 'kPa' | '%';
 export type TimeFormat = 's' | 'ms' | 'iso' | 'clock' | 'none';
 export type ExtraColumn = 'pressure' | 'volume';
+/** 'single': one perfused compartment with a given phase III slope (MODEL.md); 'compartments': several lung
+ *  compartments whose V/Q and emptying give PCO2, the gradient and the phase III slope (lung-compartments.ts). */
+export type LungModel = 'single' | 'compartments';
+
+/** One lung compartment of the 'compartments' model. */
+export interface LungCompartment {
+  /** share of the alveolar ventilation (the shares of all compartments sum to 1) */
+  vent_share: number;
+  /** share of the non-shunted pulmonary blood flow (sum to 1); 0 = unperfused units (alveolar dead space) */
+  perf_share: number;
+  /** emptying time constant, s: short empties early in expiration, long empties late */
+  tau_s: number;
+}
 
 /** Parameters that timed events may change (step or ramp). */
 export type EventParam =
@@ -25,7 +38,8 @@ export type EventParam =
   | 'pi_co2_mmhg'
   | 'slope3_mmhg_per_l'
   | 'leak_fraction'
-  | 'co2_clip_mmhg';
+  | 'co2_clip_mmhg'
+  | 'embolism_fraction';
 
 /** What an event means, as recorded in the truth (the trend/event issue classifies by these). */
 export type EventKind = 'perfusion' | 'dead_space' | 'ventilation' | 'shunt' | 'metabolic' | 'rebreathing' | 'slope' | 'sensor';
@@ -41,6 +55,7 @@ export const EVENT_KIND_OF: Readonly<Record<EventParam, EventKind>> = {
   slope3_mmhg_per_l: 'slope',
   leak_fraction: 'sensor',
   co2_clip_mmhg: 'sensor',
+  embolism_fraction: 'dead_space',
 };
 
 /** A change of one parameter starting at t_s (recording time): a step (ramp_s = 0) or a linear ramp. */
@@ -97,6 +112,26 @@ export interface SimParams {
   alv_dead_space_fraction: number;
   /** time constant of the lung-gas buffer smoothing alveolar ventilation between breaths, s */
   alv_mixing_tau_s: number;
+  /** 'single' (default) or 'compartments' (then slope3_mmhg_per_l and alv_dead_space_fraction must be 0: they are
+   *  results of the compartments) */
+  lung_model: LungModel;
+  /** compartments of the 'compartments' model (ignored by 'single'; must be empty there) */
+  compartments: LungCompartment[];
+  /** 'compartments' model: the compartment (1-based) whose blood flow an embolism blocks; 0 = none */
+  embolism_compartment: number;
+  /** share of that compartment's blood flow blocked (0-1; events may ramp it); the blood goes to the other perfused
+   *  compartments in proportion to their shares */
+  embolism_fraction: number;
+  /** zone-1 rule of the 'compartments' model: vertical height of the lung, cm (0 = no zone 1) */
+  zone1_lung_height_cm: number;
+  /** height of the pulmonary artery above the lowest point of the lung, cm */
+  zone1_pa_level_cm: number;
+  /** mean left atrial pressure, mmHg */
+  zone1_pla_mmhg: number;
+  /** pulmonary vascular resistance, mmHg per L/min (Wood units) */
+  zone1_pvr_mmhg_min_per_l: number;
+  /** mean alveolar pressure, cmH2O */
+  zone1_palv_cmh2o: number;
 
   // --- circulation and CO2 ---
   vco2_ml_min: number;
@@ -126,6 +161,9 @@ export interface SimParams {
   flow_offset_lps: number;
   /** expired volume lost before the flow sensor, fraction of the inspired volume */
   leak_fraction: number;
+  /** sidestream sample flow drawn at the CO2 port between the patient and the flow sensor, mL/min (0 = none); the
+   *  flow sensor reads patient flow minus this (expiration positive), so it misses sample_flow x Te per expiration */
+  sample_flow_ml_min: number;
   /** CO2 reading saturates at this value (sensor range, clipping); 0 = off */
   co2_clip_mmhg: number;
   /** cardiogenic flow ripple amplitude, L/s */
@@ -190,6 +228,15 @@ export const BASE_PARAMS: Readonly<SimParams> = {
   slope3_mmhg_per_l: 8,
   alv_dead_space_fraction: 0.1,
   alv_mixing_tau_s: 30,
+  lung_model: 'single',
+  compartments: [],
+  embolism_compartment: 0,
+  embolism_fraction: 0,
+  zone1_lung_height_cm: 0,
+  zone1_pa_level_cm: 8,
+  zone1_pla_mmhg: 8,
+  zone1_pvr_mmhg_min_per_l: 1.5,
+  zone1_palv_cmh2o: 8,
   vco2_ml_min: 200,
   q_l_min: 5,
   shunt_fraction: 0.04,
@@ -205,6 +252,7 @@ export const BASE_PARAMS: Readonly<SimParams> = {
   flow_noise_lps: 0.003,
   flow_offset_lps: 0,
   leak_fraction: 0,
+  sample_flow_ml_min: 0,
   co2_clip_mmhg: 0,
   cardio_flow_lps: 0,
   cardio_co2_mmhg: 0,

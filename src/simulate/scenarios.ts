@@ -18,6 +18,98 @@ interface Scenario {
 
 const ADULT: Partial<SimParams> = {}; // BASE_PARAMS is the healthy anaesthetised adult
 
+/**
+ * Base of the scenarios with the 'compartments' lung model (lung-compartments.ts): the slope and the alveolar dead
+ * space are results of the compartments, so their inputs are 0. Zone-1 rule for a supine adult: lung height 16 cm
+ * with the pulmonary artery at mid-height, Pla 8 mmHg, PVR 1.5 mmHg min/L, mean alveolar pressure 8 cmH2O
+ * [common practice, no source: typical values], which gives no zone 1 at Q 5 L/min and a growing one below ~2.7 L/min.
+ */
+const MECH: Partial<SimParams> = {
+  lung_model: 'compartments', slope3_mmhg_per_l: 0, alv_dead_space_fraction: 0, zone1_lung_height_cm: 16,
+  zone1_pa_level_cm: 8, zone1_pla_mmhg: 8, zone1_pvr_mmhg_min_per_l: 1.5, zone1_palv_cmh2o: 8,
+};
+
+/** Scenarios whose conditions arise from their mechanisms ('compartments' lung model; the last one: sample flow). */
+const MECHANISM_SCENARIOS: Readonly<Record<string, Scenario>> = {
+  'adult-mech-healthy': {
+    description:
+      'Compartment lung model, healthy adult: three compartments with mildly uneven ventilation, perfusion and time constants, 4 % shunt (reference for the other mechanism scenarios)',
+    params: {
+      ...MECH, minutes: 3,
+      compartments: [
+        { vent_share: 0.35, perf_share: 0.3, tau_s: 0.35 },
+        { vent_share: 0.45, perf_share: 0.5, tau_s: 0.6 },
+        { vent_share: 0.2, perf_share: 0.2, tau_s: 1.2 },
+      ],
+    },
+  },
+  'adult-mech-congested': {
+    description:
+      'Compartment lung model, congested lung: a slow low-V/Q region takes 45 % of the blood with 20 % of the ventilation, a high-V/Q region, 15 % shunt; the phase III slope and the gradient come from these',
+    params: {
+      ...MECH, weight_kg: 80, mode: 'pressure_control', vt_ml: 480, rr_bpm: 18, ie_ratio: 1.5, pause_fraction: 0, rc_s: 0.6,
+      vd_aw_ml: 160, sigma_ml: 16, vco2_ml_min: 230, q_l_min: 4.5, shunt_fraction: 0.15, co2_store_ml_per_mmhg: 77,
+      compliance_ml_per_cmh2o: 35, peep_cmh2o: 10, rise_ms: 50, co2_noise_mmhg: 0.15, flow_noise_lps: 0.004,
+      compartments: [
+        { vent_share: 0.45, perf_share: 0.5, tau_s: 0.4 },
+        { vent_share: 0.2, perf_share: 0.45, tau_s: 0.8 },
+        { vent_share: 0.35, perf_share: 0.05, tau_s: 0.4 },
+      ],
+    },
+  },
+  'infant-mech-cyanotic-shunt': {
+    description:
+      'Compartment lung model, cyanotic infant (3.5 kg) with a right-to-left shunt of 40 % and low pulmonary blood flow: the gradient is mostly shunt',
+    params: {
+      ...MECH, weight_kg: 3.5, mode: 'pressure_control', vt_ml: 28, rr_bpm: 40, ie_ratio: 1.5, pause_fraction: 0, rc_s: 0.15,
+      flow_edge_ms: 15, vd_aw_ml: 10, sigma_ml: 1.5, alv_mixing_tau_s: 10, vco2_ml_min: 25, q_l_min: 0.6,
+      shunt_fraction: 0.4, co2_store_ml_per_mmhg: 8, compliance_ml_per_cmh2o: 3, peep_cmh2o: 5, rise_ms: 40,
+      co2_noise_mmhg: 0.1, flow_noise_lps: 0.0004, hr_bpm: 140, zone1_lung_height_cm: 0,
+      compartments: [
+        { vent_share: 0.6, perf_share: 0.5, tau_s: 0.08 },
+        { vent_share: 0.4, perf_share: 0.5, tau_s: 0.2 },
+      ],
+    },
+  },
+  'adult-mech-low-output': {
+    description:
+      'Compartment lung model, adult, 15 min: cardiac output falls from 5.0 to 1.8 L/min at 6 min (30 s ramp); zone 1 (ventilated, unperfused lung) grows from 0 to about 11 %, PETCO2 falls, the gradient widens',
+    params: {
+      ...MECH, minutes: 15,
+      compartments: [
+        { vent_share: 0.5, perf_share: 0.55, tau_s: 0.5 },
+        { vent_share: 0.5, perf_share: 0.45, tau_s: 0.9 },
+      ],
+      events: [{ t_s: 360, param: 'q_l_min', to: 1.8, ramp_s: 30, description: 'fall in cardiac output 5.0 -> 1.8 L/min' }],
+    },
+  },
+  'adult-mech-embolism': {
+    description:
+      'Compartment lung model, adult, 15 min: at 6 min an embolus blocks the blood flow of a region that keeps 30 % of the ventilation (10 s ramp); it empties in parallel with the rest, so Bohr VD/VT does not see it, PETCO2 and the gradient do',
+    params: {
+      ...MECH, minutes: 15,
+      compartments: [
+        { vent_share: 0.4, perf_share: 0.42, tau_s: 0.5 },
+        { vent_share: 0.3, perf_share: 0.28, tau_s: 0.8 },
+        { vent_share: 0.3, perf_share: 0.3, tau_s: 0.6 },
+      ],
+      embolism_compartment: 3,
+      events: [{ t_s: 360, param: 'embolism_fraction', to: 1, ramp_s: 10, description: 'embolus blocks the blood flow of region 3' }],
+    },
+  },
+  'infant-sidestream-sample-flow': {
+    description:
+      'Infant (3.5 kg) with a sidestream CO2 sensor drawing 150 mL/min between the patient and the flow sensor: the flow sensor misses about 2 mL of each 28 mL expiration',
+    params: {
+      weight_kg: 3.5, mode: 'pressure_control', vt_ml: 28, rr_bpm: 40, ie_ratio: 1.5, pause_fraction: 0, rc_s: 0.15,
+      flow_edge_ms: 15, vd_aw_ml: 10, sigma_ml: 1.5, slope3_mmhg_per_l: 250, alv_dead_space_fraction: 0.05,
+      alv_mixing_tau_s: 10, vco2_ml_min: 25, q_l_min: 0.6, shunt_fraction: 0.05, co2_store_ml_per_mmhg: 8,
+      compliance_ml_per_cmh2o: 3, peep_cmh2o: 5, sensor: 'sidestream', delay_s: 1.0, rise_ms: 100,
+      sample_flow_ml_min: 150, co2_noise_mmhg: 0.1, flow_noise_lps: 0.0004, hr_bpm: 140,
+    },
+  },
+};
+
 const SCENARIOS: Readonly<Record<string, Scenario>> = {
   'adult-healthy': {
     description: 'Healthy adult under anaesthesia, volume control with inspiratory pause, clean mainstream sensor (reference)',
@@ -99,6 +191,7 @@ const SCENARIOS: Readonly<Record<string, Scenario>> = {
       cardio_flow_lps: 0.04, cardio_co2_mmhg: 0.6, rise_ms: 60,
     },
   },
+  ...MECHANISM_SCENARIOS,
 };
 
 /** Names and one-line descriptions of the built-in scenarios. */

@@ -1,12 +1,14 @@
 import type { SampleBlock } from '../types';
 import { createBreathWave, fillBreathWave, type BreathWave } from './breath-flow';
-import { breathTruth } from './breath-truth';
+import { breathTruth, type BreathExtras } from './breath-truth';
 import { createCo2Sensor, type Co2Sensor } from './co2-sensor';
 import { paramAt, sortedEvents } from './events';
-import { curvePco2, makeExpiredCurve, type ExpiredCurve } from './expired-curve';
+import { curvePco2, makeExpiredCurve, makeProfileCurve, type ExpiredCurve } from './expired-curve';
 import { breathGasExchange, steadyCo2State, type BreathGas, type Co2BodyState, type GasInputs } from './gas-exchange';
+import { compartmentBreathGas, embolisedCompartments, steadyCompartmentState, type CompartmentGas } from './lung-compartments';
 import type { SimEvent, SimParams } from './params';
 import { createRng, streamSeed, type Rng } from './prng';
+import { sequentialEmptyingProfile } from './sequential-emptying';
 import type { TruthBreath } from './truth';
 import { minimumTidalVolume, validateParams } from './validate-params';
 
@@ -80,6 +82,8 @@ interface SimBreath {
   gas: BreathGas;
   next: Co2BodyState;
   curve: ExpiredCurve;
+  /** compartment gas values ('compartments' lung model only) */
+  comp?: CompartmentGas;
 }
 
 /** Gas-exchange inputs at recording time tS (event-driven parameters follow their events). */
@@ -170,12 +174,39 @@ function simulateBreath(run: SimRun, breathStart: number, state: Co2BodyState): 
   fillBreathWave(
     wave,
     { mode: p.mode, vtMl: vt, periodS: period, ieRatio: p.ie_ratio, pauseFraction: p.pause_fraction, rcS: p.rc_s,
-      edgeS: p.flow_edge_ms / 1000, leak, fsHz: run.fsHz },
+      edgeS: p.flow_edge_ms / 1000, leak, fsHz: run.fsHz, sampleLps: p.sample_flow_ml_min / 60000 },
     breathRng,
   );
+  if (p.lung_model === 'compartments') return { t0, g, slope3, clip, ...compartmentBreath(run, state, g, vt, t0) };
   const { gas, next } = breathGasExchange(state, g, vt, wave.n * run.dt);
   const curve = makeExpiredCurve(g.pi_co2_mmhg, p.vd_aw_ml, p.sigma_ml, p.front_shape, p.front_tail_ml, slope3, gas.alv_mean_mmhg, wave.veMl);
   return { t0, g, slope3, clip, gas, next, curve };
+}
+
+/**
+ * Gas exchange and expired curve of a breath in the 'compartments' lung model: each compartment's PCO2 from its own
+ * V/Q, then the compartments empty sequentially over the breath's expiratory time (lung-compartments.ts,
+ * sequential-emptying.ts).
+ */
+function compartmentBreath(
+  run: SimRun,
+  state: Co2BodyState,
+  g: GasInputs,
+  vt: number,
+  tS: number,
+): { gas: BreathGas; next: Co2BodyState; curve: ExpiredCurve; comp: CompartmentGas } {
+  const { p, wave } = run;
+  const comps = embolisedCompartments(p.compartments, p.embolism_compartment, paramAt(p, run.events, 'embolism_fraction', tS));
+  const { gas, comp, next } = compartmentBreathGas(state, g, comps, p, vt, wave.n * run.dt);
+  const profile = sequentialEmptyingProfile(
+    p.compartments.map((c) => c.vent_share),
+    p.compartments.map((c) => c.tau_s),
+    comp.pe_mmhg,
+    wave.veMl - p.vd_aw_ml,
+    (wave.n - wave.nExp) * run.dt,
+  );
+  const curve = makeProfileCurve(g.pi_co2_mmhg, p.vd_aw_ml, p.sigma_ml, p.front_shape, p.front_tail_ml, profile, wave.veMl);
+  return { gas, next, curve, comp };
 }
 
 /**
@@ -260,12 +291,22 @@ function truthIfInside(run: SimRun, breath: SimBreath, breathStart: number, brea
     wave.vtInspMl,
     {
       shunt_fraction: g.shunt_fraction,
-      alv_dead_space_fraction: g.alv_dead_space_fraction,
+      alv_dead_space_fraction: breath.comp ? breath.comp.unperfused_vent_fraction : g.alv_dead_space_fraction,
       q_l_min: g.q_l_min,
       vco2_ml_min: g.vco2_ml_min,
-      slope3_mmhg_per_l: breath.slope3,
+      slope3_mmhg_per_l: breath.comp ? breath.curve.b_mmhg_per_ml * 1000 : breath.slope3,
     },
+    breathExtras(run, breath),
   );
+}
+
+/** The compartment values and the sample-flow volumes of a breath's truth (empty for the plain model). */
+function breathExtras(run: SimRun, breath: SimBreath): BreathExtras {
+  const { p, wave, dt } = run;
+  const extras: BreathExtras = {};
+  if (breath.comp) extras.comp = breath.comp;
+  if (p.sample_flow_ml_min > 0) extras.sample = { ml_per_s: p.sample_flow_ml_min / 60, ti_s: wave.nExp * dt, te_s: (wave.n - wave.nExp) * dt };
+  return extras;
 }
 
 /**
@@ -276,7 +317,17 @@ export function* simulateSignals(params: SimParams, seed: number): Generator<Sim
   validateParams(params);
   const run = createRun(params, seed);
   const p = run.p;
-  let state = steadyCo2State(p.vt_ml, 60 / p.rr_bpm, gasInputsAt(p, run.events, -run.skip / run.fsHz));
+  const g0 = gasInputsAt(p, run.events, -run.skip / run.fsHz);
+  let state =
+    p.lung_model === 'compartments'
+      ? steadyCompartmentState(
+          p.vt_ml,
+          60 / p.rr_bpm,
+          g0,
+          embolisedCompartments(p.compartments, p.embolism_compartment, paramAt(p, run.events, 'embolism_fraction', -run.skip / run.fsHz)),
+          p,
+        )
+      : steadyCo2State(p.vt_ml, 60 / p.rr_bpm, g0);
   const cursor: SimCursor = { chunk: allocChunk(run.chunkN), outIndex: 0 };
   let breathStart = 0; // internal index of the current breath's first sample
   let breathNumber = 0;

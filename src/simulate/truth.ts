@@ -64,6 +64,35 @@ export interface TruthBreath {
   vco2_ml_min: number;
   /** CO2 leaving the lungs in this breath, mL STPD (equals vtco2_ml without leak, up to the front residual) */
   eliminated_ml: number;
+
+  // --- only with lung_model 'compartments' (then pa_perfused_mmhg is the end-capillary mix Pc'CO2, slope3_mmhg_per_l
+  // is the least-squares slope of the true curve over the middle half of [VDaw + 3 sigma, V_E], alv_co2_mmhg that
+  // line at the window's midpoint, and alv_dead_space_fraction the unperfused share of alveolar ventilation) ---
+  /** the phase III line (slope3_mmhg_per_l, alv_co2_mmhg) at V_E: what the analysis reports as PETCO2 by default
+   *  (petco2_method 'line_end'); petco2_mmhg is the gas itself at V_E, which a curved phase III lifts above the line */
+  petco2_line_end_mmhg?: number;
+  /** end-capillary PCO2 Pc'CO2: perfusion-weighted mix of the compartments' alveolar PCO2 */
+  pcco2_mmhg?: number;
+  /** ventilation-weighted mean PCO2 of the perfused units */
+  pa_perfused_vent_mmhg?: number;
+  /** zone-1 share of each perfused compartment (West zone 1 rule) */
+  zone1_fraction?: number;
+  /** PaCO2 - PETCO2 = grad_shunt + grad_vq + grad_dead_space + grad_emptying, mmHg */
+  grad_total_mmhg?: number;
+  /** PaCO2 - Pc'CO2: true shunt (venous admixture through no capillary) */
+  grad_shunt_mmhg?: number;
+  /** Pc'CO2 - pa_perfused_vent_mmhg: V/Q mismatch among the perfused compartments (low V/Q units weigh more in blood) */
+  grad_vq_mmhg?: number;
+  /** pa_perfused_vent_mmhg - mean alveolar expired PCO2: dilution by unperfused units (alveolar dead space incl. zone 1) */
+  grad_dead_space_mmhg?: number;
+  /** mean alveolar expired PCO2 - PETCO2: sequential emptying (negative when phase III rises) */
+  grad_emptying_mmhg?: number;
+
+  // --- only with sample_flow_ml_min > 0 ---
+  /** expired volume the flow sensor misses because the sidestream sample flow is drawn before it: Qs x Te, mL */
+  sample_loss_exp_ml?: number;
+  /** inspired volume the flow sensor reads in excess of the patient's: Qs x Ti, mL */
+  sample_gain_insp_ml?: number;
 }
 
 export interface ExportStats {
@@ -107,7 +136,7 @@ export function summariseBreaths(breaths: readonly TruthBreath[]): Record<string
   if (breaths.length === 0) return out;
   for (const key of Object.keys(breaths[0]!) as (keyof TruthBreath)[]) {
     if (NOT_SUMMARISED.has(key)) continue;
-    const values = breaths.map((b) => b[key]).filter((v) => Number.isFinite(v)).sort((a, b) => a - b);
+    const values = breaths.map((b) => b[key]).filter((v): v is number => Number.isFinite(v)).sort((a, b) => a - b);
     if (values.length === 0) continue;
     const m = values.length >> 1;
     out[key] = values.length % 2 === 1 ? values[m]! : (values[m - 1]! + values[m]!) / 2;

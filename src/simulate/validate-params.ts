@@ -55,6 +55,82 @@ function checkCurveAndGasExchange(p: SimParams): void {
   checkNumber(p, 'compliance_ml_per_cmh2o', 0.1, 500);
 }
 
+/** Each compartment of the 'compartments' lung model, and that the shares add up. */
+function checkCompartments(p: SimParams): void {
+  const list = p.compartments as unknown;
+  if (!Array.isArray(list) || list.length < 1 || list.length > 6) {
+    throw new RangeError(`simulate: compartments must be a list of 1 to 6 {vent_share, perf_share, tau_s} (got ${JSON.stringify(list)})`);
+  }
+  let vent = 0;
+  let perf = 0;
+  list.forEach((c: unknown, i: number) => {
+    const x = c as Record<string, unknown>;
+    const ok = (v: unknown, lo: number, hi: number, loOpen: boolean) =>
+      typeof v === 'number' && Number.isFinite(v) && (loOpen ? v > lo : v >= lo) && v <= hi;
+    if (!(x && ok(x.vent_share, 0, 1, true) && ok(x.perf_share, 0, 1, false) && ok(x.tau_s, 0.02, 20, false))) {
+      throw new RangeError(
+        `simulate: compartment ${i + 1} ${JSON.stringify(c)}: need vent_share > 0 and <= 1, perf_share 0-1, tau_s 0.02-20 s`,
+      );
+    }
+    vent += x.vent_share as number;
+    perf += x.perf_share as number;
+  });
+  if (Math.abs(vent - 1) > 1e-6) throw new RangeError(`simulate: the compartments' vent_share must add up to 1 (got ${vent})`);
+  if (Math.abs(perf - 1) > 1e-6) throw new RangeError(`simulate: the compartments' perf_share must add up to 1 (got ${perf})`);
+}
+
+/** The embolised compartment exists and is not the only perfused one; the blocked share and its events are 0-1. */
+function checkEmbolism(p: SimParams): void {
+  checkNumber(p, 'embolism_compartment', 0, p.compartments.length);
+  if (!Number.isInteger(p.embolism_compartment)) {
+    throw new RangeError(`simulate: embolism_compartment must be a whole compartment number (got ${p.embolism_compartment})`);
+  }
+  checkNumber(p, 'embolism_fraction', 0, 1);
+  const events = (Array.isArray(p.events) ? p.events : []).filter((e) => e && e.param === 'embolism_fraction');
+  const bad = events.find((e) => !(e.to >= 0 && e.to <= 1));
+  if (bad) throw new RangeError(`simulate: an embolism_fraction event must go to a value 0-1 (got ${bad.to})`);
+  if (p.embolism_compartment === 0) {
+    if (p.embolism_fraction !== 0 || events.length > 0) throw new RangeError('simulate: embolism_fraction needs an embolism_compartment (1 or more)');
+    return;
+  }
+  const target = p.compartments[p.embolism_compartment - 1]!;
+  if (!(target.perf_share > 0) || !(target.perf_share < 1)) {
+    throw new RangeError(
+      `simulate: the embolised compartment ${p.embolism_compartment} must have blood flow to lose and another perfused compartment to take it (perf_share ${target.perf_share})`,
+    );
+  }
+}
+
+/** The lung model and what it needs: compartments and the zone-1 rule, and the inputs it replaces set to 0. */
+function checkLungModel(p: SimParams): void {
+  checkOneOf(p, 'lung_model', ['single', 'compartments']);
+  if (p.lung_model === 'single') {
+    if (!Array.isArray(p.compartments) || p.compartments.length > 0) {
+      throw new RangeError("simulate: compartments are used only with lung_model 'compartments'; leave the list empty");
+    }
+    const embolismEvent = Array.isArray(p.events) && p.events.some((e) => e && e.param === 'embolism_fraction');
+    if (p.embolism_compartment !== 0 || p.embolism_fraction !== 0 || embolismEvent) {
+      throw new RangeError("simulate: embolism_compartment and embolism_fraction (and their events) need lung_model 'compartments'");
+    }
+    return;
+  }
+  checkCompartments(p);
+  checkEmbolism(p);
+  checkNumber(p, 'zone1_lung_height_cm', 0, 40);
+  if (p.zone1_lung_height_cm > 0) checkNumber(p, 'zone1_pa_level_cm', 0, p.zone1_lung_height_cm);
+  checkNumber(p, 'zone1_pla_mmhg', 0, 40);
+  checkNumber(p, 'zone1_pvr_mmhg_min_per_l', 0, 20);
+  checkNumber(p, 'zone1_palv_cmh2o', 0, 50);
+  for (const name of ['alv_dead_space_fraction', 'slope3_mmhg_per_l'] as const) {
+    if (p[name] !== 0) {
+      throw new RangeError(`simulate: with lung_model 'compartments' ${name} is a result of the compartments; set it to 0 (got ${p[name]})`);
+    }
+    if (Array.isArray(p.events) && p.events.some((e) => e && e.param === name)) {
+      throw new RangeError(`simulate: with lung_model 'compartments' events may not change ${name} (it is a result of the compartments)`);
+    }
+  }
+}
+
 /** The sensors and their artefacts (delay, response, noise, offset, leak, clipping, cardiogenic oscillations). */
 function checkSensors(p: SimParams): void {
   checkOneOf(p, 'sensor', ['mainstream', 'sidestream']);
@@ -64,6 +140,7 @@ function checkSensors(p: SimParams): void {
   checkNumber(p, 'flow_noise_lps', 0, 5);
   checkNumber(p, 'flow_offset_lps', -5, 5);
   checkNumber(p, 'leak_fraction', 0, 0.8);
+  checkNumber(p, 'sample_flow_ml_min', 0, 500);
   checkNumber(p, 'co2_clip_mmhg', 0, 200);
   checkNumber(p, 'cardio_flow_lps', 0, 2);
   checkNumber(p, 'cardio_co2_mmhg', 0, 20);
@@ -149,6 +226,7 @@ function checkCurveGeometry(p: SimParams): void {
 export function validateParams(p: SimParams): void {
   checkVentilation(p);
   checkCurveAndGasExchange(p);
+  checkLungModel(p);
   checkSensors(p);
   checkExportOptions(p);
   checkExportCombinations(p);

@@ -19,6 +19,14 @@ describe('determinism', () => {
     expect(Array.from(bc.flow_lps)).not.toEqual(Array.from(ba.flow_lps));
     expect(c.truth.breaths.map((x) => x.vt_insp_ml)).not.toEqual(a.truth.breaths.map((x) => x.vt_insp_ml));
   });
+  it('the compartment lung model is deterministic too (same seed, same samples and truth)', () => {
+    const p = scenarioParams('adult-mech-congested', { minutes: 1 });
+    const a = simulateRecording(p, 5);
+    const b = simulateRecording(p, 5);
+    expect(Array.from(concatBlocks(b.blocks).co2_mmhg)).toEqual(Array.from(concatBlocks(a.blocks).co2_mmhg));
+    expect(b.truth.breaths).toEqual(a.truth.breaths);
+    expect(a.truth.breaths[0]!.grad_vq_mmhg).toBeGreaterThan(0);
+  });
   it('noise level does not change the breath pattern of a seed (separate random streams)', () => {
     const quiet = simulateRecording(scenarioParams('adult-healthy', { minutes: 1, co2_noise_mmhg: 0 }), 9).truth.breaths;
     const noisy = simulateRecording(scenarioParams('adult-healthy', { minutes: 1, co2_noise_mmhg: 2 }), 9).truth.breaths;
