@@ -12,7 +12,7 @@ import { createBreathWorkspace } from './breath-workspace';
 import { decomposeBreath, type BreathDecomposition, type BreathSignals } from './decompose';
 import { fitInspiratoryFall, lowerBound } from './fall-fit';
 import { inspirationReversalTime } from './flow-reversal';
-import { checkBreath, co2GridStep, markOutliers, statusOf } from './quality';
+import { checkBreath, co2GridStep, markOutliers, statusOf, usableForSummary } from './quality';
 import { createSegmenter, type BreathBounds, type Segmenter } from './segment';
 import { countFinite, median, medianPositiveStep } from '../numeric/stats';
 
@@ -330,7 +330,7 @@ class StreamAnalyser implements Analyser {
     for (const r of rows) r.status = statusOf(r.flags);
     const c = this.cal!;
     return {
-      recording_cautions: calibrationCautions(c, this.medianDt),
+      recording_cautions: [...calibrationCautions(c, this.medianDt), ...endTidalCautions(rows, this.settings)],
       breaths: rows,
       calibration: this.cal!,
       partial_breaths: this.partial,
@@ -341,6 +341,30 @@ class StreamAnalyser implements Analyser {
       breath_delays_s: this.breathDelays,
     };
   }
+}
+
+/** A median gap between the default PETCO2 and the last expired reading above this (mmHg) is reported. */
+const PHASE3_BEND_MMHG = 1;
+
+/**
+ * A recording caution when phase III bends near the end of expiration: the default PETCO2 (the phase III line at the
+ * end of expiration, `petco2_method` `line_end`) then departs from the gas at the end of expiration (the last expired
+ * reading), e.g. when a slow region with high PCO2 empties last, and the arterial–end-tidal gradient depends on which
+ * one is meant. Medians over the breaths the summary uses; only with the default method.
+ */
+function endTidalCautions(rows: readonly BreathRow[], settings: Settings): { code: string; message: string }[] {
+  if (settings.analysis.petco2_method !== 'line_end') return [];
+  const used = rows.filter((r) => usableForSummary(r, { summary_breaths: settings.analysis.summary_breaths }));
+  const line = median(used.map((r) => r.petco2_mmhg));
+  const last = median(used.map((r) => r.petco2_last_mmhg));
+  if (!(Math.abs(last - line) > PHASE3_BEND_MMHG)) return [];
+  return [{
+    code: 'phase3_end_bends',
+    message:
+      `phase III bends near the end of expiration: the last expired reading (median ${last.toFixed(1)} mmHg) lies ` +
+      `${Math.abs(last - line).toFixed(1)} mmHg ${last > line ? 'above' : 'below'} the default PETCO2, the phase III line at the end of expiration ` +
+      `(${line.toFixed(1)} mmHg); the arterial–end-tidal gradient differs by as much; \`--petco2 last\` reports the gas itself (petco2_last_mmhg)`,
+  }];
 }
 
 /** Below this flow sampling rate (Hz) the recording carries the caution low_sampling_rate (docs/accuracy.md). */

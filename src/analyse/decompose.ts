@@ -39,7 +39,7 @@ import {
 } from './breath-integrals';
 import { createBreathWorkspace, type BreathWorkspace } from './breath-workspace';
 import { fitLineOls, fitPhase3, type Phase3Fit } from './phase3-fit';
-import { areaAboveBase, endTidalPco2, findInflection, phase3Window, phaseBoundaries } from './phase-geometry';
+import { areaAboveBase, endTidalPco2, findInflection, lastExpiredReading, phase3Window, phaseBoundaries } from './phase-geometry';
 import type { BreathBounds } from './segment';
 
 /** The breath's samples on the flow time base with its boundaries (local indices of the first sample at/after each
@@ -129,6 +129,7 @@ class BreathRowRecord implements BreathRow {
   angle23_deg = NaN;
   vae_vt = NaN;
   petco2_mmhg = NaN;
+  petco2_last_mmhg = NaN;
   peco2_mmhg = NaN;
   paeco2_mmhg = NaN;
   alv_co2_mmhg = NaN;
@@ -281,6 +282,7 @@ export function decomposeBreath(s: BreathSignals, ctx: BreathContext): BreathDec
   const poorR2 = settings.min_phase3_r2 > 0 && fit.r2 < settings.min_phase3_r2;
   if (fit.rms > settings.max_phase3_rms_mmhg || poorR2) flags.push('poor_fit');
   row.petco2_mmhg = endTidalPco2(settings, curve, samples, vte, base + fit.a + fit.b * vte);
+  row.petco2_last_mmhg = lastExpiredReading(samples);
   row.slope3_norm_per_l = normalisedPhase3Slope(row.slope3_mmhg_per_l, row.petco2_mmhg);
 
   // Fowler airway dead space on CO2 above the inspired level, up to the end of expiration or the window start

@@ -216,8 +216,7 @@ export function endTidalPco2(
     case 'line_end':
       return lineEndMmhg;
     case 'last':
-      for (let k = last - 1; k >= 1; k--) if (flow[k]! > 0) return sensor[k]!;
-      return NaN;
+      return lastExpiredReading(samples);
     case 'max': {
       let max = NaN;
       for (let k = 1; k < last; k++) if (flow[k]! > 0 && !(sensor[k]! <= max)) max = sensor[k]!;
@@ -226,6 +225,13 @@ export function endTidalPco2(
     case 'mean_last':
       return meanOverLastVolume(curve, tidalVolumeMl * (1 - settings.petco2_last_fraction));
   }
+}
+
+/** The last delay-aligned sensor reading with expiratory flow (before the final sample); NaN when none. */
+export function lastExpiredReading(samples: ExpirationSamples): number {
+  const { sensor_mmhg: sensor, flow_lps: flow } = samples;
+  for (let k = sensor.length - 2; k >= 1; k--) if (flow[k]! > 0) return sensor[k]!;
+  return NaN;
 }
 
 /** Volume-weighted mean of the compensated curve from `fromMl` to its end (trapezoid); NaN over no volume. */

@@ -151,6 +151,8 @@ export const BREATH_METRICS = [
   n('vae_vt', 'VAE/VT', '', 3, true,
     'alveolar ejection volume over expired tidal volume, (`vt_exp_ml` − start of VAE) / `vt_exp_ml`; start of VAE ASSUMED = `v_phase3_start_ml` (the source\'s own criterion not verified here)', ROMERO_1997),
   n('petco2_mmhg', 'PETCO2', 'mmHg', 1, true, 'end-tidal PCO2 (default: the phase III line at end of expiration; see `petco2_method`)', NO_SOURCE),
+  n('petco2_last_mmhg', 'PETCO2 (last reading)', 'mmHg', 1, true,
+    'the last delay-aligned sensor reading with expiratory flow: the gas itself at the end of expiration (= `petco2_mmhg` with `petco2_method` `last`); it departs from the default when phase III bends near its end', NO_SOURCE),
   n('peco2_mmhg', 'PECO2 (mixed expired)', 'mmHg', 1, true, 'mixed expired PCO2 = ∫P dV / V_E over the whole expiration', FLETCHER),
   n('paeco2_mmhg', 'Mean alveolar expired PCO2', 'mmHg', 1, true, 'average alveolar expired PCO2 = (∫P dV − PICO2 × VDaw) / (V_E − VDaw), VDaw at the sensor; the inspired term follows `bohr_inspired_term`', FLETCHER),
   n('alv_co2_mmhg', 'Alveolar PCO2 (phase III mid)', 'mmHg', 1, true,
