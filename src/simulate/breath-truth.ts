@@ -2,6 +2,7 @@ import { STPD_ML_PER_MMHG_ML } from './constants';
 import { curveArea, curvePco2, fowlerEqualArea, lineAt, type ExpiredCurve } from './expired-curve';
 import type { BreathGas } from './gas-exchange';
 import type { CompartmentGas } from './lung-compartments';
+import { phaseShapeTruth } from './phase-shape-truth';
 import type { TruthBreath } from './truth';
 
 export interface BreathTiming {
@@ -108,6 +109,7 @@ export function breathTruth(
     slope3_mmhg_per_l: cond.slope3_mmhg_per_l,
     slope3_norm_paeco2_per_l: cond.slope3_mmhg_per_l / paeco2,
     slope3_vt_norm: (cond.slope3_mmhg_per_l * (ve / 1000)) / paeco2,
+    ...phaseShapeTruth(curve, paeco2, cond.slope3_mmhg_per_l),
     vtco2_ml: veco2 - vico2,
     veco2_ml: veco2,
     vico2_ml: vico2,

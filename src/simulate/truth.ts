@@ -51,6 +51,14 @@ export interface TruthBreath {
   slope3_norm_paeco2_per_l: number;
   /** true phase III slope x vt_exp_ml / 1000 / paeco2_mmhg (the definition of breaths.csv `slope3_vt_norm`) */
   slope3_vt_norm: number;
+  /** steepest slope of the true curve in phase II, mmHg/L; its start of phase III (95 % of the line above the inspired
+   *  level, after the steepest point), mL; then the normalised phase II slope, the II/III angle and VAE/VT by the
+   *  definitions of breaths.csv (src/simulate/phase-shape-truth.ts) */
+  slope2_mmhg_per_l: number;
+  v_phase3_start_ml: number;
+  slope2_norm_paeco2_per_l: number;
+  angle23_deg: number;
+  vae_vt: number;
   /** net CO2 volume: veco2 - vico2, mL STPD */
   vtco2_ml: number;
   veco2_ml: number;
