@@ -6,12 +6,47 @@
 // multiplied by 10 after a failed one). Bounds: each trial point is clipped into the box [lower, upper] (a projected
 // step; common practice, no source). The damped normal equations are solved by a Cholesky factorisation.
 //
+// The problem hands the routine its normal equations at a parameter vector (sum of squares, J^T J, J^T r), so a model
+// evaluated on every breath can accumulate them in one fused pass over its points; pointwiseProblem builds them for
+// an ordinary model given point by point.
+//
 // Deterministic: only +, -, *, / and Math.sqrt (correctly rounded in every engine) are used here; the model supplies
 // its own values and derivatives (and uses detExp / detLog for exp and log), so results are the same bits everywhere.
 // Checked against NIST StRD certified values (tests/published/nist-strd-nonlinear.test.ts).
 
-/** Model value at x for parameters p; writes the partial derivatives d f / d p_j into grad (length p.length). */
-export type LmModel = (x: number, p: Float64Array, grad: Float64Array) => number;
+/** Normal equations at one parameter vector: sum of squared residuals r = y - f, J^T J (row-major p x p; its upper
+ *  triangle is read) and J^T r, J_ij = d f_i / d p_j. */
+export interface NormalEquations {
+  sse: number;
+  jtj: number[];
+  jtr: number[];
+}
+
+/** A least-squares problem: fills `out` at parameters p (a value that is not finite marks p as unusable). */
+export type LmProblem = (p: readonly number[], out: NormalEquations) => void;
+
+/** Model value at x for parameters p; writes d f / d p_j into grad (length p.length). */
+export type PointModel = (x: number, p: readonly number[], grad: number[]) => number;
+
+/** The problem of fitting a point model to (x_i, y_i): its normal equations, accumulated point by point. */
+export function pointwiseProblem(x: ArrayLike<number>, y: ArrayLike<number>, model: PointModel): LmProblem {
+  return (p, out) => {
+    const np = p.length;
+    const grad = zeros(np);
+    out.jtj.fill(0);
+    out.jtr.fill(0);
+    let sse = 0;
+    for (let i = 0; i < x.length; i++) {
+      const r = y[i]! - model(x[i]!, p, grad);
+      sse += r * r;
+      for (let j = 0; j < np; j++) {
+        out.jtr[j] += grad[j]! * r;
+        for (let k = j; k < np; k++) out.jtj[j * np + k] += grad[j]! * grad[k]!;
+      }
+    }
+    out.sse = sse;
+  };
+}
 
 export interface LmOptions {
   /** box bounds on the parameters (default unbounded) */
@@ -24,7 +59,7 @@ export interface LmOptions {
 }
 
 export interface LmResult {
-  params: Float64Array;
+  params: number[];
   /** residual sum of squares at params */
   sse: number;
   iterations: number;
@@ -32,36 +67,21 @@ export interface LmResult {
   converged: boolean;
 }
 
-/** Sum of squares, J^T J (upper triangle, row-major p x p) and J^T r at one parameter vector. */
-interface Normal {
-  sse: number;
-  jtj: Float64Array;
-  jtr: Float64Array;
-}
-
-function evaluate(model: LmModel, x: ArrayLike<number>, y: ArrayLike<number>, p: Float64Array, grad: Float64Array, out: Normal): boolean {
+/** The problem at p; false when the sum of squares or a diagonal entry of J^T J is not finite (a value or
+ *  derivative that is not finite shows there). */
+function evaluate(problem: LmProblem, p: readonly number[], out: NormalEquations): boolean {
+  problem(p, out);
+  if (!Number.isFinite(out.sse)) return false;
   const np = p.length;
-  out.jtj.fill(0);
-  out.jtr.fill(0);
-  let sse = 0;
-  for (let i = 0; i < x.length; i++) {
-    const r = y[i]! - model(x[i]!, p, grad);
-    sse += r * r;
-    for (let j = 0; j < np; j++) {
-      const gj = grad[j]!;
-      out.jtr[j] += gj * r;
-      for (let k = j; k < np; k++) out.jtj[j * np + k] += gj * grad[k]!;
-    }
-  }
-  out.sse = sse;
-  return Number.isFinite(sse) && out.jtr.every(Number.isFinite) && out.jtj.every(Number.isFinite);
+  for (let j = 0; j < np; j++) if (!Number.isFinite(out.jtj[j * np + j]!)) return false;
+  return true;
 }
 
 /**
  * Solves (J^T J + lambda diag(J^T J)) delta = J^T r by Cholesky (upper triangle of jtj given); false when the matrix
  * is not positive definite. `work` holds p x p numbers.
  */
-function solveDamped(jtj: Float64Array, jtr: Float64Array, lambda: number, delta: Float64Array, work: Float64Array): boolean {
+function solveDamped(jtj: readonly number[], jtr: readonly number[], lambda: number, delta: number[], work: number[]): boolean {
   const np = jtr.length;
   // L (lower, row-major) of M = L L^T, M_jk = jtj[min, max] (+ damping on the diagonal)
   for (let j = 0; j < np; j++) {
@@ -94,19 +114,24 @@ function clip(v: number, j: number, lower: ArrayLike<number> | undefined, upper:
   return v < lo ? lo : v > hi ? hi : v;
 }
 
-function normal(np: number): Normal {
-  return { sse: NaN, jtj: new Float64Array(np * np), jtr: new Float64Array(np) };
+/** n zeros in a plain array (small vectors: a plain array is much cheaper to create than a typed one, and the fit
+ *  runs on every breath). */
+function zeros(n: number): number[] {
+  const out: number[] = [];
+  for (let i = 0; i < n; i++) out.push(0);
+  return out;
+}
+
+function normal(np: number): NormalEquations {
+  return { sse: NaN, jtj: zeros(np * np), jtr: zeros(np) };
 }
 
 /**
- * Least-squares fit of model(x_i, p) to y_i from `start` (clipped into the bounds). Converged when a successful
- * step lowers the sum of squares by less than tolerance x (sum of squares) or moves every parameter by less than
+ * Least-squares solution of `problem` from `start` (clipped into the bounds). Converged when a successful step lowers the sum of squares by less than tolerance x (sum of squares) or moves every parameter by less than
  * tolerance x (|p_j| + tolerance), or when no step lowers it any more (lambda above 1e16: a minimum to rounding).
  */
 export function levenbergMarquardt(
-  model: LmModel,
-  x: ArrayLike<number>,
-  y: ArrayLike<number>,
+  problem: LmProblem,
   start: ArrayLike<number>,
   options: LmOptions = {},
 ): LmResult {
@@ -114,15 +139,14 @@ export function levenbergMarquardt(
   const { lower, upper } = options;
   const maxIterations = options.max_iterations ?? 100;
   const tol = options.tolerance ?? 1e-10;
-  const p = new Float64Array(np);
+  const p = zeros(np);
   for (let j = 0; j < np; j++) p[j] = clip(start[j]!, j, lower, upper);
-  const trial = new Float64Array(np);
-  const delta = new Float64Array(np);
-  const grad = new Float64Array(np);
-  const work = new Float64Array(np * np);
+  const trial = zeros(np);
+  const delta = zeros(np);
+  const work = zeros(np * np);
   let here = normal(np);
   let next = normal(np);
-  if (!evaluate(model, x, y, p, grad, here)) return { params: p, sse: here.sse, iterations: 0, converged: false };
+  if (!evaluate(problem, p, here)) return { params: p, sse: here.sse, iterations: 0, converged: false };
   let lambda = 1e-3;
   for (let iteration = 1; iteration <= maxIterations; iteration++) {
     if (!solveDamped(here.jtj, here.jtr, lambda, delta, work)) {
@@ -135,9 +159,9 @@ export function levenbergMarquardt(
       trial[j] = clip(p[j]! + delta[j]!, j, lower, upper);
       if (Math.abs(trial[j]! - p[j]!) > tol * (Math.abs(p[j]!) + tol)) small = false;
     }
-    if (evaluate(model, x, y, trial, grad, next) && next.sse <= here.sse) {
+    if (evaluate(problem, trial, next) && next.sse <= here.sse) {
       const gain = here.sse - next.sse;
-      p.set(trial);
+      for (let j = 0; j < np; j++) p[j] = trial[j]!;
       [here, next] = [next, here];
       if (small || gain <= tol * here.sse) return { params: p, sse: here.sse, iterations: iteration, converged: true };
       lambda = Math.max(lambda / 10, 1e-12);

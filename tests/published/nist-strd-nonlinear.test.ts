@@ -8,12 +8,12 @@
 // (the usual test of a double-precision solver) and 9 in the sum of squares (flat at its minimum).
 // The models are computed here with Math.exp / Math.pow (a test may; the core uses detExp).
 import { describe, expect, it } from 'vitest';
-import { levenbergMarquardt, type LmModel } from '../../src/numeric/levenberg-marquardt';
+import { levenbergMarquardt, pointwiseProblem, type PointModel } from '../../src/numeric/levenberg-marquardt';
 import { expectClose } from '../helpers/expect-close';
 
 interface Dataset {
   name: string;
-  model: LmModel;
+  model: PointModel;
   x: number[];
   y: number[];
   starts: number[][];
@@ -79,7 +79,7 @@ describe('levenbergMarquardt against NIST StRD nonlinear regression (certified v
   for (const d of [misra1a, rat42, rat43]) {
     d.starts.forEach((start, k) => {
       it(`${d.name}, start ${k + 1}: certified parameters and residual sum of squares`, () => {
-        const fit = levenbergMarquardt(d.model, d.x, d.y, start, { max_iterations: 500, tolerance: 1e-12 });
+        const fit = levenbergMarquardt(pointwiseProblem(d.x, d.y, d.model), start, { max_iterations: 500, tolerance: 1e-12 });
         expect(fit.converged).toBe(true);
         d.certified.forEach((b, j) => expectClose(fit.params[j]!, b, { rel: 1e-6 }, `${d.name} b${j + 1}`));
         expectClose(fit.sse, d.rss, { rel: 1e-9 }, `${d.name} residual sum of squares`);
@@ -88,7 +88,7 @@ describe('levenbergMarquardt against NIST StRD nonlinear regression (certified v
   }
 
   it('keeps the parameters inside given bounds (Rat42 with b1 capped below its certified value)', () => {
-    const fit = levenbergMarquardt(rat42.model, rat42.x, rat42.y, [75, 2.5, 0.07], { upper: [70, Infinity, Infinity], max_iterations: 500 });
+    const fit = levenbergMarquardt(pointwiseProblem(rat42.x, rat42.y, rat42.model), [75, 2.5, 0.07], { upper: [70, Infinity, Infinity], max_iterations: 500 });
     expect(fit.converged).toBe(true);
     expect(fit.params[0]).toBe(70);
     // the cap raises the sum of squares above the certified (unconstrained) minimum
@@ -96,7 +96,7 @@ describe('levenbergMarquardt against NIST StRD nonlinear regression (certified v
   });
 
   it('reports no convergence when the iteration limit is reached', () => {
-    const fit = levenbergMarquardt(rat43.model, rat43.x, rat43.y, [100, 10, 1, 1], { max_iterations: 2 });
+    const fit = levenbergMarquardt(pointwiseProblem(rat43.x, rat43.y, rat43.model), [100, 10, 1, 1], { max_iterations: 2 });
     expect(fit.converged).toBe(false);
   });
 });
