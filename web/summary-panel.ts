@@ -46,5 +46,7 @@ export function renderSummary(host: HTMLElement, s: Summary): void {
       ]),
     );
   }
-  host.replaceChildren(counts, reasonLine, ...(cautionLines.length ? [cautionList] : []), cal, table);
+  // breaths whose whole-expirogram fit gave no value are counted, not dropped silently
+  const noFit = b.no_curve_fit > 0 ? [h('p', { class: 'no-fit', id: 'sum-no-fit', text: `airway dead space (curve fit): no fit in ${b.no_curve_fit} of ${used} breaths in the medians` })] : [];
+  host.replaceChildren(counts, reasonLine, ...(cautionLines.length ? [cautionList] : []), ...noFit, cal, table);
 }

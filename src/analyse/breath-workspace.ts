@@ -19,6 +19,8 @@ export interface BreathWorkspace {
   grid_mmhg: Float64Array;
   grid_slope: Float64Array;
   grid_slope_smoothed: Float64Array;
+  /** the compensated curve above the inspired level on the volume grid of the whole-expirogram fit */
+  fit_grid_mmhg: Float64Array;
 }
 
 type FloatKey = { [K in keyof BreathWorkspace]: BreathWorkspace[K] extends Float64Array ? K : never }[keyof BreathWorkspace];
@@ -38,6 +40,7 @@ export function createBreathWorkspace(): BreathWorkspace {
     grid_mmhg: empty(),
     grid_slope: empty(),
     grid_slope_smoothed: empty(),
+    fit_grid_mmhg: empty(),
   };
 }
 

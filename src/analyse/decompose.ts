@@ -38,8 +38,9 @@ import {
   type SensorRange,
 } from './breath-integrals';
 import { createBreathWorkspace, type BreathWorkspace } from './breath-workspace';
+import { fitExpirogram, type ExpirogramStart } from './expirogram-fit';
 import { fitLineOls, fitPhase3, type Phase3Fit } from './phase3-fit';
-import { areaAboveBase, endTidalPco2, findInflection, lastExpiredReading, phase3Window, phaseBoundaries } from './phase-geometry';
+import { areaAboveBase, endTidalPco2, findInflection, lastExpiredReading, phase3Window, phaseBoundaries, type Inflection } from './phase-geometry';
 import type { BreathBounds } from './segment';
 
 /** The breath's samples on the flow time base with its boundaries (local indices of the first sample at/after each
@@ -117,6 +118,8 @@ class BreathRowRecord implements BreathRow {
   vt_exp_ml_per_kg = NaN;
   vd_aw_ml = NaN;
   vd_inflection_ml = NaN;
+  vd_fit_ml = NaN;
+  vd_fit_rms_mmhg = NaN;
   v_phase2_start_ml = NaN;
   v_phase3_start_ml = NaN;
   slope2_mmhg_per_l = NaN;
@@ -293,6 +296,11 @@ export function decomposeBreath(s: BreathSignals, ctx: BreathContext): BreathDec
   const expiredAreaMmhgMl = expiration.co2_area_mmhg_ml;
   recordDeadSpaces(row, flags, settings, { fowlerMl, windowFromMl: window.from_ml, expiredAreaMmhgMl, alveolarLineMmhg });
   recordPhaseShape(row);
+  const fitted = fitExpirogram(curve, vte, base, expirogramStart(fit, fowlerMl, inflection, vte), workspace);
+  if (fitted) {
+    row.vd_fit_ml = patientDeadSpaceMl(fitted.mid_ml, settings.apparatus_ml);
+    row.vd_fit_rms_mmhg = fitted.rms_mmhg;
+  }
   return { row, geometry, flags };
 }
 
@@ -308,6 +316,19 @@ function recordPhaseShape(row: BreathRow): void {
   row.slope3_vt_norm = tidalVolumeNormalisedPhase3Slope(row.slope3_mmhg_per_l, row.vt_exp_ml, row.paeco2_mmhg);
   row.angle23_deg = phase23AngleDeg(row.slope2_norm_paeco2_per_l, row.slope3_norm_paeco2_per_l);
   row.vae_vt = alveolarEjectionFraction(row.vt_exp_ml, row.v_phase3_start_ml);
+}
+
+/**
+ * Starting values of the whole-expirogram fit (expirogram-fit.ts): the phase III line, the midpoint at Fowler's
+ * volume (else the inflection, else V_E / 4), and the width whose logistic has the measured phase II slope at the
+ * midpoint (a logistic rise onto L has its steepest slope L / (4 w) there; derived here), else V_E / 20.
+ */
+function expirogramStart(fit: Phase3Fit, fowlerMl: number, inflection: Inflection | null, tidalVolumeMl: number): ExpirogramStart {
+  const inside = (v: number) => v > 0 && v < tidalVolumeMl;
+  const mid = inside(fowlerMl) ? fowlerMl : inflection && inside(inflection.volume_ml) ? inflection.volume_ml : 0.25 * tidalVolumeMl;
+  const lineAtMid = fit.a + fit.b * mid;
+  const width = inflection && inflection.slope_mmhg_per_ml > 0 && lineAtMid > 0 ? lineAtMid / (4 * inflection.slope_mmhg_per_ml) : 0.05 * tidalVolumeMl;
+  return { a_mmhg: fit.a, b_mmhg_per_ml: fit.b, mid_ml: mid, width_ml: width };
 }
 
 /**

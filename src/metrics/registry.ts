@@ -134,6 +134,10 @@ export const BREATH_METRICS = [
     "airway dead space by Fowler's equal-area construction on CO2 above the inspired level, upper limit V_E (setting), minus `apparatus_ml`", FOWLER),
   n('vd_inflection_ml', 'Airway dead space (inflection)', 'mL', 1, true,
     'airway dead space as the phase II inflection (steepest point), sub-sample refined', TUSMAN_2012),
+  n('vd_fit_ml', 'Airway dead space (curve fit)', 'mL', 1, true,
+    'airway dead space as the midpoint of a logistic rise onto the phase III line, (a + bV) / (1 + exp(−(V − m)/w)), fitted to the whole expirogram (Levenberg-Marquardt), minus `apparatus_ml`; empty when the fit does not converge (counted in summary.json `breaths.no_curve_fit`)', DERIVED),
+  n('vd_fit_rms_mmhg', 'Curve fit residual (RMS)', 'mmHg', 2, false,
+    'root mean square residual of that fit over the expirogram (101 points evenly spaced in volume from 0 to V_E)', DERIVED),
   n('v_phase2_start_ml', 'Phase II start', 'mL', 1, false, 'expired volume where CO2 leaves 5 % of the phase III line', DERIVED),
   n('v_phase3_start_ml', 'Phase III start', 'mL', 1, false, 'expired volume where CO2 first reaches 95 % of the phase III line after the inflection', DERIVED),
   n('slope2_mmhg_per_l', 'Phase II slope', 'mmHg/L', 0, false, 'steepest phase II slope', TUSMAN_2012),
@@ -218,13 +222,13 @@ export function blankBreathRow(): BreathRow {
 
 /** The terminal summary table (median, p25, p75, n over ok breaths; shown when n > 0). */
 export const TERMINAL_SUMMARY_ROWS: readonly SummaryKey[] = [
-  'rr_bpm', 'vt_exp_ml', 'vt_insp_ml', 'vd_aw_ml', 'vd_inflection_ml', 'slope3_mmhg_per_l', 'slope3_norm_paeco2_per_l', 'petco2_mmhg', 'peco2_mmhg',
+  'rr_bpm', 'vt_exp_ml', 'vt_insp_ml', 'vd_aw_ml', 'vd_inflection_ml', 'vd_fit_ml', 'slope3_mmhg_per_l', 'slope3_norm_paeco2_per_l', 'petco2_mmhg', 'peco2_mmhg',
   'alv_co2_mmhg', 'vtco2_ml', 'vco2_ml_min', 'vco2_ml_kg_min', 'vdaw_vt', 'vd_aw_ml_per_kg', 'vdvt_bohr', 'vd_bohr_ml', 'vd_alv_bohr_ml', 'vdvt_enghoff', 'vd_enghoff_ml', 'vdalv_vtalv',
 ];
 
 /** The viewer's recording summary panel. */
 export const VIEWER_SUMMARY_ROWS: readonly SummaryKey[] = [
-  'rr_bpm', 'vt_exp_ml', 'vd_aw_ml', 'vd_inflection_ml', 'vd_alv_bohr_ml', 'vd_bohr_ml', 'vdvt_bohr', 'vd_enghoff_ml',
+  'rr_bpm', 'vt_exp_ml', 'vd_aw_ml', 'vd_inflection_ml', 'vd_fit_ml', 'vd_alv_bohr_ml', 'vd_bohr_ml', 'vdvt_bohr', 'vd_enghoff_ml',
   'vdvt_enghoff', 'slope3_mmhg_per_l', 'petco2_mmhg', 'peco2_mmhg', 'vtco2_ml',
 ];
 
@@ -232,12 +236,15 @@ export const VIEWER_SUMMARY_ROWS: readonly SummaryKey[] = [
 export const VIEWER_BREATH_GROUPS: readonly (readonly [string, readonly NumericBreathKey[]])[] = [
   ['timing', ['t_start_s', 'rr_bpm', 'ti_s', 'te_s']],
   ['volumes', ['vt_insp_ml', 'vt_exp_ml', 'vt_exp_ml_per_kg']],
-  ['dead space', ['vd_aw_ml', 'vd_aw_ml_per_kg', 'vdaw_vt', 'vt_alv_ml', 'vd_inflection_ml', 'vd_alv_bohr_ml', 'vd_bohr_ml', 'vdvt_bohr', 'vd_enghoff_ml', 'vd_enghoff_ml_per_kg', 'vdvt_enghoff', 'vdalv_vtalv', 'fletcher_x_mmhg_ml', 'fletcher_y_mmhg_ml', 'fletcher_z_mmhg_ml', 'co2_efficiency']],
+  ['dead space', [
+    'vd_aw_ml', 'vd_aw_ml_per_kg', 'vdaw_vt', 'vt_alv_ml', 'vd_inflection_ml', 'vd_fit_ml', 'vd_fit_rms_mmhg', 'vd_alv_bohr_ml', 'vd_bohr_ml',
+    'vdvt_bohr', 'vd_enghoff_ml', 'vd_enghoff_ml_per_kg', 'vdvt_enghoff', 'vdalv_vtalv', 'fletcher_x_mmhg_ml', 'fletcher_y_mmhg_ml', 'fletcher_z_mmhg_ml', 'co2_efficiency',
+  ]],
   ['phases', [
     'v_phase2_start_ml', 'v_phase3_start_ml', 'slope2_mmhg_per_l', 'slope3_mmhg_per_l', 'slope3_norm_per_l', 'slope3_r2',
     'slope3_norm_paeco2_per_l', 'slope3_vt_norm', 'slope2_norm_paeco2_per_l', 'angle23_deg', 'vae_vt',
   ]],
-  ['CO2', ['petco2_mmhg', 'peco2_mmhg', 'alv_co2_mmhg', 'paeco2_mmhg', 'fico2_mmhg', 'vtco2_ml', 'vco2_ml_min', 'vco2_ml_kg_min', 'veco2_ml', 'vico2_ml', 'delay_s']],
+  ['CO2', ['petco2_mmhg', 'petco2_last_mmhg', 'peco2_mmhg', 'alv_co2_mmhg', 'paeco2_mmhg', 'fico2_mmhg', 'vtco2_ml', 'vco2_ml_min', 'vco2_ml_kg_min', 'veco2_ml', 'vico2_ml', 'delay_s']],
 ];
 
 // ---------------------------------------------------------------------------------------------------------------

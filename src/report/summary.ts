@@ -44,6 +44,9 @@ export interface Summary {
     caution_by_reason: Record<string, number>;
     /** excluded breaths by excluding code (a breath with two codes counts under both) */
     excluded_by_reason: Record<string, number>;
+    /** breaths in the medians without a curve-fit airway dead space (`vd_fit_ml` empty: the whole-expirogram fit did
+     *  not converge or ended on a bound) */
+    no_curve_fit: number;
   };
   /** what the reader of the medians should know: caution codes carried by breaths in the medians (with their count),
    *  and recording-level cautions from the analysis (AnalysisCore.recording_cautions, breaths null) */
@@ -200,6 +203,7 @@ export function buildSummary(
   for (const rc of core.recording_cautions ?? []) recordingCautions.push({ code: rc.code, message: rc.message, breaths: null });
   const c = core.calibration;
   const d = [...core.breath_delays_s].sort((a, b) => a - b);
+  const inMedians = rows.filter((r) => usableForSummary(r, { summary_breaths: mediansOver }));
   return {
     tool: 'phasewise',
     version: VERSION,
@@ -221,6 +225,7 @@ export function buildSummary(
       medians_over: mediansOver,
       caution_by_reason: cautionByReason,
       excluded_by_reason: reasonCounts(rows),
+      no_curve_fit: inMedians.filter((r) => !Number.isFinite(r.vd_fit_ml)).length,
     },
     recording_cautions: recordingCautions,
     delay_s: {
@@ -244,7 +249,7 @@ export function buildSummary(
       origin: c.offset_origin,
       source: c.offset_source,
       uncertainty_lps: finiteOrNull(c.offset_uncertainty_lps),
-      remaining_leak_fraction: finiteOrNull(remainingLeak(rows.filter((r) => usableForSummary(r, { summary_breaths: mediansOver })))),
+      remaining_leak_fraction: finiteOrNull(remainingLeak(inMedians)),
     },
     expiration: { value: c.sign > 0 ? 'positive' : 'negative', origin: c.sign_origin },
     metrics: metricSummaries(rows, { summary_breaths: mediansOver }),
@@ -290,13 +295,16 @@ export function formatSummaryText(s: Summary): string {
   }
   const cautions = Object.entries(s.breaths.caution_by_reason).filter(([, n]) => n > 0);
   const reasons = Object.entries(s.breaths.excluded_by_reason).filter(([, n]) => n > 0);
-  if (cautions.length || reasons.length || s.recording_cautions.length) lines.push('');
+  if (cautions.length || reasons.length || s.recording_cautions.length || s.breaths.no_curve_fit > 0) lines.push('');
   if (cautions.length) {
     const where = s.breaths.medians_over === 'ok_only' ? 'left out of the medians (analysis.summary_breaths ok_only)' : 'kept in the medians';
     lines.push(`caution breaths by reason (${where}): ${cautions.map(([k, n]) => `${k} ${n}`).join(', ')}`);
   }
   if (reasons.length) lines.push(`excluded breaths by reason: ${reasons.map(([k, n]) => `${k} ${n}`).join(', ')}`);
   const used = s.breaths.ok + (s.breaths.medians_over === 'ok_only' ? 0 : s.breaths.caution);
+  if (s.breaths.no_curve_fit > 0) {
+    lines.push(`airway dead space (curve fit): no fit in ${s.breaths.no_curve_fit} of ${used} breaths in the medians (empty vd_fit_ml; the fit did not converge)`);
+  }
   for (const rc of s.recording_cautions) {
     const what = rc.message.replace(/^caution: /, '');
     if (rc.breaths === null) lines.push(`caution: ${rc.code} (whole recording): ${what}`);
