@@ -15,7 +15,7 @@ export {
   type TrendSettings,
   type FallWithoutGas,
 } from './settings';
-export { parseSettingsFile, applySettings, settingsFileSchema, gasSchema, SettingsError, type SettingsFile, type GasFileSettings } from './settings-file';
+export { parseSettingsFile, applySettings, SettingsError, type SettingsFile, type GasFileSettings } from './settings-file';
 
 // The metric registry: every output column with label, unit, decimals, meaning and source
 export * from './metrics/registry';
