@@ -65,6 +65,7 @@ export {
   type SummaryBreaths,
 } from './analyse/quality';
 export { analyseText, type TextAnalysis } from './pipeline/analyse-text';
+export { analyseBytes } from './pipeline/analyse-bytes';
 
 // Report composition: every output file of a recording, the same for the CLI, batch mode and the viewer
 export {

@@ -3,7 +3,7 @@
 //   web/) and no Node built-in (node:*), so it stays browser-safe;
 // - batch mode imports nothing from the CLI (what both need lives in src/node or the core);
 // - src/settings.ts, the base every stage reads, imports nothing at all from the feature folders;
-// - package.json's public entry exists and is the core's src/index.ts.
+// - package.json's public entry is built from the core's src/index.ts.
 import { readdirSync, readFileSync, existsSync } from 'node:fs';
 import { dirname, join, relative, resolve } from 'node:path';
 import { fileURLToPath } from 'node:url';
@@ -73,9 +73,17 @@ describe('layers', () => {
     expect(found).toEqual([]);
   });
 
-  it("package.json's public entry is the core's src/index.ts", () => {
-    const pkg = JSON.parse(readFileSync(join(ROOT, 'package.json'), 'utf8')) as { exports: Record<string, string> };
-    expect(pkg.exports['.']).toBe('./src/index.ts');
+  it("package.json's public entry is built from the core's src/index.ts", () => {
+    const pkg = JSON.parse(readFileSync(join(ROOT, 'package.json'), 'utf8')) as { exports: Record<string, Record<string, string>> };
+    expect(pkg.exports['.']).toEqual({
+      types: './dist/types/index.d.ts',
+      node: './dist/lib/phasewise.node.js',
+      default: './dist/lib/phasewise.browser.js',
+    });
+    // both library bundles and the declarations start at src/index.ts (scripts/build.mjs, scripts/build-types.mjs)
+    const build = readFileSync(join(ROOT, 'scripts/build.mjs'), 'utf8');
+    expect(build.match(/entryPoints: \['src\/index\.ts'\]/g)?.length).toBe(2);
+    expect(readFileSync(join(ROOT, 'scripts/build-types.mjs'), 'utf8')).toContain("join(srcDir, 'index.ts')");
     expect(existsSync(join(ROOT, 'src/index.ts'))).toBe(true);
   });
 });
