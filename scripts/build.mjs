@@ -4,9 +4,11 @@
 //   dist/lib/phasewise.node.js     the library entry for Node (ESM bundle of src/index.ts)
 //   dist/lib/phasewise.browser.js  the same for browsers and bundlers (ESM, no node: imports)
 //   dist/types/                    its type declarations (scripts/build-types.mjs)
+//   dist/web/                      the review viewer (Vite build of web/), served by `phasewise view`
 import { build } from 'esbuild';
 import { existsSync } from 'node:fs';
 import { spawnSync } from 'node:child_process';
+import { resolve } from 'node:path';
 
 const forPackage = process.argv.includes('--package');
 
@@ -57,6 +59,8 @@ if (forPackage) {
     logLevel: 'warning',
     legalComments: 'none',
   });
+  const { build: viteBuild } = await import('vite');
+  await viteBuild({ configFile: 'vite.config.ts', logLevel: 'error', build: { outDir: resolve('dist/web'), emptyOutDir: true } });
   const r = spawnSync(process.execPath, ['scripts/build-types.mjs', 'dist/types'], { stdio: 'inherit' });
   if (r.status !== 0) process.exit(r.status ?? 1);
 }

@@ -6,10 +6,11 @@
 //     CommonJS `require('phasewise')` where Node can require an ES module (20.19 and later);
 //   - `tsc --noEmit` on a TypeScript file importing 'phasewise' (node16/nodenext and bundler resolution, the
 //     declarations checked too: skipLibCheck false), so the types resolve without any of our dependencies;
-//   - every example of docs/api.md.
+//   - every example of docs/api.md;
+//   - `phasewise view` serves the packaged viewer page, its start list and a sample over loopback (fetched once).
 // It packs what `npm test` built (`node scripts/build.mjs --package`, the same step as `prepack`); run that first
 // when running this file alone (`npm run build:package`).
-import { spawnSync, type SpawnSyncReturns } from 'node:child_process';
+import { spawn, spawnSync, type SpawnSyncReturns } from 'node:child_process';
 import { existsSync, mkdirSync, mkdtempSync, readdirSync, readFileSync, rmSync, statSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
@@ -32,6 +33,7 @@ const RUNTIME_FILES = [
   'dist/read-worker.cjs',
   'dist/batch-worker.cjs',
   'dist/types/index.d.ts',
+  'dist/web/index.html',
   'docs/api.md',
   'docs/manual.md',
   `sample-waveforms/${SAMPLE}`,
@@ -170,6 +172,50 @@ describe('the packed package', () => {
       expect(out.trim().length, `example ${i + 1}`).toBeGreaterThan(0);
       expect(out, `example ${i + 1}`).not.toMatch(/NaN|undefined/);
     });
+  });
+
+  it('`phasewise view` serves the packaged viewer on loopback, with the samples and the given recording', async () => {
+    const bin = join(app, 'node_modules', '.bin', 'phasewise');
+    const child = spawn(bin, ['view', join('node_modules', 'phasewise', 'sample-waveforms', 'child-sidestream.csv'), '--port', '0'], { cwd: app, stdio: ['ignore', 'pipe', 'pipe'] });
+    try {
+      const url = await new Promise<string>((ok, bad) => {
+        let text = '';
+        const timer = setTimeout(() => bad(new Error(`no address within 20 s: ${text}`)), 20_000);
+        child.stdout.on('data', (d: Buffer) => {
+          text += d.toString();
+          const m = /http:\/\/127\.0\.0\.1:\d+\//.exec(text);
+          if (m) {
+            clearTimeout(timer);
+            ok(m[0]);
+          }
+        });
+        child.stderr.on('data', (d: Buffer) => (text += d.toString()));
+        child.once('exit', (code) => bad(new Error(`phasewise view exited ${code}: ${text}`)));
+      });
+      const page = await fetch(url);
+      expect(page.status).toBe(200);
+      const csp = page.headers.get('content-security-policy') ?? '';
+      expect(csp).toContain("connect-src 'self'");
+      expect(csp).toContain("default-src 'self'");
+      const html = await page.text();
+      expect(html).toContain('<meta name="phasewise-launch" content="launch.json" />');
+      expect(html).not.toContain("connect-src 'none'");
+      // every script and style the page names is served from the package
+      const assets = [...html.matchAll(/(?:src|href)="\.\/(assets\/[^"]+)"/g)].map((m) => m[1]!);
+      expect(assets.length).toBeGreaterThanOrEqual(2);
+      for (const ref of assets) expect((await fetch(url + ref)).status, ref).toBe(200);
+      const launch = (await (await fetch(`${url}launch.json`)).json()) as { samples: { name: string; url: string }[]; open: { url: string } | null };
+      expect(launch.samples.map((x) => x.name)).toContain(SAMPLE);
+      const sample = launch.samples.find((x) => x.name === SAMPLE)!;
+      const bytes = Buffer.from(await (await fetch(url + sample.url)).arrayBuffer());
+      expect(bytes.equals(readFileSync(join(ROOT, 'sample-waveforms', SAMPLE)))).toBe(true);
+      expect((await fetch(url + launch.open!.url)).status).toBe(200);
+      expect((await fetch(`${url}package.json`)).status).toBe(404);
+      expect((await fetch(`${url}%2e%2e/package.json`)).status).toBe(404);
+      expect((await fetch(url, { method: 'POST' })).status).toBe(405);
+    } finally {
+      child.kill('SIGTERM');
+    }
   });
 
   it('installs nothing but phasewise', () => {
