@@ -34,6 +34,7 @@ const RUNTIME_FILES = [
   'dist/batch-worker.cjs',
   'dist/types/index.d.ts',
   'dist/web/index.html',
+  'dist/THIRD-PARTY-LICENSES.txt',
   'docs/api.md',
   'docs/manual.md',
   `sample-waveforms/${SAMPLE}`,
