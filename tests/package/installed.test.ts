@@ -16,6 +16,7 @@ import { tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { expectClose } from '../helpers/expect-close';
 
 const ROOT = resolve(fileURLToPath(new URL('../..', import.meta.url)));
 const PKG = JSON.parse(readFileSync(join(ROOT, 'package.json'), 'utf8')) as {
@@ -46,6 +47,7 @@ const RUNTIME_FILES = [
 let work = '';
 let app = '';
 let packed: string[] = [];
+let sizes = { packed: 0, unpacked: 0 };
 
 function run(cmd: string, args: string[], cwd: string, timeout = 60_000): SpawnSyncReturns<string> {
   const r = spawnSync(cmd, args, { cwd, encoding: 'utf8', timeout, env: { ...process.env, npm_config_audit: 'false', npm_config_fund: 'false', npm_config_update_notifier: 'false' } });
@@ -64,8 +66,9 @@ beforeAll(() => {
   work = mkdtempSync(join(tmpdir(), 'phasewise-pack-'));
   // the build is the prepack step; npm test has just run it, so pack what is there
   const pack = run('npm', ['pack', '--ignore-scripts', '--json', '--pack-destination', work], ROOT);
-  const info = JSON.parse(pack.stdout) as { filename: string; files: { path: string }[] }[];
+  const info = JSON.parse(pack.stdout) as { filename: string; size: number; unpackedSize: number; files: { path: string }[] }[];
   packed = info[0]!.files.map((f) => f.path);
+  sizes = { packed: info[0]!.size, unpacked: info[0]!.unpackedSize };
   app = join(work, 'app');
   mkdirSync(app);
   writeFileSync(join(app, 'package.json'), JSON.stringify({ name: 'phasewise-install-check', private: true, type: 'module' }));
@@ -90,6 +93,13 @@ describe('the packed package', () => {
     // every file the installed copy holds came from the tarball, with the same bytes as the repository's
     const installed = join(app, 'node_modules', 'phasewise');
     for (const f of RUNTIME_FILES) expect(readFileSync(join(installed, f)).equals(readFileSync(join(ROOT, f))), f).toBe(true);
+  });
+
+  it('the README states the tarball size within 10 %', () => {
+    const m = /([\d.]+) MB packed and ([\d.]+) MB unpacked/.exec(readFileSync(join(ROOT, 'README.md'), 'utf8'));
+    expect(m, 'README: "N MB packed and N MB unpacked"').not.toBeNull();
+    expectClose(Number(m![1]), sizes.packed / 1e6, { rel: 0.1 }, 'packed MB');
+    expectClose(Number(m![2]), sizes.unpacked / 1e6, { rel: 0.1 }, 'unpacked MB');
   });
 
   it('`npx phasewise --version` prints the version', () => {
@@ -202,9 +212,11 @@ describe('the packed package', () => {
       expect(html).toContain('<meta name="phasewise-launch" content="launch.json" />');
       expect(html).not.toContain("connect-src 'none'");
       // every script and style the page names is served from the package
-      const assets = [...html.matchAll(/(?:src|href)="\.\/(assets\/[^"]+)"/g)].map((m) => m[1]!);
-      expect(assets.length).toBeGreaterThanOrEqual(2);
-      for (const ref of assets) expect((await fetch(url + ref)).status, ref).toBe(200);
+      // the page's entry script, and every asset of the packaged build (the app, its styles and both workers)
+      expect(html).toMatch(/src="\.\/assets\/[^"]+\.js"/);
+      const assets = readdirSync(join(app, 'node_modules', 'phasewise', 'dist', 'web', 'assets'));
+      expect(assets.filter((n) => n.endsWith('.js')).length).toBeGreaterThanOrEqual(3);
+      for (const n of assets) expect((await fetch(`${url}assets/${n}`)).status, n).toBe(200);
       const launch = (await (await fetch(`${url}launch.json`)).json()) as { samples: { name: string; url: string }[]; open: { url: string } | null };
       expect(launch.samples.map((x) => x.name)).toContain(SAMPLE);
       const sample = launch.samples.find((x) => x.name === SAMPLE)!;
