@@ -1,4 +1,5 @@
-// Emits the library's type declarations (dist/types, from src/index.ts and what it imports) with the TypeScript
+// Emits the library's type declarations (dist/types, from src/index.ts, the Node entry src/node/library.ts and what
+// they import) with the TypeScript
 // compiler pinned in devDependencies, then makes them usable in a project that has none of our dependencies:
 //  - zod is bundled into the JavaScript, so its types must not be needed: the zod schema values are dropped from the
 //    declarations (they are not part of the package entry) and every `z.infer<typeof schema>` type is written out
@@ -34,7 +35,7 @@ const options = {
 };
 
 rmSync(outDir, { recursive: true, force: true });
-const program = ts.createProgram([join(srcDir, 'index.ts'), join(srcDir, 'types', 'ml-regression.d.ts')], options);
+const program = ts.createProgram([join(srcDir, 'index.ts'), join(srcDir, 'node', 'library.ts'), join(srcDir, 'types', 'ml-regression.d.ts')], options);
 const diagnostics = [...ts.getPreEmitDiagnostics(program)];
 const emitted = program.emit();
 diagnostics.push(...emitted.diagnostics);

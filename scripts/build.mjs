@@ -1,7 +1,7 @@
 // Bundles the CLI (and the benchmark) into single CommonJS files with esbuild so they start fast.
 // With --package (the `prepack` step, so every `npm pack` / `npm publish`) it also builds what the installed package
 // needs besides the CLI, all self-contained so an installed phasewise has no runtime dependencies:
-//   dist/lib/phasewise.node.js     the library entry for Node (ESM bundle of src/index.ts)
+//   dist/lib/phasewise.node.js     the library entry for Node (ESM bundle of src/node/library.ts: src/index.ts + files)
 //   dist/lib/phasewise.browser.js  the same for browsers and bundlers (ESM, no node: imports)
 //   dist/types/                    its type declarations (scripts/build-types.mjs)
 //   dist/web/                      the review viewer (Vite build of web/), served by `phasewise view`
@@ -49,7 +49,7 @@ if (forPackage) {
   // mode alone), which an ESM bundle has to get through createRequire.
   const forNode = await build({
     metafile: true,
-    entryPoints: ['src/index.ts'],
+    entryPoints: ['src/node/library.ts'],
     bundle: true,
     platform: 'node',
     format: 'esm',

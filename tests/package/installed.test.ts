@@ -1,8 +1,10 @@
 // The package as a user gets it: `npm pack`, then an install of the tarball into an empty folder with install scripts
-// disabled and no registry (--offline: the package has no runtime dependencies), and there:
+// disabled and no registry (--offline: the package has no runtime dependencies), also globally into a temporary
+// prefix, and there:
 //   - `npx phasewise --version` and `phasewise analyse` on a packaged sample, whose output files are byte-identical
 //     to the repository's own CLI run on the same file;
-//   - an ES module script importing the library entry ('phasewise'), whose summary metrics equal the CLI's;
+//   - an ES module script importing the library entry ('phasewise'), whose summary metrics (from bytes and from a
+//     path) equal the CLI's;
 //     CommonJS `require('phasewise')` where Node can require an ES module (20.19 and later);
 //   - `tsc --noEmit` on a TypeScript file importing 'phasewise' (node16/nodenext and bundler resolution, the
 //     declarations checked too: skipLibCheck false), so the types resolve without any of our dependencies;
@@ -22,7 +24,7 @@ const ROOT = resolve(fileURLToPath(new URL('../..', import.meta.url)));
 const PKG = JSON.parse(readFileSync(join(ROOT, 'package.json'), 'utf8')) as {
   version: string;
   bin: Record<string, string>;
-  exports: Record<string, string | Record<string, string>>;
+  exports: Record<string, unknown>;
   dependencies?: Record<string, string>;
   scripts: Record<string, string>;
 };
@@ -48,6 +50,7 @@ let work = '';
 let app = '';
 let packed: string[] = [];
 let sizes = { packed: 0, unpacked: 0 };
+let tarball = '';
 
 function run(cmd: string, args: string[], cwd: string, timeout = 60_000): SpawnSyncReturns<string> {
   const r = spawnSync(cmd, args, { cwd, encoding: 'utf8', timeout, env: { ...process.env, npm_config_audit: 'false', npm_config_fund: 'false', npm_config_update_notifier: 'false' } });
@@ -72,7 +75,8 @@ beforeAll(() => {
   app = join(work, 'app');
   mkdirSync(app);
   writeFileSync(join(app, 'package.json'), JSON.stringify({ name: 'phasewise-install-check', private: true, type: 'module' }));
-  run('npm', ['install', '--ignore-scripts', '--offline', join(work, info[0]!.filename)], app);
+  tarball = join(work, info[0]!.filename);
+  run('npm', ['install', '--ignore-scripts', '--offline', tarball], app);
 });
 
 afterAll(() => {
@@ -87,7 +91,9 @@ describe('the packed package', () => {
   });
 
   it('holds every runtime file and what bin and exports name, and no sources or tests', () => {
-    const named = [...Object.values(PKG.bin), ...Object.values(PKG.exports).flatMap((e) => (typeof e === 'string' ? [e] : Object.values(e)))];
+    const leaves = (e: unknown): string[] => (typeof e === 'string' ? [e] : Object.values(e as Record<string, unknown>).flatMap(leaves));
+    const named = [...Object.values(PKG.bin), ...leaves(PKG.exports)];
+    expect(named.length).toBeGreaterThanOrEqual(6);
     for (const f of [...RUNTIME_FILES, ...named.map((p) => p.replace(/^\.\//, ''))]) expect(packed, f).toContain(f);
     expect(packed.filter((f) => /^(src|tests|web|scripts)\//.test(f) || f === 'DEVELOPERS.md' || f === 'dist/bench.cjs')).toEqual([]);
     // every file the installed copy holds came from the tarball, with the same bytes as the repository's
@@ -121,15 +127,25 @@ describe('the packed package', () => {
     expect(summary.metrics.vd_aw_ml.median).toBeGreaterThan(100);
   });
 
+  it('a global install (npm install -g, into a temporary prefix) gives a working phasewise command', () => {
+    const prefix = join(work, 'global');
+    run('npm', ['install', '-g', '--prefix', prefix, '--ignore-scripts', '--offline', tarball], work);
+    const bin = process.platform === 'win32' ? join(prefix, 'phasewise.cmd') : join(prefix, 'bin', 'phasewise');
+    expect(run(bin, ['--version'], work).stdout.trim()).toBe(PKG.version);
+    expect(run(bin, ['simulate', '--list'], work).stdout).toContain('adult-healthy');
+  });
+
   it("an ES module importing 'phasewise' gets the CLI's summary metrics", () => {
     writeFileSync(
       join(app, 'lib-check.mjs'),
       [
         "import { readFile } from 'node:fs/promises';",
-        "import { analyseBytes, defaultSettings, jsonSafe, VERSION } from 'phasewise';",
+        "import { fileURLToPath } from 'node:url';",
+        "import { analyseBytes, analyseRecordingFile, defaultSettings, jsonSafe, VERSION } from 'phasewise';",
         `const file = new URL('./sample-waveforms/${SAMPLE}', import.meta.resolve('phasewise/package.json'));`,
         `const r = await analyseBytes(await readFile(file), defaultSettings(), new Set(), '${SAMPLE}');`,
-        'console.log(JSON.stringify({ version: VERSION, breaths: r.core.breaths.length, metrics: jsonSafe(r.summary.metrics) }));',
+        'const f = await analyseRecordingFile(fileURLToPath(file), defaultSettings());',
+        'console.log(JSON.stringify({ version: VERSION, breaths: r.core.breaths.length, metrics: jsonSafe(r.summary.metrics), fromPath: jsonSafe(f.summary.metrics) }));',
       ].join('\n'),
     );
     const out = JSON.parse(run(process.execPath, ['lib-check.mjs'], app).stdout);
@@ -140,6 +156,7 @@ describe('the packed package', () => {
     expect(out.breaths).toBe(summary.breaths.found);
     expect(summary.metrics.vd_aw_ml.n).toBeGreaterThan(30);
     expect(out.metrics).toEqual(summary.metrics);
+    expect(out.fromPath).toEqual(summary.metrics);
   });
 
   it.runIf((process.features as unknown as Record<string, unknown>).require_module === true)(
@@ -166,9 +183,20 @@ describe('the packed package', () => {
       ].join('\n'),
     );
     const tsc = join(ROOT, 'node_modules', '.bin', 'tsc');
-    for (const [module, moduleResolution] of [['nodenext', 'nodenext'], ['esnext', 'bundler']]) {
+    // under the `node` condition (nodenext) the entry also reads files; bundlers for browsers do not get that
+    writeFileSync(
+      join(app, 'check-node.ts'),
+      [
+        "import { analyseRecordingFile, defaultSettings, type TextAnalysis } from 'phasewise';",
+        "export const pending: Promise<TextAnalysis> = analyseRecordingFile('x.csv', defaultSettings());",
+      ].join('\n'),
+    );
+    for (const [module, moduleResolution, files] of [
+      ['nodenext', 'nodenext', ['check.ts', 'check-node.ts']],
+      ['esnext', 'bundler', ['check.ts']],
+    ] as const) {
       const options = { strict: true, noEmit: true, skipLibCheck: false, module, moduleResolution, target: 'es2022', lib: ['es2022'], types: [] };
-      writeFileSync(join(app, 'tsconfig.json'), JSON.stringify({ compilerOptions: options, files: ['check.ts'] }));
+      writeFileSync(join(app, 'tsconfig.json'), JSON.stringify({ compilerOptions: options, files }));
       run(tsc, ['-p', '.'], app);
     }
   });
