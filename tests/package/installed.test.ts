@@ -16,7 +16,7 @@ import { spawn, spawnSync, type SpawnSyncReturns } from 'node:child_process';
 import { existsSync, mkdirSync, mkdtempSync, readdirSync, readFileSync, rmSync, statSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
-import { fileURLToPath } from 'node:url';
+import { fileURLToPath, pathToFileURL } from 'node:url';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { expectClose } from '../helpers/expect-close';
 
@@ -140,7 +140,7 @@ describe('the packed package', () => {
       join(app, 'lib-check.mjs'),
       [
         "import { readFile } from 'node:fs/promises';",
-        "import { fileURLToPath } from 'node:url';",
+        "import { fileURLToPath, pathToFileURL } from 'node:url';",
         "import { analyseBytes, analyseRecordingFile, defaultSettings, jsonSafe, VERSION } from 'phasewise';",
         `const file = new URL('./sample-waveforms/${SAMPLE}', import.meta.resolve('phasewise/package.json'));`,
         `const r = await analyseBytes(await readFile(file), defaultSettings(), new Set(), '${SAMPLE}');`,
@@ -157,6 +157,24 @@ describe('the packed package', () => {
     expect(summary.metrics.vd_aw_ml.n).toBeGreaterThan(30);
     expect(out.metrics).toEqual(summary.metrics);
     expect(out.fromPath).toEqual(summary.metrics);
+  });
+
+  it('the browser build (the default condition) has no Node imports and gives the same metrics', () => {
+    const browserJs = join(app, 'node_modules', 'phasewise', 'dist', 'lib', 'phasewise.browser.js');
+    expect(readFileSync(browserJs, 'utf8')).not.toMatch(/\bfrom\s*["']node:|\brequire\(|import\(["']node:/);
+    writeFileSync(
+      join(app, 'browser-check.mjs'),
+      [
+        "import { readFileSync } from 'node:fs';",
+        `const { analyseText, defaultSettings, jsonSafe } = await import(${JSON.stringify(pathToFileURL(browserJs).href)});`,
+        `const text = readFileSync(${JSON.stringify(join(ROOT, 'sample-waveforms', SAMPLE))}, 'utf8');`,
+        `console.log(JSON.stringify(jsonSafe(analyseText(text, defaultSettings(), new Set(), '${SAMPLE}').summary.metrics)));`,
+      ].join('\n'),
+    );
+    const dir = join(work, 'cli-run-browser');
+    run(process.execPath, [join(ROOT, 'bin', 'phasewise.cjs'), 'analyse', join(ROOT, 'sample-waveforms', SAMPLE), '--out', dir], ROOT);
+    const cli = JSON.parse(readFileSync(join(dir, 'summary.json'), 'utf8'));
+    expect(JSON.parse(run(process.execPath, ['browser-check.mjs'], app).stdout)).toEqual(cli.metrics);
   });
 
   it.runIf((process.features as unknown as Record<string, unknown>).require_module === true)(
