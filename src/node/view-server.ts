@@ -21,7 +21,6 @@ const TYPES: Record<string, string> = {
   '.json': 'application/json',
   '.svg': 'image/svg+xml',
   '.png': 'image/png',
-  '.csv': 'text/csv; charset=utf-8',
 };
 
 export interface ViewServerOptions {
