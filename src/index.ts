@@ -15,7 +15,7 @@ export {
   type TrendSettings,
   type FallWithoutGas,
 } from './settings';
-export { parseSettingsFile, applySettings, settingsFileSchema, gasSchema, SettingsError, type SettingsFile, type GasFileSettings } from './settings-file';
+export { parseSettingsFile, applySettings, SettingsError, type SettingsFile, type GasFileSettings } from './settings-file';
 
 // The metric registry: every output column with label, unit, decimals, meaning and source
 export * from './metrics/registry';
@@ -65,6 +65,7 @@ export {
   type SummaryBreaths,
 } from './analyse/quality';
 export { analyseText, type TextAnalysis } from './pipeline/analyse-text';
+export { analyseBytes } from './pipeline/analyse-bytes';
 
 // Report composition: every output file of a recording, the same for the CLI, batch mode and the viewer
 export {

@@ -3,7 +3,7 @@
 //   web/) and no Node built-in (node:*), so it stays browser-safe;
 // - batch mode imports nothing from the CLI (what both need lives in src/node or the core);
 // - src/settings.ts, the base every stage reads, imports nothing at all from the feature folders;
-// - package.json's public entry exists and is the core's src/index.ts.
+// - package.json's public entry is built from the core's src/index.ts.
 import { readdirSync, readFileSync, existsSync } from 'node:fs';
 import { dirname, join, relative, resolve } from 'node:path';
 import { fileURLToPath } from 'node:url';
@@ -73,9 +73,19 @@ describe('layers', () => {
     expect(found).toEqual([]);
   });
 
-  it("package.json's public entry is the core's src/index.ts", () => {
-    const pkg = JSON.parse(readFileSync(join(ROOT, 'package.json'), 'utf8')) as { exports: Record<string, string> };
-    expect(pkg.exports['.']).toBe('./src/index.ts');
+  it("package.json's public entry is built from the core's src/index.ts (for Node with the file reader added)", () => {
+    const pkg = JSON.parse(readFileSync(join(ROOT, 'package.json'), 'utf8')) as { exports: Record<string, unknown> };
+    expect(pkg.exports['.']).toEqual({
+      node: { types: './dist/types/node/library.d.ts', default: './dist/lib/phasewise.node.js' },
+      default: { types: './dist/types/index.d.ts', default: './dist/lib/phasewise.browser.js' },
+    });
+    // the browser bundle and the declarations start at src/index.ts, the Node bundle at src/node/library.ts, which
+    // re-exports all of src/index.ts (scripts/build.mjs, scripts/build-types.mjs)
+    const build = readFileSync(join(ROOT, 'scripts/build.mjs'), 'utf8');
+    expect(build).toContain("entryPoints: ['src/index.ts']");
+    expect(build).toContain("entryPoints: ['src/node/library.ts']");
+    expect(readFileSync(join(ROOT, 'src/node/library.ts'), 'utf8')).toContain("export * from '../index';");
+    expect(readFileSync(join(ROOT, 'scripts/build-types.mjs'), 'utf8')).toContain("join(srcDir, 'index.ts')");
     expect(existsSync(join(ROOT, 'src/index.ts'))).toBe(true);
   });
 });

@@ -7,6 +7,7 @@ import './style.css';
 import { clearError, fail, onScreen, setBodyState, show, state } from './app-state';
 import { byId, download, h } from './dom';
 import { startHeartbeat, type HeartbeatStats } from './heartbeat';
+import { startLaunch } from './launch';
 import { bindReviewKeys } from './keys';
 import { renderMappingFields, renderPreview } from './mapping-step';
 import { breathPng } from './png';
@@ -343,6 +344,7 @@ function wire(): void {
 export function start(): void {
   wire();
   setBodyState('idle');
+  void startLaunch(openFile, (e) => fail(String((e as Error)?.message ?? e)));
 }
 
 /** The gas options typed in the sidebar: patient values and the blood-gas constants (empty fields are left to the

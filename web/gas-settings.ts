@@ -5,7 +5,8 @@
 // fields are built here from the schema, each showing its default (GAS_DEFAULTS). An empty field is the default.
 
 import type { z } from 'zod';
-import { GAS_DEFAULTS, gasSchema, type GasFileSettings } from '../src/index';
+import { GAS_DEFAULTS, type GasFileSettings } from '../src/index';
+import { gasSchema } from '../src/settings-file';
 import { byId, h } from './dom';
 import { parseField, rangeHint, specOf, type FieldSpec } from './settings-form';
 

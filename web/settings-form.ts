@@ -4,7 +4,8 @@
 // that-file.json` records the same origins as the viewer and writes the same summary.json.
 
 import { z } from 'zod';
-import { defaultSettings, SETTING_GROUPS, type Settings, applySettings, parseSettingsFile, settingsFileSchema, type SettingsFile, type GasFileSettings } from '../src/index';
+import { defaultSettings, SETTING_GROUPS, type Settings, applySettings, parseSettingsFile, type SettingsFile, type GasFileSettings } from '../src/index';
+import { settingsFileSchema } from '../src/settings-file';
 import { h } from './dom';
 
 export type Group = (typeof SETTING_GROUPS)[number];

@@ -9,6 +9,7 @@ import { registerAnalyse } from './analyse-command';
 import { CliError } from './errors';
 import { registerSimulate } from './simulate-command';
 import { registerBatch } from './batch-command';
+import { registerView } from './view-command';
 
 function fail(message: string, code: number): never {
   process.stderr.write(`phasewise: ${message}\n`);
@@ -39,6 +40,7 @@ program
 registerAnalyse(program);
 registerSimulate(program);
 registerBatch(program);
+registerView(program);
 for (const c of program.commands) c.exitOverride();
 
 process.on('unhandledRejection', handle);

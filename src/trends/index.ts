@@ -1,7 +1,7 @@
 // Trends (per-bin summaries of the breath rows) and events (sustained changes, classified by pattern). Pure and
 // browser-safe. Rules: src/trends/RULES.md.
 export { DEFAULT_TRENDS, type TrendSettings, type FallWithoutGas } from '../settings';
-export { trendSettings, trendSettingsSchema } from './settings';
+export { trendSettings } from './settings';
 export { TREND_COLUMNS, type TrendRow } from './trend-row';
 export { computeTrends } from './compute-trends';
 export { detectEvents, EVENT_COLUMNS, type EventRow, type EventContext } from './detect-events';

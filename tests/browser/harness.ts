@@ -34,7 +34,11 @@ export interface Viewer {
 
 /** Runs scripts/viewer.mjs (build into `out` unless build = false) on a free port; resolves once it prints its address. */
 export function startViewer(out: string, build = true, timeoutMs = 90_000): Promise<Viewer> {
-  const args = [join(ROOT, 'scripts', 'viewer.mjs'), '--port', '0', '--out', out, ...(build ? [] : ['--no-build'])];
+  return startServer([join(ROOT, 'scripts', 'viewer.mjs'), '--port', '0', '--out', out, ...(build ? [] : ['--no-build'])], timeoutMs);
+}
+
+/** Runs `node ARGS` (a viewer server: scripts/viewer.mjs or `phasewise view`); resolves once it prints its address. */
+export function startServer(args: string[], timeoutMs = 90_000): Promise<Viewer> {
   const child: ChildProcess = spawn(process.execPath, args, { cwd: ROOT, stdio: ['ignore', 'pipe', 'pipe'] });
   let text = '';
   return new Promise((ok, bad) => {
