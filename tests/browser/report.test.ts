@@ -103,7 +103,7 @@ describe.skipIf(!HAVE)('report.html in headless Chromium, from file://', () => {
       // charts: the breath chart, the overlay and the trends are drawn SVG with a data path of non-zero size
       const charts = await page.$$eval('#breaths svg, #trends svg', (svgs) =>
         svgs.map((s) => {
-          const paths = [...s.querySelectorAll('path')].map((p) => (p as SVGGraphicsElement).getBBox());
+          const paths = Array.from(s.querySelectorAll('path')).map((p) => (p as SVGGraphicsElement).getBBox());
           const box = s.getBoundingClientRect();
           return { width: box.width, height: box.height, drawn: paths.filter((b) => b.width > 1 && b.height > 1).length };
         }),
