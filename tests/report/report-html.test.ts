@@ -88,6 +88,14 @@ describe('report.html builder', () => {
     expect(html).not.toContain('<td>analysis.summary_breaths</td>');
   });
 
+  it('with no ok breath and no trend: says so instead of drawing empty charts (no crash)', () => {
+    const rows = plain.o.rows.map((r) => ({ ...r, status: 'outlier', flags: ['outlier'] }));
+    const h = reportHtml({ outputs: { ...plain.o, rows, trends: [] }, curves: new Map() });
+    expect(h).toContain('No ok breath to draw.');
+    expect(h).toContain('Too short for trends');
+    expect(h).toContain(CAUTION);
+  });
+
   it('with gases: the gas table and the PaCO2 estimate, its median equal to one computed here from the estimates', () => {
     const g = analyse(true);
     const h = reportHtml({ outputs: g.o, curves: g.curves });
