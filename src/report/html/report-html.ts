@@ -48,7 +48,7 @@ function breathsSection(o: ReportInput['outputs'], curves: ReportInput['curves']
       `(at ${num(rep.t_start_s / 60, 2)} min): ${REPRESENTATIVE_RULE}. Shaded: Fowler's two equal areas either side of V* (airway dead space at the sensor); ` +
       `thick line: phase III fit over its window, dashed where extended.</figcaption></figure>`
     : '<figure><p>No ok breath to draw.</p></figure>';
-  const thinned = drawn.length < ok.length ? `${drawn.length} of ${ok.length} ok breaths drawn (every ${Math.ceil(ok.length / OVERLAY_LIMITS.maxBreaths)}th, spread over the recording)` : `all ${ok.length} ok breaths`;
+  const thinned = drawn.length < ok.length ? `${drawn.length} of ${ok.length} ok breaths drawn (one in every ${Math.ceil(ok.length / OVERLAY_LIMITS.maxBreaths)}, spread over the recording)` : `all ${ok.length} ok breaths`;
   const right = ok.length
     ? `<figure>${overlaySvg(drawn.map((r) => curves.get(r.breath)!))}<figcaption>Expired CO2 against volume, ${thinned}, overlaid to show the breath-to-breath variability; curves thinned to at most ${OVERLAY_LIMITS.maxPoints} points each for drawing.</figcaption></figure>`
     : '';
