@@ -2,7 +2,7 @@
 // from file:// as a user would by double-click: the summary table's numbers and the breath counts equal the CLI's
 // summary.json (rounded here to the registry's decimals), the caution is shown, the breath and trend charts are
 // non-empty SVG, no request other than the file itself is made and no CSP violation occurs, and printing to PDF on
-// A4 gives at most three pages (counted as `/Type /Page` objects in the PDF bytes).
+// A4 and on US Letter gives at most three pages (counted as `/Type /Page` objects in the PDF bytes).
 // Two recordings: the messy sample (gaps, an excluded breath) and the healthy one with a blood-gas file.
 //
 // Without /usr/bin/chromium the tests are skipped with a message, except under CI=true, where that is a failure.
@@ -71,7 +71,7 @@ describe.skipIf(!HAVE)('report.html in headless Chromium, from file://', () => {
   });
 
   for (const c of CASES) {
-    it(`${c.name}: numbers equal summary.json, caution, non-empty charts, no outside request, A4 print ≤ 3 pages`, async () => {
+    it(`${c.name}: numbers equal summary.json, caution, non-empty charts, no outside request, A4 and Letter print ≤ 3 pages`, async () => {
       const summary = JSON.parse(readFileSync(join(tmp, c.name, 'summary.json'), 'utf8'));
       const url = pathToFileURL(join(tmp, c.name, 'report.html')).href;
       const page = await browser!.ctx.newPage();
@@ -115,10 +115,11 @@ describe.skipIf(!HAVE)('report.html in headless Chromium, from file://', () => {
         expect(ch.drawn).toBeGreaterThan(0);
       }
 
-      const pdf = await page.pdf({ format: 'A4' });
-      const pages = pdfPages(Buffer.from(pdf));
-      expect(pages).toBeGreaterThanOrEqual(1);
-      expect(pages).toBeLessThanOrEqual(3);
+      for (const format of ['A4', 'Letter']) {
+        const pages = pdfPages(Buffer.from(await page.pdf({ format })));
+        expect(pages, format).toBeGreaterThanOrEqual(1);
+        expect(pages, format).toBeLessThanOrEqual(3);
+      }
 
       expect(requests).toEqual([url]);
       expect(problems).toEqual([]);

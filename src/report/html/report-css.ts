@@ -29,7 +29,7 @@ svg { display: block; max-width: 100%; height: auto; }
 .trends svg { flex: 0 0 auto; }
 section { break-inside: avoid; page-break-inside: avoid; }
 h2 { break-after: avoid; page-break-after: avoid; }
-@page { size: A4; margin: 11mm 10mm; }
+@page { margin: 11mm 10mm; }
 @media print {
   body { margin: 0; max-width: none; padding: 0; }
   #breaths { break-before: page; page-break-before: always; }
