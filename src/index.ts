@@ -84,6 +84,8 @@ export { breathsCsv } from './report/breaths-csv';
 export { trendsAndEvents, trendsCsv, eventsCsv, type TrendsAndEvents } from './report/trends-events';
 export { formatNumber, csvCell, csvTable } from './report/format';
 export { CAUTION } from './report/caution';
+export { reportHtml, reportCurveOf, type ReportInput } from './report/html/report-html';
+export type { ReportCurve } from './report/html/breath-chart';
 export {
   USER_EXCLUDED,
   EXCLUSION_REASONS,

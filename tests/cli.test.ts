@@ -31,6 +31,21 @@ describe.skipIf(!existsSync(cli))('phasewise command line', () => {
     for (const f of ['breaths.csv', 'summary.json', 'trends.csv', 'events.csv']) expect(existsSync(join(out, f))).toBe(true);
   });
 
+  it('--report adds report.html and leaves every other output byte-identical (the curves kept for it change nothing)', () => {
+    const plain = join(dir, 'report-plain');
+    const withReport = join(dir, 'report-on');
+    expect(run('analyse', sample, '--out', plain, '--quiet').status).toBe(0);
+    const r = run('analyse', sample, '--out', withReport, '--report');
+    expect(r.status, r.stderr).toBe(0);
+    expect(existsSync(join(plain, 'report.html'))).toBe(false);
+    expect(r.stdout).toContain(join(withReport, 'report.html'));
+    const html = readFileSync(join(withReport, 'report.html'), 'utf8');
+    expect(html).toContain('Volumetric capnography report');
+    for (const f of ['breaths.csv', 'summary.json', 'trends.csv', 'events.csv']) {
+      expect(readFileSync(join(withReport, f), 'utf8'), f).toBe(readFileSync(join(plain, f), 'utf8'));
+    }
+  });
+
   it('--weight gives per-kg breath values and the summary records the weight, with or without a gas file', () => {
     const out = join(dir, 'weight');
     const r = run('analyse', sample, '--out', out, '--weight', '80');

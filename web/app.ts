@@ -1,7 +1,8 @@
 // phasewise review: page flows (loaded by main.ts). Open a file -> mapping step -> analyse (in worker.ts) -> review
 // -> exclude / load blood gases (outputs recomputed in the worker) -> export. The page never parses the recording.
 
-import { type GasOptions, type AnalysisCore, CAUTION, exportRows, outputFile, type ComposedOutputs, EXCLUSION_REASONS } from '../src/index';
+import { type GasOptions, type AnalysisCore, CAUTION, exportRows, outputFile, type ComposedOutputs, EXCLUSION_REASONS, reportHtml, type ReportCurve } from '../src/index';
+import { breathCurve } from './geometry-store';
 import 'uplot/dist/uPlot.min.css';
 import './style.css';
 import { clearError, fail, onScreen, setBodyState, show, state } from './app-state';
@@ -216,6 +217,21 @@ function exportFile(name: string): void {
   if (text !== undefined) download(name, text, name.endsWith('.json') ? 'application/json' : 'text/csv;charset=utf-8');
 }
 
+/**
+ * report.html for what is on screen (hand exclusions and gases included): the core's reportHtml on the same outputs
+ * and the breath curves of the geometry store, so for the same file and settings it equals `analyse --report`'s.
+ */
+function exportReport(): void {
+  const d = state.result;
+  if (!state.outputs || !d) return;
+  const curves = new Map<number, ReportCurve>();
+  for (const r of state.outputs.rows) {
+    const c = breathCurve(d.geometry, r.breath - 1);
+    if (c) curves.set(r.breath, c);
+  }
+  download('report.html', reportHtml({ outputs: state.outputs, curves }), 'text/html;charset=utf-8');
+}
+
 function exportPng(): void {
   const scene = currentScene();
   const canvas = breathCanvas();
@@ -305,6 +321,7 @@ function wire(): void {
   ];
   for (const [id, name] of files) byId(id).addEventListener('click', () => exportFile(name));
   byId('export-png').addEventListener('click', exportPng);
+  byId('export-report').addEventListener('click', exportReport);
   byId('export-settings').addEventListener('click', () => download('phasewise-settings.json', settingsFileText(state.analysed?.settings ?? state.settings, readGasConstants().gas), 'application/json'));
   // patient and method options of the gas analysis (the CLI's --weight, --height, --sex, --gas-window,
   // --cardiac-output) and the blood-gas constants (the settings file's `gas` section): changing one recomputes the

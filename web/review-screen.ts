@@ -74,7 +74,7 @@ export function showComposed(outputs: ComposedOutputs, gasChanged: boolean): voi
 }
 
 export function setExportsEnabled(on: boolean): void {
-  for (const id of ['export-breaths', 'export-summary', 'export-trends', 'export-events']) byId<HTMLButtonElement>(id).disabled = !on;
+  for (const id of ['export-breaths', 'export-summary', 'export-trends', 'export-events', 'export-report']) byId<HTMLButtonElement>(id).disabled = !on;
   const gas = on && Boolean(state.outputs?.gas);
   byId<HTMLButtonElement>('export-gas').disabled = !gas;
   byId<HTMLButtonElement>('export-estimates').disabled = !gas;

@@ -1,5 +1,5 @@
-// One batch input -> DIR/<folder>/breaths.csv, summary.json, trends.csv, events.csv (exactly what `analyse` writes,
-// through the same src/report/outputs.ts), or a recorded failure.
+// One batch input -> DIR/<folder>/breaths.csv, summary.json, trends.csv, events.csv and with --report report.html
+// (exactly what `analyse` writes, through the same src/report/outputs.ts), or a recorded failure.
 // Runs in a worker thread or in the main thread (--jobs 1); never throws, so one bad file cannot stop a batch.
 import { existsSync, rmSync } from 'node:fs';
 import { join } from 'node:path';
@@ -11,6 +11,9 @@ import { writeFileAtomic } from '../node/atomic-write';
 import { composeOutputs, outputFile, outputNames } from '../report/outputs';
 import type { Settings } from '../settings';
 import { sha256File } from './hash';
+import type { BreathEvent } from '../analyse/analyser';
+import type { ReportCurve } from '../report/html/breath-chart';
+import { reportCurveOf, reportHtml } from '../report/html/report-html';
 
 export interface RecordingTask {
   /** position in the (sharded) input list */
@@ -26,6 +29,8 @@ export interface RecordingTask {
   given: string[];
   /** content hash of a completed earlier result with the same settings (--resume); null = analyse */
   resumeSha256: string | null;
+  /** also write report.html (`batch --report`); a resumed result needs one too */
+  report?: boolean;
 }
 
 export interface RecordingResult {
@@ -43,6 +48,7 @@ export interface RecordingResult {
 
 export const BREATHS_FILE = 'breaths.csv';
 export const SUMMARY_FILE = 'summary.json';
+export const REPORT_FILE = 'report.html';
 
 /** Stable code and one-line message for anything a recording can throw (naming the recording id, not the path). */
 export function describeError(e: unknown, recording: string, path: string = recording): { code: string; message: string } {
@@ -75,12 +81,16 @@ export async function processRecording(task: RecordingTask, reader: ReaderThread
   };
   try {
     if (task.resumeSha256 !== null && existsSync(task.path)) Object.assign(result, await sha256File(task.path));
-    if (task.resumeSha256 !== null && result.sha256 === task.resumeSha256 && existsSync(breathsPath) && existsSync(summaryPath)) {
+    const reportPath = join(task.outFolder, REPORT_FILE);
+    const complete = existsSync(breathsPath) && existsSync(summaryPath) && (!task.report || existsSync(reportPath));
+    if (task.resumeSha256 !== null && result.sha256 === task.resumeSha256 && complete) {
       result.status = 'ok';
       result.resumed = true;
     } else {
       const given = new Set(task.given);
-      const { core, report, sha256 } = await analyseFile(task.path, task.settings, { read: reader ?? 'here', hash: result.sha256 === null });
+      const curves = new Map<number, ReportCurve>();
+      const onBreath = task.report ? (e: BreathEvent) => curves.set(e.decomposition.row.breath, reportCurveOf(e)) : undefined;
+      const { core, report, sha256 } = await analyseFile(task.path, task.settings, { read: reader ?? 'here', hash: result.sha256 === null, onBreath });
       if (result.sha256 === null) Object.assign(result, { sha256, size: report.bytes });
       // the recording id, not the absolute path: outputs must not depend on where the folder is mounted
       report.file = task.recording;
@@ -88,6 +98,7 @@ export async function processRecording(task: RecordingTask, reader: ReaderThread
       const summary = o.summary;
       // summary.json last: its presence marks a complete result for --resume
       for (const name of outputNames(o).filter((n) => n !== SUMMARY_FILE)) writeFileAtomic(join(task.outFolder, name), outputFile(o, name)!);
+      if (task.report) writeFileAtomic(reportPath, reportHtml({ outputs: o, curves }));
       writeFileAtomic(summaryPath, outputFile(o, SUMMARY_FILE)!);
       result.status = 'ok';
       result.rows = report.rows;
@@ -98,7 +109,7 @@ export async function processRecording(task: RecordingTask, reader: ReaderThread
     result.status = 'failed';
     result.error = describeError(e, task.recording, task.path);
     // never leave an earlier run's outputs looking like this input's result
-    for (const name of [BREATHS_FILE, SUMMARY_FILE, 'trends.csv', 'events.csv']) rmSync(join(task.outFolder, name), { force: true });
+    for (const name of [BREATHS_FILE, SUMMARY_FILE, 'trends.csv', 'events.csv', REPORT_FILE]) rmSync(join(task.outFolder, name), { force: true });
     // the manifest still records what the failed input was (size and content hash), when it can be read
     if (result.sha256 === null && existsSync(task.path)) {
       try {

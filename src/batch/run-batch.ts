@@ -33,6 +33,8 @@ export interface BatchOptions {
   resume: boolean;
   shard: Shard | null;
   progress: 'bar' | 'lines' | 'none';
+  /** also write report.html in each recording's folder (`batch --report`) */
+  report?: boolean;
   /** worker bundle (default: batch-worker.cjs next to the running bundle) */
   workerFile?: string | null;
   /** reader-thread bundle (default: read-worker.cjs next to the running bundle; null: every thread reads its own files) */
@@ -81,7 +83,7 @@ export async function runBatch(o: BatchOptions): Promise<BatchOutcome> {
   const done = resumableResults(o.resume, outDir);
   // sizes (bytes), read cheaply before hashing: for the progress bar and the choice of lanes
   const sizes = picked.map(({ input }) => fileSize(input.path));
-  const { entries, tasks } = planRecordings(o.plan, picked, sizes, done, outDir);
+  const { entries, tasks } = planRecordings(o.plan, picked, sizes, done, outDir, o.report === true);
   const manifest = newManifest(o, all, warnings, entries, started);
   const writeManifest = () => {
     manifest.counts = countEntries(entries);
@@ -151,6 +153,7 @@ function fileSize(path: string): number {
 /** The manifest entry and the task of each picked recording, in order (entry k belongs to task k). */
 function planRecordings(
   plan: SettingsPlan, picked: readonly PickedRecording[], sizes: readonly number[], done: ReadonlyMap<string, ManifestEntry>, outDir: string,
+  report: boolean,
 ): { entries: ManifestEntry[]; tasks: RecordingTask[] } {
   const entries: ManifestEntry[] = [];
   const tasks: RecordingTask[] = [];
@@ -172,7 +175,7 @@ function planRecordings(
             rows: null, breaths_found: null, breaths_ok: null, resumed: false, elapsed_s: null,
           },
     );
-    tasks.push({ index: k, recording: input.recording, path, bytes: sizes[k]!, outFolder: join(outDir, folder), settings: rs.settings, given: rs.given, resumeSha256 });
+    tasks.push({ index: k, recording: input.recording, path, bytes: sizes[k]!, outFolder: join(outDir, folder), settings: rs.settings, given: rs.given, resumeSha256, report });
   }
   return { entries, tasks };
 }

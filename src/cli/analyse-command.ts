@@ -1,5 +1,5 @@
 // `phasewise analyse FILE --out DIR`: one recording -> breaths.csv, summary.json (+ gas.csv and paco2_estimates.csv
-// with --gas) and a terminal summary.
+// with --gas, report.html with --report) and a terminal summary.
 import type { Command } from 'commander';
 import { analyseFile } from '../node/analyse-file';
 import { writeFileAtomic } from '../node/atomic-write';
@@ -16,6 +16,9 @@ import { join, resolve } from 'node:path';
 import { recordingId } from '../batch/expand-inputs';
 import { settingsForRecording, settingsPlan } from '../batch/file-settings';
 import { addInputOptions } from './options';
+import type { BreathEvent } from '../analyse/analyser';
+import type { ReportCurve } from '../report/html/breath-chart';
+import { reportCurveOf, reportHtml } from '../report/html/report-html';
 
 export function registerAnalyse(program: Command): void {
   const cmd = program
@@ -25,7 +28,8 @@ export function registerAnalyse(program: Command): void {
     .argument('<file>', 'recording: a text table with time, flow and CO2 columns')
     .requiredOption('--out <dir>', 'output folder')
     .option('--json', 'print summary.json to the terminal instead of the table')
-    .option('--quiet', 'print nothing on success');
+    .option('--quiet', 'print nothing on success')
+    .option('--report', 'also write report.html: one self-contained page (numbers, breath charts, trends, events, gases, caution), printable on A4');
   addGasOptions(addInputOptions(cmd)).action(async (file: string, opts: Record<string, unknown>) => {
     // the same settings resolution as batch: defaults < settings file < its matching `files` patterns < options;
     // here the patterns are matched against the file's path from the working folder (the gas constants too: rec.gas)
@@ -33,7 +37,9 @@ export function registerAnalyse(program: Command): void {
     const settings = rec.settings;
     const given = new Set(rec.given);
     const gas = readGasFile(opts); // read first: a bad gas file fails before the long analysis
-    const result = await analyseFile(file, settings, { read: 'thread' });
+    const curves = new Map<number, ReportCurve>();
+    const onBreath = opts.report ? (e: BreathEvent) => curves.set(e.decomposition.row.breath, reportCurveOf(e)) : undefined;
+    const result = await analyseFile(file, settings, { read: 'thread', onBreath });
     const out = String(opts.out);
     const gasInput = gas ? placeGasFile(gas, opts, result.report, result.core.duration_s) : null;
     const o = composeOutputs(result.core, result.report, settings, given, new Map(), gasInput, gasOptionsFrom(opts, settings, rec.gas));
@@ -41,6 +47,10 @@ export function registerAnalyse(program: Command): void {
     for (const name of outputNames(o)) {
       writeFileAtomic(join(out, name), outputFile(o, name)!);
       written.push(join(out, name));
+    }
+    if (opts.report) {
+      writeFileAtomic(join(out, 'report.html'), reportHtml({ outputs: o, curves }));
+      written.push(join(out, 'report.html'));
     }
     if (!opts.quiet && opts.json) process.stdout.write(JSON.stringify(o.summary, null, 2) + '\n');
     else if (!opts.quiet) printSummary(o, written, gasInput);

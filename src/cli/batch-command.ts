@@ -97,6 +97,7 @@ export function registerBatch(program: Command): void {
     // not requiredOption: Commander would then demand it of `batch merge` too (it checks ancestors' options)
     .option('--out <dir>', 'output folder (required)')
     .option('--jobs <n>', 'threads to use: lanes of an analysis thread and a reader thread when most bytes are in recordings of 4 MB or more, else N - 1 lanes (at least one) that read their own files (default: number of cores)', positiveInt)
+    .option('--report', 'also write report.html (one self-contained page, as `analyse --report`) in each recording folder')
     .option('--resume', 'keep results whose input content and settings are unchanged since the manifest in --out')
     .option('--shard <I/N>', 'analyse only shard I of N (0-based; input k goes to shard k mod N); see `batch merge`')
     .option('--quiet', 'no progress and no closing summary (failures are still listed on stderr)');
@@ -112,6 +113,7 @@ export function registerBatch(program: Command): void {
         inputs, outDir: out, plan, shard,
         jobs: (opts.jobs as number | undefined) ?? availableParallelism(),
         resume: Boolean(opts.resume),
+        report: Boolean(opts.report),
         progress: quiet ? 'none' : process.stderr.isTTY ? 'bar' : 'lines',
         command: commandLine(inputs, opts),
         onWarning: (w) => process.stderr.write(`phasewise batch: warning: ${w}\n`),

@@ -1,6 +1,6 @@
 // Node edge: one recording file -> analysis outputs (used by `analyse` and `batch`).
 import { createHash } from 'node:crypto';
-import { createAnalyser } from '../analyse/analyser';
+import { createAnalyser, type BreathEvent } from '../analyse/analyser';
 import type { AnalysisCore } from '../analyse/analyser';
 import type { IngestReport } from '../ingest/index';
 import type { Settings } from '../settings';
@@ -27,11 +27,14 @@ export interface AnalyseFileOptions {
   read?: 'here' | 'thread' | ReaderThread;
   /** also compute the SHA-256 of the file's bytes, from the same read */
   hash?: boolean;
+  /** called with every decomposed breath (its geometry and samples, valid during the call only): `analyse --report`
+   *  keeps the expired curves; the results are the same with or without it (tested) */
+  onBreath?: (e: BreathEvent) => void;
 }
 
 /** Streams the file through the reader into the analyser; memory holds breath rows, not samples. */
 export async function analyseFile(path: string, settings: Settings, options: AnalyseFileOptions = {}): Promise<FileAnalysis> {
-  const analyser = createAnalyser(settings);
+  const analyser = createAnalyser(settings, options.onBreath);
   const push = (b: SampleBlock) => analyser.push(b);
   const hash = options.hash === true;
   let read = options.read ?? 'here';

@@ -3,7 +3,7 @@
 // Builds the CLI and the page, runs the CLI on sample-waveforms/adult-healthy.csv (from inside that folder, so both
 // tools name the file the same way), serves the page with scripts/viewer.mjs, loads the same file through the file
 // input and checks: breath count and median airway dead space shown = the CLI's summary.json; every exported file
-// (breaths.csv, summary.json, trends.csv, events.csv) = the CLI's byte for byte; stepping with the keyboard;
+// (breaths.csv, summary.json, trends.csv, events.csv) and the saved report.html = the CLI's byte for byte; stepping with the keyboard;
 // excluding a breath changes the summary (checked against a median computed here from the CLI's breaths.csv) and
 // marks the exported status; re-including restores the CLI output; a blood-gas file gives the PaCO2 line and the
 // same six files as `analyse --gas`; a changed setting exported as a settings file gives the CLI the same files; the
@@ -97,7 +97,7 @@ describe.skipIf(!HAVE)('review viewer in headless Chromium', () => {
   beforeAll(async () => {
     tmp = mkdtempSync(join(tmpdir(), 'phasewise-viewer-test-'));
     run(process.execPath, ['scripts/build.mjs'], ROOT);
-    run(process.execPath, [join(ROOT, 'bin', 'phasewise.cjs'), 'analyse', SAMPLE, '--out', join(tmp, 'ref'), '--quiet'], join(ROOT, 'sample-waveforms'));
+    run(process.execPath, [join(ROOT, 'bin', 'phasewise.cjs'), 'analyse', SAMPLE, '--out', join(tmp, 'ref'), '--quiet', '--report'], join(ROOT, 'sample-waveforms'));
     refCsv = readFileSync(join(tmp, 'ref', 'breaths.csv'), 'utf8');
     refSummaryText = readFileSync(join(tmp, 'ref', 'summary.json'), 'utf8');
     refSummary = JSON.parse(refSummaryText);
@@ -158,6 +158,12 @@ describe.skipIf(!HAVE)('review viewer in headless Chromium', () => {
     }
   });
 
+  it("saves report.html byte-identical to analyse --report's", async () => {
+    const f = await downloadText(page, '#export-report');
+    expect(f.name).toBe('report.html');
+    expect(f.text).toBe(readFileSync(join(tmp, 'ref', 'report.html'), 'utf8'));
+  });
+
   it('steps through breaths with the arrow keys', async () => {
     const rows = parseBreathsCsv(refCsv);
     const label = () => page.textContent('#breath-label');
@@ -216,6 +222,11 @@ describe.skipIf(!HAVE)('review viewer in headless Chromium', () => {
     expect(sum.metrics.vd_aw_ml.n).toBe(refSummary.metrics.vd_aw_ml!.n - 1);
     expect(Math.abs(sum.metrics.vd_aw_ml.median - expected)).toBeLessThan(1e-5 * Math.abs(expected));
     expect(sum.notes.some((n: string) => n.includes('breath 4 (cough)'))).toBe(true);
+    // the saved report shows the hand exclusion: one ok breath fewer, the excluded_by_user code and its note
+    const report = (await downloadText(page, '#export-report')).text;
+    expect(report).toContain(`data-count="ok">${refSummary.breaths.ok - 1}<`);
+    expect(report).toContain('excluded_by_user');
+    expect(report).toContain('breath 4 (cough)');
 
     await page.keyboard.press('x');
     expect(await page.textContent('#breath-status')).toBe('ok');
@@ -263,7 +274,7 @@ describe.skipIf(!HAVE)('review viewer in headless Chromium', () => {
     mkdirSync(gasDir);
     copyFileSync(join(ROOT, 'sample-waveforms', SAMPLE), join(gasDir, SAMPLE));
     writeFileSync(join(gasDir, 'gas.csv'), 'time_s,paco2_mmhg\n90,40.5\n170,41.2\n');
-    run(process.execPath, [join(ROOT, 'bin', 'phasewise.cjs'), 'analyse', SAMPLE, '--gas', 'gas.csv', '--out', 'out', '--quiet'], gasDir);
+    run(process.execPath, [join(ROOT, 'bin', 'phasewise.cjs'), 'analyse', SAMPLE, '--gas', 'gas.csv', '--out', 'out', '--quiet', '--report'], gasDir);
     await page.setInputFiles('#gas-input', join(gasDir, 'gas.csv'));
     await page.waitForSelector('#gas-table tr:nth-child(3)');
     expect(await waitState(page, ['done'])).toBe('done');
@@ -283,6 +294,7 @@ describe.skipIf(!HAVE)('review viewer in headless Chromium', () => {
       const f = await downloadText(page, EXPORT_BUTTON[name]!);
       expect(f.text, name).toBe(readFileSync(join(gasDir, 'out', name), 'utf8'));
     }
+    expect((await downloadText(page, '#export-report')).text, 'report.html').toBe(readFileSync(join(gasDir, 'out', 'report.html'), 'utf8'));
     // the trends draw Enghoff VD/VT and PaCO2 from the estimated PaCO2 between gases beside the per-breath values
     await page.click('#tabs button[data-pane="trends"]');
     await page.waitForSelector('#trends [data-trend="vdvt"]');
