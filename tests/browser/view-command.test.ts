@@ -71,6 +71,9 @@ describe.skipIf(!haveChromium())('phasewise view in headless Chromium', () => {
   });
 
   it('opens the recording given on the command line at once', async () => {
+    // the page fetches the recording after it loads: wait for its name rather than read it at once (a fresh machine
+    // was slower than the page once and read an empty name)
+    await page.waitForFunction((n) => (document.getElementById('file-name')?.textContent ?? '').includes(n), OPENED, { timeout: 30_000 });
     expect(await page.textContent('#file-name')).toContain(OPENED);
     await analyseAndCheck(page, cliSummary(tmp, OPENED));
   });
