@@ -2,7 +2,7 @@
 // recordings.csv values unchanged, the needs-a-look rule follows its stated thresholds (values chosen by hand either
 // side of each threshold), links are relative and percent-encoded, the page has the reports' caution and states the
 // thresholds, and nothing in it can reach the network (no URL, a CSP meta tag, the JSON cannot close its script tag).
-// The thumbnail is tiny and standalone.
+// The thumbnail is a tiny inline SVG element.
 
 import { describe, expect, it } from 'vitest';
 import { CAUTION } from '../../src/report/caution';
@@ -68,10 +68,11 @@ describe('study index builder', () => {
     expect(pageData(html).per_page).toBe(STUDY_PAGE_ROWS);
   });
 
-  it('thumbnail: standalone SVG, tiny, one path per drawn breath (at most the limit)', () => {
+  it('thumbnail: an inline SVG element, tiny, one path per drawn breath (at most the limit)', () => {
     const curve = { v_ml: Float32Array.from({ length: 400 }, (_, i) => i), co2_mmhg: Float32Array.from({ length: 400 }, (_, i) => Math.min(40, i / 4)) };
     const svg = thumbnailSvg(Array.from({ length: 100 }, () => curve));
-    expect(svg.startsWith('<svg xmlns="http://www.w3.org/2000/svg"')).toBe(true);
+    expect(svg.startsWith('<svg viewBox="0 0 120 60"')).toBe(true);
+    expect(svg).not.toMatch(/https?:/);
     expect(svg.match(/<path /g)).toHaveLength(THUMB_LIMITS.maxBreaths);
     expect(svg.length).toBeLessThan(6000);
     expect(thumbnailSvg([])).not.toContain('<path');

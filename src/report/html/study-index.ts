@@ -79,8 +79,7 @@ function dataRow(e: StudyIndexEntry): Record<string, unknown> {
     delay_uncertainty_s: e.delay_uncertainty_s, delay_trusted: e.delay_trusted,
     cautions: e.cautions.map((c) => ({ code: c.code, message: c.message, breaths: c.breaths })),
     report: e.report === null ? null : href(e.report),
-    // inline SVG needs no namespace; leaving it out keeps every URL-like string out of the page
-    thumb: e.thumb === null ? null : e.thumb.replace(' xmlns="http://www.w3.org/2000/svg"', '').trim(),
+    thumb: e.thumb === null ? null : e.thumb.trim(),
     look: needsLook(e),
   });
   return row;

@@ -1,6 +1,7 @@
-// The study index's thumbnail of one recording: its ok breaths' expired CO2 against volume, overlaid, as a tiny
-// standalone SVG (no axes, no text, xmlns set so it also works as an <img> data URI). Written once per recording by
-// `batch --report` (thumb.svg in the recording's folder), so the index can be rebuilt from disk without analysing again.
+// The study index's thumbnail of one recording: its ok breaths' expired CO2 against volume, overlaid, as a tiny SVG
+// element for inline use in HTML (no axes, no text, no namespace: the index page embeds it as it is). Written once per
+// recording by `batch --report` (thumb.svg in the recording's folder), so the index can be rebuilt from disk without
+// analysing again.
 
 import type { CurveInput } from './breath-shapes';
 import { evenSubsample } from './breath-chart';
@@ -35,7 +36,7 @@ export function thumbnailSvg(curves: readonly Pick<CurveInput, 'v_ml' | 'co2_mmh
     ? `<g fill="none" stroke="${COLOURS.co2}" stroke-width="0.8" stroke-opacity="0.45">${paths.join('')}</g>`
     : `<line x1="${width / 2 - 8}" y1="${height / 2}" x2="${width / 2 + 8}" y2="${height / 2}" stroke="${COLOURS.axis}"/>`;
   return (
-    `<svg xmlns="http://www.w3.org/2000/svg" viewBox="0 0 ${width} ${height}" width="${width}" height="${height}">` +
+    `<svg viewBox="0 0 ${width} ${height}" width="${width}" height="${height}">` +
     `<rect x="0.5" y="0.5" width="${width - 1}" height="${height - 1}" fill="#fff" stroke="${COLOURS.grid}"/>${body}</svg>\n`
   );
 }
