@@ -1,12 +1,15 @@
 // `phasewise batch merge SHARD_DIR... --out DIR`: combines the outputs of `batch --shard I/N` runs into what one
 // run over all inputs writes: the per-recording folders are copied, and DIR/breaths.csv, DIR/recordings.csv and
-// DIR/manifest.json are rebuilt in input order. Refuses shards from different settings, versions or input lists,
-// missing or repeated shards, and shards still holding unfinished inputs.
-import { copyFileSync, existsSync, mkdirSync } from 'node:fs';
+// DIR/manifest.json are rebuilt in input order; when every shard was run with --report (each holds index.html), the
+// reports and thumbnails are copied too and DIR/index.html is rebuilt from them. Refuses shards from different
+// settings, versions or input lists, missing or repeated shards, and shards still holding unfinished inputs.
+import { copyFileSync, existsSync, mkdirSync, rmSync } from 'node:fs';
 import { dirname, join, resolve } from 'node:path';
 import { writeFileAtomic } from '../node/atomic-write';
 import { countEntries, manifestJson, MANIFEST_FILE, readManifest, type Manifest, type ManifestEntry } from './manifest';
+import { REPORT_FILE, THUMB_FILE } from './process-recording';
 import { BATCH_EXIT_SOME_FAILED } from './run-batch';
+import { STUDY_INDEX_FILE, writeStudyIndex } from './study-index';
 import { writeBatchTables } from './tables';
 
 export class MergeError extends Error {}
@@ -21,6 +24,32 @@ function same(ms: readonly { dir: string; m: Manifest }[], field: 'version' | 's
   for (const x of ms) {
     if (x.m[field] !== first.m[field]) {
       throw new MergeError(`${x.dir} and ${first.dir} have different ${what}; merge only shards of one batch (same inputs, settings and phasewise version)`);
+    }
+  }
+}
+
+/** Whether the shards were run with --report (each wrote index.html); a mix is refused. */
+function withReport(shardDirs: readonly string[]): boolean {
+  const has = shardDirs.map((d) => existsSync(join(d, STUDY_INDEX_FILE)));
+  if (has.every(Boolean)) return true;
+  if (!has.some(Boolean)) return false;
+  const without = shardDirs.filter((_, k) => !has[k]);
+  throw new MergeError(`${without.join(', ')}: no ${STUDY_INDEX_FILE} here, but other shards have one; run every shard with --report or none (then --resume --report adds the reports)`);
+}
+
+/** Copies each ok recording's files from its shard folder into `out` (with the report and thumbnail when `report`). */
+function copyRecordingFiles(entries: readonly { e: ManifestEntry; dir: string }[], out: string, report: boolean): void {
+  for (const { e, dir } of entries) {
+    if (e.status !== 'ok') continue;
+    const folder = dirname(e.outputs.breaths);
+    const extra = report ? [join(folder, REPORT_FILE), join(folder, THUMB_FILE)] : [];
+    for (const rel of [e.outputs.breaths, e.outputs.summary, join(folder, 'trends.csv'), join(folder, 'events.csv'), ...extra]) {
+      const from = resolve(dir, rel);
+      const to = join(out, rel);
+      if (from === to) continue;
+      if (!existsSync(from)) throw new MergeError(`${from} is missing; run that shard again with --resume`);
+      mkdirSync(dirname(to), { recursive: true });
+      copyFileSync(from, to);
     }
   }
 }
@@ -55,23 +84,15 @@ export function mergeShards(shardDirs: readonly string[], outDir: string, comman
   for (let k = 1; k < entries.length; k++) {
     if (entries[k]!.e.recording === entries[k - 1]!.e.recording) throw new MergeError(`${entries[k]!.e.recording} appears in two shards; give each shard once`);
   }
-  for (const { e, dir } of entries) {
-    if (e.status !== 'ok') continue;
-    const folder = dirname(e.outputs.breaths);
-    for (const rel of [e.outputs.breaths, e.outputs.summary, join(folder, 'trends.csv'), join(folder, 'events.csv')]) {
-      const from = resolve(dir, rel);
-      const to = join(out, rel);
-      if (from === to) continue;
-      if (!existsSync(from)) throw new MergeError(`${from} is missing; run that shard again with --resume`);
-      mkdirSync(dirname(to), { recursive: true });
-      copyFileSync(from, to);
-    }
-  }
+  const report = withReport(ms.map((x) => x.dir));
+  copyRecordingFiles(entries, out, report);
   const inputs = entries.map((x) => x.e);
   if (inputs.length !== ms[0]!.m.inputs_total) {
     throw new MergeError(`the shards hold ${inputs.length} inputs but the batch had ${ms[0]!.m.inputs_total}; give every shard folder`);
   }
   writeBatchTables(out, inputs);
+  if (report) writeStudyIndex(out, inputs);
+  else rmSync(join(out, STUDY_INDEX_FILE), { force: true });
   const first = ms[0]!.m;
   const starts = ms.map((x) => x.m.started_at).sort();
   const ends = ms.map((x) => x.m.finished_at ?? x.m.started_at).sort();

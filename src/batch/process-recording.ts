@@ -14,6 +14,14 @@ import { sha256File } from './hash';
 import type { BreathEvent } from '../analyse/analyser';
 import type { ReportCurve } from '../report/html/breath-chart';
 import { reportCurveOf, reportHtml } from '../report/html/report-html';
+import { thumbnailSvg } from '../report/html/thumbnail';
+import { qualityOfStatus } from '../analyse/quality';
+import type { BreathRow } from '../types';
+
+/** The curves of the ok breaths, in breath order (the study index's thumbnail). */
+function okCurves(rows: readonly BreathRow[], curves: ReadonlyMap<number, ReportCurve>): ReportCurve[] {
+  return rows.filter((r) => qualityOfStatus(r.status) === 'ok' && curves.has(r.breath)).map((r) => curves.get(r.breath)!);
+}
 
 export interface RecordingTask {
   /** position in the (sharded) input list */
@@ -49,6 +57,8 @@ export interface RecordingResult {
 export const BREATHS_FILE = 'breaths.csv';
 export const SUMMARY_FILE = 'summary.json';
 export const REPORT_FILE = 'report.html';
+/** `batch --report`: the recording's thumbnail for the study index (overlaid ok breaths, tiny SVG) */
+export const THUMB_FILE = 'thumb.svg';
 
 /** Stable code and one-line message for anything a recording can throw (naming the recording id, not the path). */
 export function describeError(e: unknown, recording: string, path: string = recording): { code: string; message: string } {
@@ -82,7 +92,7 @@ export async function processRecording(task: RecordingTask, reader: ReaderThread
   try {
     if (task.resumeSha256 !== null && existsSync(task.path)) Object.assign(result, await sha256File(task.path));
     const reportPath = join(task.outFolder, REPORT_FILE);
-    const complete = existsSync(breathsPath) && existsSync(summaryPath) && (!task.report || existsSync(reportPath));
+    const complete = existsSync(breathsPath) && existsSync(summaryPath) && (!task.report || (existsSync(reportPath) && existsSync(join(task.outFolder, THUMB_FILE))));
     if (task.resumeSha256 !== null && result.sha256 === task.resumeSha256 && complete) {
       result.status = 'ok';
       result.resumed = true;
@@ -98,7 +108,10 @@ export async function processRecording(task: RecordingTask, reader: ReaderThread
       const summary = o.summary;
       // summary.json last: its presence marks a complete result for --resume
       for (const name of outputNames(o).filter((n) => n !== SUMMARY_FILE)) writeFileAtomic(join(task.outFolder, name), outputFile(o, name)!);
-      if (task.report) writeFileAtomic(reportPath, reportHtml({ outputs: o, curves }));
+      if (task.report) {
+        writeFileAtomic(reportPath, reportHtml({ outputs: o, curves }));
+        writeFileAtomic(join(task.outFolder, THUMB_FILE), thumbnailSvg(okCurves(o.rows, curves)));
+      }
       writeFileAtomic(summaryPath, outputFile(o, SUMMARY_FILE)!);
       result.status = 'ok';
       result.rows = report.rows;
@@ -109,7 +122,7 @@ export async function processRecording(task: RecordingTask, reader: ReaderThread
     result.status = 'failed';
     result.error = describeError(e, task.recording, task.path);
     // never leave an earlier run's outputs looking like this input's result
-    for (const name of [BREATHS_FILE, SUMMARY_FILE, 'trends.csv', 'events.csv', REPORT_FILE]) rmSync(join(task.outFolder, name), { force: true });
+    for (const name of [BREATHS_FILE, SUMMARY_FILE, 'trends.csv', 'events.csv', REPORT_FILE, THUMB_FILE]) rmSync(join(task.outFolder, name), { force: true });
     // the manifest still records what the failed input was (size and content hash), when it can be read
     if (result.sha256 === null && existsSync(task.path)) {
       try {

@@ -17,6 +17,7 @@ import { runTasks } from './pool';
 import { BREATHS_FILE, SUMMARY_FILE, type RecordingResult, type RecordingTask } from './process-recording';
 import { createProgress } from './progress';
 import { selectShard, type Shard } from './shard';
+import { STUDY_INDEX_FILE, writeStudyIndex } from './study-index';
 import { STUDY_TABLES, writeBatchTables } from './tables';
 
 /** Exit code of a batch in which at least one recording failed (the others are complete). */
@@ -113,13 +114,16 @@ export async function runBatch(o: BatchOptions): Promise<BatchOutcome> {
   if (o.stop?.aborted) {
     progress.stop();
     // study tables of an earlier run would not match this manifest
-    for (const f of STUDY_TABLES) rmSync(join(outDir, f), { force: true });
+    for (const f of [...STUDY_TABLES, STUDY_INDEX_FILE]) rmSync(join(outDir, f), { force: true });
     writeManifest();
     const c = manifest.counts;
     return { manifest, exitCode: c.failed > 0 ? BATCH_EXIT_SOME_FAILED : 0, warnings, interrupted: { complete: c.ok + c.failed, total: entries.length } };
   }
   progress.stop();
   writeBatchTables(outDir, entries);
+  // index.html only with --report (an earlier run's page would not match these tables)
+  if (o.report) writeStudyIndex(outDir, entries);
+  else rmSync(join(outDir, STUDY_INDEX_FILE), { force: true });
   manifest.finished_at = new Date().toISOString();
   manifest.elapsed_s = round3((performance.now() - t0) / 1000);
   writeManifest();

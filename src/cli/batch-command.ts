@@ -4,6 +4,7 @@
 // 130 stopped by Ctrl-C (SIGINT), 143 by SIGTERM (128 + the signal number, common practice, no source): the
 // recordings in flight finish, the manifest names what is complete, and a second signal exits at once.
 import { availableParallelism } from 'node:os';
+import { existsSync } from 'node:fs';
 import { join } from 'node:path';
 import { type Command, InvalidArgumentError } from 'commander';
 import { EXIT_CODES } from '../ingest/errors';
@@ -12,6 +13,7 @@ import { mergeShards, MergeError } from '../batch/merge';
 import { BatchUsageError, runBatch } from '../batch/run-batch';
 import { parseShard, ShardError } from '../batch/shard';
 import { MANIFEST_FILE, type Manifest } from '../batch/manifest';
+import { STUDY_INDEX_FILE } from '../batch/study-index';
 import { STUDY_TABLES } from '../batch/tables';
 import { addInputOptions } from './options';
 
@@ -72,7 +74,9 @@ function report(m: Manifest, out: string, quiet: boolean): void {
   process.stdout.write(
     `batch: ${m.inputs.length} recording(s): ${c.ok} ok (${c.resumed} kept from an earlier run), ${c.failed} failed` +
       (m.elapsed_s === null ? '' : m.merged_from.length ? ` (merged from ${m.merged_from.length} shard folder(s))` : ` in ${m.elapsed_s} s`) +
-      `\nwritten: ${[...STUDY_TABLES, MANIFEST_FILE].map((f) => join(out, f)).join(', ')}\n`,
+      `\nwritten: ${[...STUDY_TABLES, MANIFEST_FILE].map((f) => join(out, f)).join(', ')}\n` +
+      // with --report (a run or a merge without it removes a stale one)
+      (existsSync(join(out, STUDY_INDEX_FILE)) ? `study index: ${join(out, STUDY_INDEX_FILE)} (open it in a browser)\n` : ''),
   );
 }
 
@@ -97,7 +101,7 @@ export function registerBatch(program: Command): void {
     // not requiredOption: Commander would then demand it of `batch merge` too (it checks ancestors' options)
     .option('--out <dir>', 'output folder (required)')
     .option('--jobs <n>', 'threads to use: lanes of an analysis thread and a reader thread when most bytes are in recordings of 4 MB or more, else N - 1 lanes (at least one) that read their own files (default: number of cores)', positiveInt)
-    .option('--report', 'also write report.html (one self-contained page, as `analyse --report`) in each recording folder')
+    .option('--report', 'also write report.html (one self-contained page, as `analyse --report`) in each recording folder and index.html, the study index linking them')
     .option('--resume', 'keep results whose input content and settings are unchanged since the manifest in --out')
     .option('--shard <I/N>', 'analyse only shard I of N (0-based; input k goes to shard k mod N); see `batch merge`')
     .option('--quiet', 'no progress and no closing summary (failures are still listed on stderr)');
