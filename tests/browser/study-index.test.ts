@@ -4,8 +4,8 @@
 //   column orders the rows as the inline data say (order computed here from recordings.csv), the needs-a-look
 //   filter leaves the one gapped recording, its link opens its report.html, thumbnails are drawn, and no request
 //   other than file:// is made, no script error and no CSP violation occurs;
-// - a study of 300 hand-made entries (built with the same builder): 100 rows per page, paging and filtering work,
-//   and the page is ready (load event) in under 2 s.
+// - a study of 300 hand-made entries (built with the same builder): 100 rows per page, paging and filtering work.
+//   How fast it opens is measured outside the suite (tests never time): npx tsx tests/browser/measure-index-load.ts.
 //
 // Without /usr/bin/chromium the tests are skipped with a message, except under CI=true, where that is a failure.
 
@@ -103,7 +103,7 @@ describe.skipIf(!HAVE)('study index.html in headless Chromium, from file://', ()
     await page.close();
   });
 
-  it('a 300-recording study: 100 rows a page, paging and the filter work, ready in under 2 s', async () => {
+  it('a 300-recording study: 100 rows a page, paging and the filter work', async () => {
     const thumb = read(join(tmp, 'out', 'recordings', 'data__a.csv'), 'thumb.svg');
     const entries: StudyIndexEntry[] = Array.from({ length: 300 }, (_, k) => ({
       table: { recording: `r${String(k).padStart(3, '0')}.csv`, status: 'ok', duration_s: 600 + k, breaths_found: 100, breaths_ok: 100 - (k % 40),
@@ -115,9 +115,6 @@ describe.skipIf(!HAVE)('study index.html in headless Chromium, from file://', ()
     const file = join(tmp, 'big.html');
     writeFileSync(file, studyIndexHtml(entries, 'test'));
     const { page, requests, problems } = await open(browser!, pathToFileURL(file).href);
-    const loadMs = await page.evaluate(() => (performance.getEntriesByType('navigation')[0] as PerformanceNavigationTiming).loadEventEnd);
-    expect(loadMs).toBeGreaterThan(0);
-    expect(loadMs).toBeLessThan(2000);
     expect((await shownRecordings(page)).length).toBe(100);
     expect(await page.textContent('#pageinfo')).toBe('page 1 of 3');
     await page.click('#next');
