@@ -189,3 +189,63 @@ describe('EDF errors (one line, with a code)', () => {
     expect(report.settings.flow_col).toEqual({ value: 'Airflow', origin: 'given' });
   });
 });
+
+describe('EDF variants and channel choice', () => {
+  const base = load('c100.edf');
+  const patch = (b: Uint8Array, at: number, text: string): Uint8Array => {
+    const c = b.slice();
+    for (let i = 0; i < text.length; i++) c[at + i] = text.charCodeAt(i);
+    return c;
+  };
+  const code = (f: () => unknown): string => {
+    try {
+      f();
+    } catch (e) {
+      return e instanceof InputError ? e.code : String(e);
+    }
+    return 'none';
+  };
+
+  it('plain EDF (blank reserved field): records follow each other, annotation TALs still listed', () => {
+    const b = patch(base, 192, ' '.repeat(44));
+    const h = parseEdfHeader(b, b.length, 'x.edf');
+    expect(h.plus).toBeNull();
+    const { report } = readEdfBytes(b, ingest, 20, 'x.edf');
+    expect(report.gaps).toBe(0);
+    expect(report.samples).toBe(6000);
+  });
+
+  it('EDF+D read as EDF+C ignores the time-keeping TALs: no gap', () => {
+    const b = patch(load('d100.edf'), 192, 'EDF+C');
+    expect(readEdfBytes(b, ingest, 20, 'x.edf').report.gaps).toBe(0);
+  });
+
+  it('an EDF+D record whose time-keeping TAL goes back in time is refused', () => {
+    // record 31 (index 30) of d100.edf: "+50" -> "+10", before record 30 ends
+    const d = load('d100.edf');
+    const at = 1024 + 30 * parseEdfHeader(d, d.length, 'x').record_bytes + 400;
+    const b = patch(d, at, '+10');
+    expect(code(() => readEdfBytes(b, ingest, 20, 'x.edf'))).toBe('time_not_increasing');
+  });
+
+  it('two signals in L/s: the one labelled flow wins; two labelled flow: ambiguous', () => {
+    // CO2 dimension -> L/s and label -> "Pressure": flow is still Airflow by its label, CO2 missing
+    const dimAt = 256 + 3 * (16 + 80) + 8;
+    const b = patch(patch(base, dimAt, 'L/s     '), 256 + 16, 'Pressure        ');
+    expect(code(() => readEdfBytes(b, ingest, 20, 'x.edf'))).toBe('columns_not_found');
+    const c = patch(patch(base, dimAt, 'L/s     '), 256 + 16, 'Flow 2          ');
+    expect(code(() => readEdfBytes(c, ingest, 20, 'x.edf'))).toBe('ambiguous_column');
+  });
+
+  it('--flow-unit overrides the dimension (L/min: flow / 60); a non-flow dimension without it is unit_mismatch', () => {
+    const a = readEdfBytes(base, ingest, 20, 'x.edf');
+    const m = readEdfBytes(base, { ...ingest, flow_unit: 'L/min' }, 20, 'x.edf');
+    expectClose(m.blocks[0]!.flow_lps[10]!, a.blocks[0]!.flow_lps[10]! / 60, { rel: 1e-12 });
+    const dimAt = 256 + 3 * (16 + 80);
+    expect(code(() => readEdfBytes(patch(base, dimAt, 'uV      '), { ...ingest, flow_col: 'Airflow' }, 20, 'x.edf'))).toBe('unit_mismatch');
+  });
+
+  it('a flow signal slower than min_rate_hz is rate_too_low', () => {
+    expect(code(() => readEdfBytes(base, ingest, 200, 'x.edf'))).toBe('rate_too_low');
+  });
+});
