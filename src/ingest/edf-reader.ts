@@ -36,9 +36,15 @@ function digitalAt(b: Uint8Array, at: number, bytes: 2 | 3): number {
   return v >= 0x800000 ? v - 0x1000000 : v;
 }
 
-/** Physical value of a digital sample (Kemp et al. 1992). */
+/**
+ * Physical value of a digital sample: phys = (dig - dmin) (pmax - pmin) / (dmax - dmin) + pmin (Kemp et al. 1992),
+ * evaluated as ((dig - dmin) (pmax - pmin) + pmin (dmax - dmin)) / (dmax - dmin) (the same value; derived here): with
+ * whole-number limits the numerator is exact and the one division rounds once, so a value that is a whole number of
+ * a round decimal step (0.002 mmHg) comes out as the double nearest that decimal, as a text table's cell would.
+ * @example edfPhysical(18000, { pmin: -60, pmax: 60, dmin: -30000, dmax: 30000 }) // => 36
+ */
 export function edfPhysical(dig: number, s: Pick<EdfSignal, 'pmin' | 'pmax' | 'dmin' | 'dmax'>): number {
-  return ((dig - s.dmin) * (s.pmax - s.pmin)) / (s.dmax - s.dmin) + s.pmin;
+  return ((dig - s.dmin) * (s.pmax - s.pmin) + s.pmin * (s.dmax - s.dmin)) / (s.dmax - s.dmin);
 }
 
 /** The physical samples of one signal in one record. */

@@ -5,7 +5,7 @@ import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { parseEdfHeader } from '../../src/ingest/edf-header';
-import { edfRecordSamples, readEdfBytes } from '../../src/ingest/edf-reader';
+import { edfPhysical, edfRecordSamples, readEdfBytes } from '../../src/ingest/edf-reader';
 import { InputError } from '../../src/ingest/errors';
 import { analyseFile } from '../../src/node/analyse-file';
 import { defaultSettings } from '../../src/settings';
@@ -97,13 +97,10 @@ describe('analysis of an EDF equals the analysis of its twin CSV', () => {
   // The twin CSV holds the same samples: time to 0.01 s (exact on the 100 Hz grid), physical values to 10
   // significant digits, which write them exactly (the fixtures' digital step is a round decimal: EDF flow 1e-4 L/s,
   // CO2 0.002 mmHg; BDF flow 1e-5 L/s, CO2 1e-4 mmHg), and CO2 cells blank where a 50 Hz CO2 has no sample.
-  // The EDF's values come from the scaling formula in double precision, the CSV's from decimal parsing: they may
-  // differ in the last bits (about 1e-16 relative). Compared: the number of breaths and partial breaths, the gaps,
-  // and every field of every breath row: CO2 at 100 Hz, numbers within abs 1e-9 / rel 1e-9 and everything else equal.
-  // With CO2 at 50 Hz the analysis is sensitive to those last bits (measured: CO2 samples equal to 1.3e-13 mmHg move
-  // airway dead space by 0.006 mL and the fitted delay by 2e-4 relative: a discrete choice in the fits flips), so
-  // there the breaths must be the same breaths (start, end and every non-numeric field equal, times to 1e-9 s) and the
-  // other numbers agree within abs 1e-3 / rel 1e-3.
+  // Compared: the number of breaths and partial breaths, the gaps, and every field of every breath row (numbers
+  // within abs 1e-9 / rel 1e-9, everything else equal). With CO2 at 50 Hz the analysis is sensitive to the last bits
+  // of the samples (measured: CO2 samples 1.3e-13 mmHg apart moved airway dead space by 0.006 mL), so this also
+  // checks that edfPhysical rounds once, as the parsing of a decimal cell does.
   for (const f of FIXTURES) {
     it(`${f.name}`, async () => {
       const settings = defaultSettings();
@@ -120,9 +117,7 @@ describe('analysis of an EDF equals the analysis of its twin CSV', () => {
         for (const k of Object.keys(ra)) {
           const x = ra[k];
           const y = rb[k];
-          const time = k === 't_start_s' || k === 't_end_s' || k === 't_exp_start_s';
-          const tol = f.co2_hz === 100 || time ? { abs: 1e-9, rel: 1e-9 } : { abs: 1e-3, rel: 1e-3 };
-          if (typeof x === 'number' && typeof y === 'number' && Number.isFinite(y)) expectClose(x, y, tol, `breath ${i + 1} ${k}`);
+          if (typeof x === 'number' && typeof y === 'number' && Number.isFinite(y)) expectClose(x, y, { abs: 1e-9, rel: 1e-9 }, `breath ${i + 1} ${k}`);
           else expect(x, `breath ${i + 1} ${k}`).toEqual(y);
         }
       }
@@ -187,6 +182,18 @@ describe('EDF errors (one line, with a code)', () => {
   it('signals chosen by label with --flow-col / --co2-col', () => {
     const { report } = readEdfBytes(base, { ...ingest, flow_col: 'airflow', co2_col: 'CO2' }, 20, 'x.edf');
     expect(report.settings.flow_col).toEqual({ value: 'Airflow', origin: 'given' });
+  });
+});
+
+describe('edfPhysical', () => {
+  it('the scaling of Kemp et al. (1992) at the limits and in between (worked by hand)', () => {
+    const s = { pmin: -60, pmax: 60, dmin: -30000, dmax: 30000 };
+    expect(edfPhysical(-30000, s)).toBe(-60);
+    expect(edfPhysical(30000, s)).toBe(60);
+    expect(edfPhysical(18000, s)).toBe(36); // 48000 * 120 / 60000 - 60
+    expect(edfPhysical(6257, s)).toBe(12.514); // 36257 * 120 / 60000 - 60, the double nearest 12.514
+    // BDF-style limits with a non-zero offset: 0 .. 100 % over -8388608 .. 8388607
+    expectClose(edfPhysical(0, { pmin: 0, pmax: 100, dmin: -8388608, dmax: 8388607 }), 8388608 * 100 / 16777215, { rel: 1e-15 });
   });
 });
 

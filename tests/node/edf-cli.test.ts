@@ -13,8 +13,8 @@ const dir = mkdtempSync(join(tmpdir(), 'phasewise-edf-cli-'));
 const run = (...args: string[]) => spawnSync(process.execPath, [cli, ...args], { encoding: 'utf8' });
 
 describe.skipIf(!existsSync(cli))('phasewise analyse on EDF+', () => {
-  for (const name of ['c100.edf', 'd100.edf']) {
-    it(`${name}: exit 0, breaths.csv byte-identical to the twin CSV's (CO2 at the flow's rate)`, () => {
+  for (const name of ['c100.edf', 'd100.edf', 'c50.edf', 'b50.bdf']) {
+    it(`${name}: exit 0, breaths.csv byte-identical to the twin CSV's`, () => {
       const a = join(dir, `${name}-edf`);
       const b = join(dir, `${name}-csv`);
       const r = run('analyse', join(fixtures, name), '--out', a);
