@@ -21,6 +21,7 @@ describe.skipIf(!existsSync(cli))('phasewise analyse on EDF+', () => {
       expect(r.status, r.stderr).toBe(0);
       expect(r.stdout).toContain('read: EDF/BDF signals, flow Airflow [L/s], CO2 CO2 [mmHg], 100 Hz');
       expect(r.stdout).toContain('CAUTION:');
+      expect(r.stdout).toContain('EDF+ annotations: 2 — 2.5 s "suction", 42.5 s "PEEP 8" (summary.json input.annotations)');
       expect(run('analyse', join(fixtures, `${name}.twin.csv`), '--out', b, '--quiet').status).toBe(0);
       expect(readFileSync(join(a, 'breaths.csv'), 'utf8')).toBe(readFileSync(join(b, 'breaths.csv'), 'utf8'));
       const input = JSON.parse(readFileSync(join(a, 'summary.json'), 'utf8')).input;
