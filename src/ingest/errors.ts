@@ -19,6 +19,9 @@ export const INPUT_ERROR_CODES = [
   'too_many_skipped',
   'read_failed',
   'bad_setting',
+  'edf_bad_header',
+  'edf_truncated',
+  'edf_record_count',
 ] as const;
 
 export type InputErrorCode = (typeof INPUT_ERROR_CODES)[number];

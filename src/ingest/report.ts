@@ -52,6 +52,14 @@ export interface IngestReport {
   /** when the time column holds clock stamps: the stamp of t = 0 (the first row read); 'time_of_day': seconds since
    *  midnight, 'date_time': seconds since 1970-01-01 (UTC when the stamps carry a zone), and as text */
   clock_start?: { kind: ClockKind; seconds: number; text: string };
+  /** EDF+ / BDF+ annotations (onset on the recording's time axis, s; duration in s or null), in file order */
+  annotations?: EdfAnnotation[];
+}
+
+export interface EdfAnnotation {
+  onset_s: number;
+  duration_s: number | null;
+  text: string;
 }
 
 /** Skip reasons (stable codes). */

@@ -143,7 +143,7 @@ function refuseLowRate(time: TimeChoice, min_rate_hz: number, sample: ColumnSamp
 }
 
 /** The factor that brings flow volumes to BTPS, with a note when flow is converted. */
-function flowConditionFactor(settings: IngestSettings, notes: string[]): number {
+export function flowConditionFactor(settings: IngestSettings, notes: string[]): number {
   // flow volumes to BTPS (derived here, docs/methods.md: F_BTPS = (310.15 / (273.15 + T)) (PB - PH2O(T)) / (PB - 47); dry gas: PH2O(T) = 0)
   const conditionFactor = settings.flow_condition === 'btps' ? 1 : btpsFactor(settings.flow_temp_c, settings.pb_mmhg, settings.flow_condition === 'atps');
   if (settings.flow_condition !== 'btps') {

@@ -1,11 +1,13 @@
 // readRecordingFile: streams a recording file from disk through the ingest reader, block by block.
+// EDF/BDF files (.edf, .bdf) are read whole and decoded by src/ingest/edf-reader.ts.
 // Memory stays flat: 1 MiB byte chunks, the carried partial line and the current block of samples.
 // Checks here: the file exists, is a file and is not empty; the text checks (encoding, binary content, damage) are
 // the shared byte reader's (src/ingest/bytes.ts), the same as the viewer's.
 import { isAscii } from 'node:buffer';
 import { createReadStream } from 'node:fs';
-import { stat } from 'node:fs/promises';
+import { readFile, stat } from 'node:fs/promises';
 import { CHUNK_BYTES, readRecordingBytes } from '../ingest/bytes';
+import { isEdfName, readEdfBytes } from '../ingest/edf-reader';
 import { InputError } from '../ingest/errors';
 import type { IngestReport } from '../ingest/report';
 import type { IngestSettings } from '../settings';
@@ -23,6 +25,7 @@ export async function readRecordingFile(
   onChunk?: (bytes: Uint8Array) => void,
 ): Promise<IngestReport> {
   const size = await checkFile(path);
+  if (isEdfName(path)) return readEdfFile(path, settings, min_rate_hz, onBlock, onChunk);
   const stream = createReadStream(path, { highWaterMark: CHUNK_BYTES });
   try {
     return await readRecordingBytes(
@@ -41,6 +44,23 @@ export async function readRecordingFile(
   } finally {
     stream.destroy();
   }
+}
+
+/** An EDF/BDF file (chosen by its extension, .edf or .bdf): read whole, decoded by the core's EDF reader. */
+async function readEdfFile(
+  path: string, settings: IngestSettings, min_rate_hz: number, onBlock: (b: SampleBlock) => void,
+  onChunk?: (bytes: Uint8Array) => void,
+): Promise<IngestReport> {
+  let bytes: Buffer;
+  try {
+    bytes = await readFile(path);
+  } catch (e) {
+    throw new InputError('read_failed', `the file cannot be read (${(e as NodeJS.ErrnoException).code ?? String(e)})`, 'Check the permissions of the file.', { file: path });
+  }
+  const { blocks, report } = readEdfBytes(new Uint8Array(bytes.buffer, bytes.byteOffset, bytes.length), settings, min_rate_hz, path);
+  for (const b of blocks) onBlock(b);
+  if (onChunk) onChunk(bytes);
+  return report;
 }
 
 async function* tapped(chunks: AsyncIterable<Buffer>, onChunk: (bytes: Uint8Array) => void): AsyncGenerator<Buffer> {

@@ -317,6 +317,8 @@ export function formatSummaryText(s: Summary): string {
   if (skipped.length) lines.push(`skipped rows by reason: ${skipped.map(([k, n]) => `${k} ${n}`).join(', ')}`);
   const gaps = gapLine(inp);
   if (gaps) lines.push(gaps);
+  const annotations = annotationLine(inp);
+  if (annotations) lines.push(annotations);
   const read = readingLine(inp);
   if (read) lines.push(read);
   for (const n of s.notes) lines.push(`note: ${n}`);
@@ -335,6 +337,18 @@ function fmt(x: number | null, digits: number): string {
 
 /** Gaps listed on the terminal; the rest are counted ("and N more"). */
 const TERMINAL_GAPS = 5;
+
+/** EDF+ annotations listed on the terminal; the rest are counted. */
+const TERMINAL_ANNOTATIONS = 5;
+
+/** One line listing the EDF+ annotations (onset and text), or '' when the input has none. */
+function annotationLine(inp: InputSummary): string {
+  const list = Array.isArray(inp.annotations) ? (inp.annotations as { onset_s: number; text: string }[]) : [];
+  if (list.length === 0) return '';
+  const shown = list.slice(0, TERMINAL_ANNOTATIONS).map((a) => `${fmt(a.onset_s, 2)} s "${a.text}"`);
+  const more = list.length - shown.length;
+  return `EDF+ annotations: ${list.length} — ${shown.join(', ')}${more > 0 ? `, and ${more} more` : ''} (summary.json input.annotations)`;
+}
 
 /** One line listing the flow gaps (start and length), or '' when there is none. */
 function gapLine(inp: InputSummary): string {
@@ -358,6 +372,8 @@ function readingLine(inp: InputSummary): string {
   if (!cols || !units) return '';
   const delim = inp.delimiter === '\t' ? 'tab' : inp.delimiter === ';' ? 'semicolon' : inp.delimiter === ',' ? 'comma' : String(inp.delimiter);
   const rate = typeof inp.rate_hz === 'number' && Number.isFinite(inp.rate_hz) ? `, ${fmt(inp.rate_hz, 0)} Hz` : '';
+  // EDF/BDF input (src/ingest/edf-reader.ts) has signals, not delimited columns
+  if (inp.delimiter === '') return `read: EDF/BDF signals, flow ${withUnit(cols.flow, units.flow)}, CO2 ${withUnit(cols.co2, units.co2)}${rate} (details: summary.json input.notes)`;
   return (
     `read: ${delim}-separated, decimal '${String(inp.decimal)}', time ${withUnit(cols.time ?? '(from --rate)', units.time)}, ` +
     `flow ${withUnit(cols.flow, units.flow)}, CO2 ${withUnit(cols.co2, units.co2)}${rate} (details: summary.json input.notes)`

@@ -1,0 +1,185 @@
+// readEdfBytes: a whole EDF / EDF+ / BDF / BDF+ file in memory -> the same SampleBlocks and IngestReport as the text
+// reader. Pure and browser-safe. Header: src/ingest/edf-header.ts.
+// - physical value of a sample: phys = (dig - dmin) (pmax - pmin) / (dmax - dmin) + pmin (Kemp et al. 1992),
+//   digital samples are 16-bit (EDF) or 24-bit (BDF) little-endian two's complement.
+// - time of sample i of a signal with n samples per record in record r: onset_r + i * record_s / n; onset_r = r * record_s
+//   for EDF, EDF+C and BDF; for EDF+D the first TAL of the record's annotation signal (its time-keeping TAL; Kemp & Olivan 2003).
+// - the flow and CO2 samples are merged by time into rows and go through the text reader's row assembler
+//   (src/ingest/row-assembler.ts): a CO2 channel slower than flow is filled by linear interpolation between its
+//   samples exactly as blank CO2 cells of a table are, and a pause between EDF+D records longer than max_silence_s
+//   becomes a gap (one NaN sample), as a pause in a table's time column does.
+import type { IngestSettings } from '../settings';
+import type { SampleBlock } from '../types';
+import { chooseEdfChannels, type EdfChannels } from './edf-channels';
+import { parseEdfHeader, type EdfHeader, type EdfSignal } from './edf-header';
+import { InputError } from './errors';
+import type { TableLayout } from './layout';
+import type { EdfAnnotation, IngestReport } from './report';
+import { RowAssembler } from './row-assembler';
+
+/** File name extensions read as EDF / BDF (lower case, with the dot). */
+export const EDF_EXTENSIONS = ['.edf', '.bdf'] as const;
+
+/** True when the file name ends with .edf or .bdf (any case). */
+export function isEdfName(name: string): boolean {
+  const lower = name.toLowerCase();
+  return EDF_EXTENSIONS.some((e) => lower.endsWith(e));
+}
+
+/** Digital sample k of a signal within a record starting at byte `at`. */
+function digitalAt(b: Uint8Array, at: number, bytes: 2 | 3): number {
+  if (bytes === 2) {
+    const v = b[at]! | (b[at + 1]! << 8);
+    return v >= 0x8000 ? v - 0x10000 : v;
+  }
+  const v = b[at]! | (b[at + 1]! << 8) | (b[at + 2]! << 16);
+  return v >= 0x800000 ? v - 0x1000000 : v;
+}
+
+/**
+ * Physical value of a digital sample: phys = (dig - dmin) (pmax - pmin) / (dmax - dmin) + pmin (Kemp et al. 1992),
+ * evaluated as ((dig - dmin) (pmax - pmin) + pmin (dmax - dmin)) / (dmax - dmin) (the same value; derived here): with
+ * whole-number limits the numerator is exact and the one division rounds once, so a value that is a whole number of
+ * a round decimal step (0.002 mmHg) comes out as the double nearest that decimal, as a text table's cell would.
+ * @example edfPhysical(18000, { pmin: -60, pmax: 60, dmin: -30000, dmax: 30000 }) // => 36
+ */
+export function edfPhysical(dig: number, s: Pick<EdfSignal, 'pmin' | 'pmax' | 'dmin' | 'dmax'>): number {
+  return ((dig - s.dmin) * (s.pmax - s.pmin) + s.pmin * (s.dmax - s.dmin)) / (s.dmax - s.dmin);
+}
+
+/** The physical samples of one signal in one record. */
+export function edfRecordSamples(b: Uint8Array, h: EdfHeader, signal: number, record: number): Float64Array {
+  const s = h.signals[signal]!;
+  const base = h.header_bytes + record * h.record_bytes + s.offset_bytes;
+  const out = new Float64Array(s.samples_per_record);
+  for (let i = 0; i < out.length; i++) out[i] = edfPhysical(digitalAt(b, base + i * h.bytes_per_sample, h.bytes_per_sample), s);
+  return out;
+}
+
+/**
+ * Read a whole EDF/BDF file. Throws InputError for an unusable file (see ERRORS.md).
+ * The report's `rows` count merged sample rows (a flow sample, a CO2 sample, or both at one time); `annotations`
+ * lists the EDF+ annotations.
+ */
+export function readEdfBytes(
+  bytes: Uint8Array, settings: IngestSettings, min_rate_hz: number, fileName: string,
+): { blocks: SampleBlock[]; report: IngestReport } {
+  const h = parseEdfHeader(bytes, bytes.length, fileName);
+  const ch = chooseEdfChannels(h, settings, fileName);
+  const rate = ch.flow.samples_per_record / h.record_s;
+  if (rate < min_rate_hz) {
+    throw new InputError('rate_too_low', `the flow signal "${ch.flow.label}" is sampled at ${rate} Hz, below the minimum ${min_rate_hz} Hz needed for phase II work`, 'Record flow at a higher rate.', { file: fileName });
+  }
+  const { onsets, annotations } = readAnnotations(bytes, h, fileName);
+  const rows = new RowAssembler(edfLayout(h, ch, rate), settings, fileName);
+  const blocks: SampleBlock[] = [];
+  let line = 0;
+  for (let r = 0; r < h.records; r++) {
+    line = mergeRecord(bytes, h, ch, r, onsets[r]!, rows, line);
+    blocks.push(...rows.take());
+  }
+  blocks.push(...rows.finish());
+  const report = rows.report(bytes.length);
+  if (annotations.length) report.annotations = annotations;
+  return { blocks, report };
+}
+
+/** Flow and CO2 samples of one record, merged by time into rows; returns the last row number used. */
+function mergeRecord(b: Uint8Array, h: EdfHeader, ch: EdfChannels, r: number, onset: number, rows: RowAssembler, line: number): number {
+  const flow = edfRecordSamples(b, h, ch.flowIndex, r);
+  const co2 = edfRecordSamples(b, h, ch.co2Index, r);
+  const nf = flow.length;
+  const nc = co2.length;
+  let i = 0;
+  let j = 0;
+  while (i < nf || j < nc) {
+    // compare the times i / nf and j / nc exactly, in integers
+    const cmp = i >= nf ? 1 : j >= nc ? -1 : i * nc - j * nf;
+    if (cmp === 0) {
+      rows.row(++line, onset + (i * h.record_s) / nf, flow[i]!, co2[j]!);
+      i++;
+      j++;
+    } else if (cmp < 0) {
+      rows.row(++line, onset + (i * h.record_s) / nf, flow[i]!, NaN);
+      i++;
+    } else {
+      rows.row(++line, onset + (j * h.record_s) / nc, NaN, co2[j]!);
+      j++;
+    }
+  }
+  return line;
+}
+
+/** The layout the row assembler needs: seconds, the units' factors, the chosen signals as column names. */
+function edfLayout(h: EdfHeader, ch: EdfChannels, rate: number): TableLayout {
+  return {
+    delimiter: '',
+    decimal: '.',
+    line_end: '\n',
+    header_index: -1,
+    header_line: 0,
+    data_start_index: 0,
+    header: h.signals.map((s) => s.label),
+    field_count: h.signals.length,
+    header_trailing_empty: false,
+    columns: { time: -1, flow: ch.flowIndex, co2: ch.co2Index },
+    names: { time: null, flow: ch.flow.label, co2: ch.co2.label },
+    units: { time: 's', flow: ch.flowUnit, co2: ch.co2Unit },
+    clock_kind: null,
+    flow_factor: ch.flowFactor,
+    co2_factor: ch.co2Factor,
+    time_divisor: 1,
+    rate_hz: rate,
+    notes: ch.notes,
+    settings: ch.settings,
+  };
+}
+
+/** TALs of all annotation signals: record onsets (time-keeping TALs) and the annotations. */
+function readAnnotations(b: Uint8Array, h: EdfHeader, file: string): { onsets: number[]; annotations: EdfAnnotation[] } {
+  const onsets: number[] = [];
+  const annotations: EdfAnnotation[] = [];
+  const annot = h.signals.map((s, k) => (s.annotations ? k : -1)).filter((k) => k >= 0);
+  for (let r = 0; r < h.records; r++) {
+    let onset = r * h.record_s;
+    let keeping = NaN;
+    for (const k of annot) {
+      const s = h.signals[k]!;
+      const base = h.header_bytes + r * h.record_bytes + s.offset_bytes;
+      const tals = parseTals(b.subarray(base, base + s.samples_per_record * h.bytes_per_sample), file, r);
+      for (const [n, tal] of tals.entries()) {
+        if (n === 0 && k === annot[0] && tal.texts.length === 0) keeping = tal.onset_s;
+        else for (const text of tal.texts) annotations.push({ onset_s: tal.onset_s, duration_s: tal.duration_s, text });
+      }
+    }
+    if (h.plus === 'D') {
+      if (Number.isNaN(keeping)) throw new InputError('edf_bad_header', `EDF+D data record ${r + 1} has no time-keeping annotation (its onset)`, 'Check that the file is a complete EDF+ recording.', { file });
+      onset = keeping;
+    }
+    if (r > 0 && !(onset >= onsets[r - 1]! + h.record_s - 1e-9)) {
+      throw new InputError('time_not_increasing', `EDF+ data record ${r + 1} starts at ${onset} s, before the end of record ${r} (${onsets[r - 1]! + h.record_s} s)`, 'Check the export; the records must be in time order.', { file });
+    }
+    onsets.push(onset);
+  }
+  return { onsets, annotations };
+}
+
+interface Tal { onset_s: number; duration_s: number | null; texts: string[] }
+
+/** Time-stamped annotation lists of one record: `+onset[\x15duration]\x14text\x14...\x14\0` (Kemp & Olivan 2003). */
+function parseTals(bytes: Uint8Array, file: string, record: number): Tal[] {
+  const out: Tal[] = [];
+  const text = new TextDecoder('utf-8').decode(bytes);
+  for (const raw of text.split('\0')) {
+    if (raw === '') continue;
+    const parts = raw.split('\x14');
+    const [onsetText, durationText] = parts[0]!.split('\x15');
+    const onset = Number(onsetText);
+    if (!/^[+-]\d+(\.\d*)?$/.test(onsetText ?? '') || !Number.isFinite(onset)) {
+      throw new InputError('edf_bad_header', `EDF+ data record ${record + 1} holds an annotation with onset "${onsetText ?? ''}", not a signed number`, 'Check that the file is a complete EDF+ recording.', { file });
+    }
+    const duration = durationText === undefined || durationText === '' ? null : Number(durationText);
+    out.push({ onset_s: onset, duration_s: duration !== null && Number.isFinite(duration) ? duration : null, texts: parts.slice(1).filter((t) => t !== '') });
+  }
+  return out;
+}
