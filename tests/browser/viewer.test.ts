@@ -237,6 +237,10 @@ describe.skipIf(!HAVE)('review viewer in headless Chromium', () => {
   });
 
   it('paints the breath view, saves a screenshot and exports a PNG', async () => {
+    // the re-inclusion before this test recomputes the outputs in the worker: under load that was still running in one
+    // full run, the breath view had no scene yet and the PNG export did nothing; wait until the page is done
+    expect(await waitState(page, ['done'])).toBe('done');
+    await page.waitForFunction(() => (document.querySelector<HTMLCanvasElement>('#breath-chart canvas')?.width ?? 0) > 300);
     const painted = await page.evaluate(() => {
       const c = document.querySelector<HTMLCanvasElement>('#breath-chart canvas')!;
       const d = c.getContext('2d')!.getImageData(0, 0, c.width, c.height).data;
