@@ -9,7 +9,7 @@ import { basename, isAbsolute, join, posix, relative, resolve, sep } from 'node:
 import { globToRegExp, hasGlobChars, toPosix } from './glob';
 
 /** Extensions taken when a folder is searched (case-insensitive). */
-export const RECORDING_EXTENSIONS = ['.csv', '.tsv', '.txt'] as const;
+export const RECORDING_EXTENSIONS = ['.csv', '.tsv', '.txt', '.edf', '.bdf'] as const;
 
 export interface BatchInput {
   /** recording id: the path relative to the working folder with `/` separators (absolute when outside it) */

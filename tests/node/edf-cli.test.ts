@@ -1,7 +1,7 @@
 // `phasewise analyse rec.edf` through the built CLI: the reader is chosen by the extension; the outputs of an EDF+
 // fixture (written by EDFlib, tests/fixtures/edf) equal those of its twin CSV. Runs the built CLI (npm test builds it first).
 import { spawnSync } from 'node:child_process';
-import { existsSync, mkdtempSync, readFileSync } from 'node:fs';
+import { copyFileSync, existsSync, mkdirSync, mkdtempSync, readdirSync, readFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
@@ -37,5 +37,27 @@ describe.skipIf(!existsSync(cli))('phasewise analyse on EDF+', () => {
     const r = run('analyse', join(fixtures, 'b50.bdf'), '--out', join(dir, 'bad'), '--co2-col', 'EtCO2');
     expect(r.status).toBe(3);
     expect(r.stderr.trim()).toBe(`phasewise: ${join(fixtures, 'b50.bdf')}: no signal is labelled "EtCO2" (signals: "Airflow" (L/s), "CO2" (mmHg)). Give --co2-col with one of these labels.`);
+  });
+});
+
+describe.skipIf(!existsSync(cli))('phasewise batch on a folder with EDF+ and BDF files', () => {
+  it('finds .edf and .bdf beside .csv and analyses each to the same breaths as its twin CSV', () => {
+    const data = join(dir, 'mixed');
+    mkdirSync(data);
+    for (const name of ['c100.edf', 'b50.bdf']) {
+      copyFileSync(join(fixtures, name), join(data, name));
+      copyFileSync(join(fixtures, `${name}.twin.csv`), join(data, `${name}.twin.csv`));
+    }
+    const out = join(dir, 'mixed-out');
+    const r = run('batch', data, '--out', out, '--quiet');
+    expect(r.status, r.stderr).toBe(0);
+    const table = readFileSync(join(out, 'recordings.csv'), 'utf8');
+    for (const name of ['c100.edf', 'b50.bdf']) {
+      expect(table).toContain(name);
+      const rec = readdirSync(join(out, 'recordings')).find((d) => d.endsWith(`${name}`))!;
+      const twin = readdirSync(join(out, 'recordings')).find((d) => d.endsWith(`${name}.twin.csv`))!;
+      expect(rec, name).toBeDefined();
+      expect(readFileSync(join(out, 'recordings', rec, 'breaths.csv'), 'utf8')).toBe(readFileSync(join(out, 'recordings', twin, 'breaths.csv'), 'utf8'));
+    }
   });
 });
