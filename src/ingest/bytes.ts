@@ -4,7 +4,7 @@
 import type { IngestSettings } from '../settings';
 import type { SampleBlock } from '../types';
 import { InputError } from './errors';
-import { chooseEncoding, countUtf8, ENCODING_HEAD_BYTES, type EncodingChoice } from './encoding';
+import { chooseEncoding, countUtf8, ENCODING_HEAD_BYTES, UTF8_FIRST_LOWER, UTF8_FIRST_UPPER, UTF8_LEAD_NEED, type EncodingChoice } from './encoding';
 import type { TableLayout } from './layout';
 import { SNIFF_CHARS } from './read-text';
 import type { IngestReport } from './report';
@@ -59,16 +59,10 @@ export class Utf8Stream {
       if (need === 0) {
         if (c < 0x80) continue;
         start = i;
-        if (c >= 0xc2 && c <= 0xdf) need = 1;
-        else if (c >= 0xe0 && c <= 0xef) {
-          need = 2;
-          if (c === 0xe0) lower = 0xa0;
-          else if (c === 0xed) upper = 0x9f;
-        } else if (c >= 0xf0 && c <= 0xf4) {
-          need = 3;
-          if (c === 0xf0) lower = 0x90;
-          else if (c === 0xf4) upper = 0x8f;
-        } else return -1;
+        need = UTF8_LEAD_NEED[c]!;
+        if (need === 0) return -1;
+        lower = UTF8_FIRST_LOWER[c]!;
+        upper = UTF8_FIRST_UPPER[c]!;
         continue;
       }
       if (c < lower || c > upper) return -1;

@@ -51,6 +51,20 @@ export interface Utf8Count {
 }
 
 /**
+ * UTF-8 lead-byte rules (RFC 3629, Table 3-7 of the Unicode Standard), indexed by the byte: how many continuation
+ * bytes follow (0 = not a lead byte) and the range the first continuation byte must lie in (later ones: 0x80-0xBF).
+ * One table for both scanners, countUtf8 here and Utf8Stream (bytes.ts).
+ */
+export const UTF8_LEAD_NEED = new Uint8Array(256);
+export const UTF8_FIRST_LOWER = new Uint8Array(256).fill(0x80);
+export const UTF8_FIRST_UPPER = new Uint8Array(256).fill(0xbf);
+for (let c = 0xc2; c <= 0xf4; c++) UTF8_LEAD_NEED[c] = c <= 0xdf ? 1 : c <= 0xef ? 2 : 3;
+UTF8_FIRST_LOWER[0xe0] = 0xa0;
+UTF8_FIRST_UPPER[0xed] = 0x9f;
+UTF8_FIRST_LOWER[0xf0] = 0x90;
+UTF8_FIRST_UPPER[0xf4] = 0x8f;
+
+/**
  * Counts UTF-8 errors the way a replacing TextDecoder emits U+FFFD (a bad lead byte is one error; a sequence cut by a
  * byte that does not continue it is one error and that byte is read again). With `final`, a character cut by the
  * end is an error; without, it is left for the next chunk.
@@ -68,16 +82,10 @@ export function countUtf8(b: Uint8Array, to: number, final: boolean): Utf8Count 
     if (need === 0) {
       if (c < 0x80) continue;
       start = i;
-      if (c >= 0xc2 && c <= 0xdf) need = 1;
-      else if (c >= 0xe0 && c <= 0xef) {
-        need = 2;
-        if (c === 0xe0) lower = 0xa0;
-        else if (c === 0xed) upper = 0x9f;
-      } else if (c >= 0xf0 && c <= 0xf4) {
-        need = 3;
-        if (c === 0xf0) lower = 0x90;
-        else if (c === 0xf4) upper = 0x8f;
-      } else {
+      need = UTF8_LEAD_NEED[c]!;
+      lower = UTF8_FIRST_LOWER[c]!;
+      upper = UTF8_FIRST_UPPER[c]!;
+      if (need === 0) {
         invalid++;
         if (first < 0) first = i;
       }
