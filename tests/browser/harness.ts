@@ -77,6 +77,18 @@ export interface Browser {
   close(): Promise<void>;
 }
 
+/** Opens `url` in a new page of the browser, recording every request and every console message or page error. */
+export async function openWatched(browser: Browser, url: string): Promise<{ page: Page; requests: string[]; problems: string[] }> {
+  const page = await browser.ctx.newPage();
+  const requests: string[] = [];
+  const problems: string[] = [];
+  page.on('request', (r) => requests.push(r.url()));
+  page.on('console', (m) => problems.push(`console ${m.type()}: ${m.text()}`));
+  page.on('pageerror', (e) => problems.push(`page error: ${e.message}`));
+  await page.goto(url);
+  return { page, requests, problems };
+}
+
 export async function launchBrowser(viewport = { width: 1400, height: 1000 }): Promise<Browser> {
   const profile = mkdtempSync(join(tmpdir(), 'phasewise-chromium-'));
   const ctx = await chromium.launchPersistentContext(profile, { executablePath: CHROMIUM, headless: true, args: ARGS, viewport, acceptDownloads: true });

@@ -15,7 +15,7 @@ import { pathToFileURL } from 'node:url';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { breathMetric, TERMINAL_SUMMARY_ROWS } from '../../src/metrics/registry';
 import { CAUTION } from '../../src/report/caution';
-import { CHROMIUM, haveChromium, launchBrowser, ROOT, type Browser } from './harness';
+import { CHROMIUM, haveChromium, launchBrowser, openWatched, ROOT, type Browser } from './harness';
 
 const HAVE = haveChromium();
 const IN_CI = process.env.CI === 'true';
@@ -74,13 +74,7 @@ describe.skipIf(!HAVE)('report.html in headless Chromium, from file://', () => {
     it(`${c.name}: numbers equal summary.json, caution, non-empty charts, no outside request, A4 and Letter print ≤ 3 pages`, async () => {
       const summary = JSON.parse(readFileSync(join(tmp, c.name, 'summary.json'), 'utf8'));
       const url = pathToFileURL(join(tmp, c.name, 'report.html')).href;
-      const page = await browser!.ctx.newPage();
-      const requests: string[] = [];
-      const problems: string[] = [];
-      page.on('request', (r) => requests.push(r.url()));
-      page.on('console', (m) => problems.push(`console ${m.type()}: ${m.text()}`));
-      page.on('pageerror', (e) => problems.push(`page error: ${e.message}`));
-      await page.goto(url);
+      const { page, requests, problems } = await openWatched(browser!, url);
 
       // summary table: every median, quartile and n, and the breath counts
       let checked = 0;

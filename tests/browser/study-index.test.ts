@@ -20,7 +20,7 @@ import { runBatch } from '../../src/batch/run-batch';
 import { CAUTION } from '../../src/report/caution';
 import { studyIndexHtml, type StudyIndexEntry } from '../../src/report/html/study-index';
 import { parseCsv, read, writeRecording } from '../batch/helpers';
-import { CHROMIUM, haveChromium, launchBrowser, type Browser } from './harness';
+import { CHROMIUM, haveChromium, launchBrowser, openWatched, type Browser } from './harness';
 
 const HAVE = haveChromium();
 const IN_CI = process.env.CI === 'true';
@@ -31,18 +31,6 @@ describe.runIf(!HAVE && IN_CI)('browser available in CI (study index)', () => {
     throw new Error(`${CHROMIUM} is missing; CI must install Debian's chromium before the browser tests`);
   });
 });
-
-/** Opens `url` in a new page, recording every request and every console message or page error. */
-async function open(browser: Browser, url: string): Promise<{ page: Page; requests: string[]; problems: string[] }> {
-  const page = await browser.ctx.newPage();
-  const requests: string[] = [];
-  const problems: string[] = [];
-  page.on('request', (r) => requests.push(r.url()));
-  page.on('console', (m) => problems.push(`console ${m.type()}: ${m.text()}`));
-  page.on('pageerror', (e) => problems.push(`page error: ${e.message}`));
-  await page.goto(url);
-  return { page, requests, problems };
-}
 
 const shownRecordings = (page: Page) => page.$$eval('#study tbody tr', (trs) => trs.map((tr) => tr.getAttribute('data-recording')));
 
@@ -70,7 +58,7 @@ describe.skipIf(!HAVE)('study index.html in headless Chromium, from file://', ()
   it('sorts, filters, follows a link to a report; only file:// requests', async () => {
     const table = parseCsv(read(join(tmp, 'out'), 'recordings.csv'));
     const url = pathToFileURL(join(tmp, 'out', 'index.html')).href;
-    const { page, requests, problems } = await open(browser!, url);
+    const { page, requests, problems } = await openWatched(browser!, url);
     expect(await shownRecordings(page)).toEqual(['data/a.csv', 'data/b.csv', 'data/c.csv']);
     expect(await page.textContent('.caution-text')).toBe(CAUTION);
     const thumbs = await page.$$eval('#study td.thumb svg path', (ps) => ps.filter((p) => (p as SVGGraphicsElement).getBBox().width > 5).length);
@@ -114,7 +102,7 @@ describe.skipIf(!HAVE)('study index.html in headless Chromium, from file://', ()
     }));
     const file = join(tmp, 'big.html');
     writeFileSync(file, studyIndexHtml(entries, 'test'));
-    const { page, requests, problems } = await open(browser!, pathToFileURL(file).href);
+    const { page, requests, problems } = await openWatched(browser!, pathToFileURL(file).href);
     expect((await shownRecordings(page)).length).toBe(100);
     expect(await page.textContent('#pageinfo')).toBe('page 1 of 3');
     await page.click('#next');
