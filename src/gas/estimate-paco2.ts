@@ -48,11 +48,16 @@ export function estimatePaco2(breaths: readonly BreathRow[], gasRows: readonly G
   const used = breaths.filter((b) => usableForSummary(b, opts) && Number.isFinite(b.petco2_mmhg));
   const sp = petco2NoiseSd(used);
   const drift = driftPerSecond(known, sa, prior);
-  const moved = petco2Movement(used, known);
-  for (let i = 0; i < used.length; i++) {
-    const b = used[i]!;
+  // gases at or before each breath (the last of them is the breath's gas)
+  const gasesBefore = used.map((b) => {
     let n = 0;
     while (n < known.length && known[n]!.time_s <= b.t_start_s) n++;
+    return n;
+  });
+  const moved = petco2Movement(used, known, gasesBefore);
+  for (let i = 0; i < used.length; i++) {
+    const b = used[i]!;
+    const n = gasesBefore[i]!;
     if (n === 0) continue;
     const gas = known[n - 1]!;
     const estimate = b.petco2_mmhg + gas.gradient_mmhg;
@@ -104,20 +109,18 @@ function petco2NoiseSd(used: readonly BreathRow[]): number {
  * breaths − the gas row's window median PETCO2| over the usable breaths from the gas up to this breath (0 before the
  * first gas or when the gas row has no PETCO2). Why it widens the band (derived here): when PETCO2 moves by m after a
  * gas, a change of ventilation moves PaCO2 with it (the gradient holds, the estimate is right), a change of dead space
- * or perfusion leaves PaCO2 where it was (the gradient changes by m, the estimate is off by m); not knowing which, the
- * error is taken as uniform between 0 and m, whose mean square is m²/3. The largest move since the gas is kept because
+ * or perfusion leaves PaCO2 where it was and the gradient changes by up to about m/(1 − alveolar dead-space fraction),
+ * as PaCO2 then climbs while body CO2 stores fill; not knowing which, the error is taken as uniform between 0 and 2m
+ * (fractions up to 0.5), whose mean square is 4m²/3. The largest move since the gas is kept because
  * PETCO2 returning later (PaCO2 rising as body CO2 stores fill) does not undo a changed gradient.
  */
-function petco2Movement(used: readonly BreathRow[], known: readonly GasRow[]): number[] {
+function petco2Movement(used: readonly BreathRow[], known: readonly GasRow[], gasesBefore: readonly number[]): number[] {
   const out: number[] = [];
   let gasIndex = -1;
   let largest = 0;
   for (let i = 0; i < used.length; i++) {
-    const t = used[i]!.t_start_s;
-    let n = gasIndex + 1;
-    while (n < known.length && known[n]!.time_s <= t) n++;
-    if (n - 1 !== gasIndex) {
-      gasIndex = n - 1;
+    if (gasesBefore[i]! - 1 !== gasIndex) {
+      gasIndex = gasesBefore[i]! - 1;
       largest = 0;
     }
     const ref = gasIndex >= 0 ? known[gasIndex]!.petco2_mmhg : NaN;
