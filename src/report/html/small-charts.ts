@@ -24,13 +24,15 @@ export function trendSvg(trends: readonly TrendRow[], key: keyof TrendRow, title
 
 /** One horizontal bar: the parts' shares of `total`, in order, each with its colour. */
 export function shareBarSvg(parts: readonly { label: string; count: number; colour: string }[], total: number, width = 260, height = 12): string {
+  // counts show as they are; a measured part (mmHg) with one decimal, as the gas table shows it
+  const shown = (c: number) => (Number.isInteger(c) ? String(c) : c.toFixed(1));
   let x = 0;
   const rects: string[] = [];
   for (const p of parts) {
     const w = total > 0 ? (p.count / total) * width : 0;
-    if (w > 0) rects.push(`<rect x="${x.toFixed(1)}" y="0" width="${w.toFixed(1)}" height="${height}" fill="${p.colour}"><title>${esc(p.label)} ${p.count}</title></rect>`);
+    if (w > 0) rects.push(`<rect x="${x.toFixed(1)}" y="0" width="${w.toFixed(1)}" height="${height}" fill="${p.colour}"><title>${esc(p.label)} ${shown(p.count)}</title></rect>`);
     x += w;
   }
   const frameRect = `<rect x="0" y="0" width="${width}" height="${height}" fill="none" stroke="${COLOURS.grid}"/>`;
-  return svg({ width, height }, parts.map((p) => `${p.label} ${p.count}`).join(', '), frameRect + rects.join(''));
+  return svg({ width, height }, parts.map((p) => `${p.label} ${shown(p.count)}`).join(', '), frameRect + rects.join(''));
 }
