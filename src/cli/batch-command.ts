@@ -3,6 +3,7 @@
 // complete and the manifest names each failure); 2 usage (bad options, no inputs, shards that do not fit together);
 // 130 stopped by Ctrl-C (SIGINT), 143 by SIGTERM (128 + the signal number, common practice, no source): the
 // recordings in flight finish, the manifest names what is complete, and a second signal exits at once.
+import { CAUTION } from '../report/caution';
 import { availableParallelism } from 'node:os';
 import { existsSync } from 'node:fs';
 import { join } from 'node:path';
@@ -76,7 +77,8 @@ function report(m: Manifest, out: string, quiet: boolean): void {
       (m.elapsed_s === null ? '' : m.merged_from.length ? ` (merged from ${m.merged_from.length} shard folder(s))` : ` in ${m.elapsed_s} s`) +
       `\nwritten: ${[...STUDY_TABLES, MANIFEST_FILE].map((f) => join(out, f)).join(', ')}\n` +
       // with --report (a run or a merge without it removes a stale one)
-      (existsSync(join(out, STUDY_INDEX_FILE)) ? `study index: ${join(out, STUDY_INDEX_FILE)} (open it in a browser)\n` : ''),
+      (existsSync(join(out, STUDY_INDEX_FILE)) ? `study index: ${join(out, STUDY_INDEX_FILE)} (open it in a browser)\n` : '') +
+      `CAUTION: ${CAUTION}\n`,
   );
 }
 

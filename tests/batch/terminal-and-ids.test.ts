@@ -7,6 +7,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { beforeAll, describe, expect, it } from 'vitest';
 import { buildBundles, parseCsv, writeRecording } from './helpers';
+import { CAUTION } from '../../src/report/caution';
 
 let dir = '';
 let cli = '';
@@ -24,6 +25,8 @@ describe('batch terminal lines and recording ids', () => {
     expect(r.status, r.stderr).toBe(0);
     expect(r.stdout).not.toContain('//');
     expect(r.stdout).toContain('written: study/breaths.csv, study/recordings.csv, study/trends.csv, study/events.csv, study/manifest.json\n');
+    // the terminal summary ends with the same caution as analyse's
+    expect(r.stdout.trimEnd().split('\n').pop()).toBe(`CAUTION: ${CAUTION}`);
   });
 
   it('every study table has recording_id beside recording', () => {
