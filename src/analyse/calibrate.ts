@@ -107,23 +107,29 @@ export function estimateFlowOffset(
   }
   const noiseSd = d1.length ? (1.4826 * median(d1)) / Math.SQRT2 : 0;
   const maxRms = Math.max(3 * noiseSd, 0.015 * peak);
-  const levels: { level: number; kind: DecaySpan['kind'] }[] = [];
-  for (const sp of spans) {
-    const fit = fitDecay(t, flow, sp.from, sp.to);
-    if (fit && fit.rms <= maxRms && Math.abs(fit.tailEnd) < 0.01 * peak) levels.push({ level: fit.level, kind: sp.kind });
-  }
-  // end-inspiratory pauses are the cleaner zero; end-expiratory stretches are used when no breath has such a pause
-  const insp = levels.filter((x) => x.kind === 'end_inspiratory');
-  const used = insp.length >= 3 && insp.length >= 0.3 * breaths ? insp : levels.filter((x) => x.kind === 'end_expiratory');
-  if (used.length < 3 || used.length < 0.3 * breaths) return null;
-  const values = used.map((x) => x.level);
+  const levelsOf = (kind: DecaySpan['kind']): number[] => {
+    const levels: number[] = [];
+    for (const sp of spans) {
+      if (sp.kind !== kind) continue;
+      const fit = fitDecay(t, flow, sp.from, sp.to);
+      if (fit && fit.rms <= maxRms && Math.abs(fit.tailEnd) < 0.01 * peak) levels.push(fit.level);
+    }
+    return levels;
+  };
+  // end-inspiratory pauses are the cleaner zero; end-expiratory stretches are fitted and used only when too few
+  // breaths have such a pause
+  const enough = (levels: number[]) => levels.length >= 3 && levels.length >= 0.3 * breaths;
+  const insp = levelsOf('end_inspiratory');
+  const fromInsp = enough(insp);
+  const values = fromInsp ? insp : levelsOf('end_expiratory');
+  if (!enough(values)) return null;
   const offset = median(values);
   const spread = 1.4826 * median(values.map((v) => Math.abs(v - offset)));
   return {
     offset,
-    spans: used.length,
-    uncertainty_lps: (1.2533 * spread) / Math.sqrt(used.length),
-    source: used === insp ? 'end_inspiratory_pause' : 'end_expiratory_rest',
+    spans: values.length,
+    uncertainty_lps: (1.2533 * spread) / Math.sqrt(values.length),
+    source: fromInsp ? 'end_inspiratory_pause' : 'end_expiratory_rest',
   };
 }
 

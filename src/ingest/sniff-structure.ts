@@ -177,7 +177,9 @@ export function sniffStructure(headText: string, settings: IngestSettings, file:
   const { lines, line_end } = splitHead(headText, file);
   const notes: string[] = [];
   const givenDelimiter = settings.delimiter === null ? null : normaliseDelimiter(settings.delimiter, file);
-  const candidates = (givenDelimiter ? [givenDelimiter] : DELIMITERS).map((d) => delimiterCandidate(lines, d));
+  // a delimiter that occurs nowhere in the head splits no line, so it cannot be the table's: not tried
+  const tried = givenDelimiter ? [givenDelimiter] : DELIMITERS.filter((d) => headText.includes(d));
+  const candidates = tried.map((d) => delimiterCandidate(lines, d));
   const best = pickDelimiter(candidates, lines);
   if (!best || !best.found) throw noDataError(lines, file, givenDelimiter);
   const delimiter = best.d;
