@@ -373,6 +373,13 @@ const LOW_RATE_HZ = 50;
 /** Smallest disagreement between a given and the measured delay that is reported, s. */
 const GIVEN_DELAY_TOLERANCE_S = 0.01;
 
+/** Airway dead-space uncertainty, mL, as text, from a delay known to ± half a sample interval at `flow_lps`: flow × dt / 2
+ *  (derived here). */
+function deadSpaceSpread(flow_lps: number, dt: number): string {
+  const ml = 500 * flow_lps * dt;
+  return ml < 10 ? ml.toFixed(1) : ml.toFixed(0);
+}
+
 /**
  * Recording-level cautions: a flow sampling rate below 50 Hz, valve edges within one sample (the delay is then known
  * to about half an interval only), a delay the breaths do not agree on, and a given delay that the CO2
@@ -397,7 +404,8 @@ function calibrationCautions(c: Calibration, dt: number): { code: string; messag
       message:
         `the inspiratory flow edges pass within one sample interval (${(1000 * dt).toFixed(0)} ms): the samples hold their area but not ` +
         `where they start, so the CO2 delay is known only to about ± ${half} ms and airway dead space to about ± (expiratory flow at ` +
-        `phase II × ${half} ms), e.g. ± ${(1.5 * 500 * dt).toFixed(0)} mL at 1.5 L/s; on simulated 50 Hz exports of fast pressure-controlled ` +
+        `phase II × ${half} ms): here to at most about ± ${deadSpaceSpread(c.peak_flow_lps, dt)} mL (typical peak flow ` +
+        `${c.peak_flow_lps.toFixed(2)} L/s); on simulated 50 Hz exports of fast pressure-controlled ` +
         'breathing it read 6 % low (docs/accuracy.md); record at 100 Hz or faster, or give --delay if it is known',
     });
   }

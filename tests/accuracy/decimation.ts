@@ -120,6 +120,8 @@ export interface RateResult {
   rows: BreathRow[];
   /** codes of the recording-level cautions */
   cautions: string[];
+  /** their messages, by code */
+  caution_messages: Record<string, string>;
 }
 
 
@@ -140,6 +142,7 @@ export function analyseBlock(block: SampleBlock, paco2: number, rateHz: number, 
   return {
     rate_hz: rateHz, rounding, breaths: core.breaths.length, used: used.length, delay_s: core.calibration.delay_s, medians, rows: core.breaths,
     cautions: (core.recording_cautions ?? []).map((c) => c.code),
+    caution_messages: Object.fromEntries((core.recording_cautions ?? []).map((c) => [c.code, c.message])),
   };
 }
 
