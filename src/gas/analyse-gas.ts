@@ -4,6 +4,7 @@ import { avdsf } from '../physiology/avdsf';
 import { enghoffDeadSpaceFraction } from '../physiology/enghoff-dead-space-fraction';
 import { patientDeadSpace } from '../physiology/patient-dead-space';
 import { shuntCorrectedEnghoff } from '../physiology/shunt-corrected-enghoff';
+import { DEFAULT_INGEST } from '../settings';
 import type { BreathRow } from '../types';
 import { isBeforeRecording } from './before-recording';
 import { estimatePaco2 } from './estimate-paco2';
@@ -312,7 +313,11 @@ function gasSettings(s: SettingsParts): Record<string, unknown> {
     weight_note: weight.note,
     estimate_band: 'prediction interval: estimate +/- z SD, SD^2 = analyser SD^2 + breath-to-breath PETCO2 SD^2 + gradient drift x time since the gas (src/gas/estimate-paco2.ts)',
     sources: Object.fromEntries(Object.entries(GAS_DEFAULTS).map(([k, v]) => [k, v.source])),
-    given: Object.keys(opts).filter((k) => opts[k as keyof GasOptions] !== undefined).sort(),
+    // pb_mmhg is always passed on from the recording settings: given only when it is not their default (the rule the
+    // reading report's settings use)
+    given: Object.keys(opts)
+      .filter((k) => opts[k as keyof GasOptions] !== undefined && (k !== 'pb_mmhg' || opts.pb_mmhg !== DEFAULT_INGEST.pb_mmhg))
+      .sort(),
   };
 }
 

@@ -87,6 +87,17 @@ describe('gas options: defaults < settings file < command line', () => {
     expect(settings.given).not.toContain('band_level');
   });
 
+  it('the barometric pressure is listed as given only when the recording settings give one (it is always passed on)', () => {
+    const plain = gasOptionsFrom({}, defaultSettings());
+    expect(plain.pb_mmhg).toBe(760);
+    expect(analyseGas([], [], plain).settings.given).not.toContain('pb_mmhg');
+    const settings = defaultSettings();
+    settings.ingest.pb_mmhg = 700;
+    const high = analyseGas([], [], gasOptionsFrom({}, settings)).settings;
+    expect(high.pb_mmhg).toBe(700);
+    expect(high.given).toContain('pb_mmhg');
+  });
+
   it('a recording takes the top-level gas section, then the gas of each files pattern it matches', () => {
     const path = join(dir, 'patterns.json');
     writeFileSync(path, JSON.stringify({ gas: { rq: 0.9, band_level: 0.9 }, files: [{ pattern: 'icu/**', gas: { rq: 1.1 } }] }));
