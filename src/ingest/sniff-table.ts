@@ -364,7 +364,7 @@ function sampleColumns(st: TableStructure): ColumnSample {
 
 function median(xs: number[]): number {
   if (xs.length === 0) return NaN;
-  const s = [...xs].sort((a, b) => a - b);
+  const s = Float64Array.from(xs).sort();
   const m = s.length >> 1;
   return s.length % 2 ? s[m]! : (s[m - 1]! + s[m]!) / 2;
 }

@@ -88,7 +88,7 @@ export function splitNameAndUnit(name: string): [string, string | null] {
 /** High end of a set of values robust to a few spikes: the 99.5th percentile (nearest rank). */
 export function robustMax(values: readonly number[]): number {
   if (values.length === 0) return NaN;
-  const sorted = [...values].sort((a, b) => a - b);
+  const sorted = Float64Array.from(values).sort();
   const k = Math.min(sorted.length - 1, Math.ceil(0.995 * sorted.length) - 1);
   return sorted[Math.max(0, k)]!;
 }
