@@ -15,7 +15,7 @@
 import { spawn, spawnSync, type SpawnSyncReturns } from 'node:child_process';
 import { existsSync, mkdirSync, mkdtempSync, readdirSync, readFileSync, rmSync, statSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
-import { join, resolve } from 'node:path';
+import { join, posix, resolve } from 'node:path';
 import { fileURLToPath, pathToFileURL } from 'node:url';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { expectClose } from '../helpers/expect-close';
@@ -99,6 +99,20 @@ describe('the packed package', () => {
     // every file the installed copy holds came from the tarball, with the same bytes as the repository's
     const installed = join(app, 'node_modules', 'phasewise');
     for (const f of RUNTIME_FILES) expect(readFileSync(join(installed, f)).equals(readFileSync(join(ROOT, f))), f).toBe(true);
+  });
+
+  it('every relative link of the packed README and docs points at a file the package holds', () => {
+    const broken: string[] = [];
+    for (const doc of packed.filter((f) => f === 'README.md' || /^docs\/.*\.md$/.test(f))) {
+      const text = readFileSync(join(ROOT, doc), 'utf8');
+      for (const m of text.matchAll(/\]\(([^)#\s]+)(?:#[^)]*)?\)/g)) {
+        const target = m[1]!;
+        if (/^[a-z]+:/.test(target)) continue;
+        const path = posix.normalize(posix.join(posix.dirname(doc), target));
+        if (!packed.includes(path)) broken.push(`${doc}: ${target}`);
+      }
+    }
+    expect(broken).toEqual([]);
   });
 
   it('the README states the tarball size within 10 %', () => {
