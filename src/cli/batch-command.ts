@@ -1,8 +1,9 @@
 // `phasewise batch INPUTS... --out DIR [--settings FILE.json] [--jobs N] [--resume] [--shard I/N]` and
-// `phasewise batch merge SHARD_DIR... --out DIR` (and `batch slurm`, the job scripts of a cluster run: slurm-command.ts). Exit codes: 0 all recordings analysed; 4 some failed (the rest are
-// complete and the manifest names each failure); 2 usage (bad options, no inputs, shards that do not fit together);
-// 130 stopped by Ctrl-C (SIGINT), 143 by SIGTERM (128 + the signal number, common practice, no source): the
-// recordings in flight finish, the manifest names what is complete, and a second signal exits at once.
+// `phasewise batch merge SHARD_DIR... --out DIR`; `batch slurm` (the job scripts of a cluster run) is slurm-command.ts.
+// Exit codes: 0 all recordings analysed; 4 some failed (the rest are complete and the manifest names each failure);
+// 2 usage (bad options, no inputs, shards that do not fit together); 130 stopped by Ctrl-C (SIGINT), 143 by SIGTERM
+// (128 + the signal number, common practice, no source): the recordings in flight finish, the manifest names what is
+// complete, and a second signal exits at once.
 import { CAUTION } from '../report/caution';
 import { availableParallelism } from 'node:os';
 import { existsSync } from 'node:fs';
