@@ -8,7 +8,9 @@
 //   `merged_from` (the shard folders), `started_at`, `finished_at`, `elapsed_s` and each input's `elapsed_s`, and
 //   `settings_file`, which the scripts give as an absolute path (its content hash, `settings_sha256`, is equal);
 // - each shard wrote its log (DIR/slurm/logs/shard-I.out) and the merge its own; every array task ended COMPLETED
-//   although its shard holds a failed recording (exit 4 counts as done), and the merge job exited 4 (a failed recording).
+//   although its shard holds a failed recording (exit 4 counts as done), and the merge job exited 4 (a failed recording);
+// - one shard submitted again as docs/batch.md says (`sbatch --array=1 shards.sbatch`, then the merge) runs that task
+//   only, keeps its results (--resume), adds to its log, and the new merge writes the same study.
 // Without the Slurm and munge programs the test is skipped with a message, except under CI=true, where that is a
 // failure: .ci/run installs them (apt-get install slurm-wlm munge).
 import { spawnSync } from 'node:child_process';
@@ -70,6 +72,23 @@ describe.runIf(MISSING.length === 0)('batch slurm on a single-node Slurm cluster
     if (dir) rmSync(dir, { recursive: true, force: true });
   });
 
+  /** Waits until none of the jobs is pending or running. */
+  async function finished(c: Cluster, ids: string[]): Promise<void> {
+    const end = Date.now() + 90_000;
+    while (c.run('squeue', '--noheader', `--jobs=${ids.join(',')}`).stdout.trim() !== '') {
+      if (Date.now() > end) throw new Error(`the jobs did not finish within 90 s:\n${c.run('squeue').stdout}\n${c.log()}`);
+      await new Promise((r) => setTimeout(r, 250));
+    }
+  }
+
+  /** Every file of the one-machine run but its manifest is in the merged study, byte for byte. */
+  function expectSameTables(out: string): void {
+    const files = listFiles(join(dir, 'reference')).filter((f) => f !== 'manifest.json');
+    expect(files).toContain('breaths.csv');
+    expect(listFiles(out, ['slurm', 'shards']).filter((f) => f !== 'manifest.json')).toEqual(files);
+    for (const f of files) expect(readFileSync(join(out, f)).equals(readFileSync(join(dir, 'reference', f))), f).toBe(true);
+  }
+
   it('runs the array and the merge, and the merged study equals one run on one machine', async () => {
     const c = cluster!;
     const reference = node('batch', 'data', '--out', 'reference', '--jobs', '1', '--settings', 'settings folder/study.json', '--quiet');
@@ -86,12 +105,7 @@ describe.runIf(MISSING.length === 0)('batch slurm on a single-node Slurm cluster
     const mergeId = /^merge: +job (\d+) /m.exec(submit.stdout)?.[1];
     expect(arrayId && mergeId, submit.stdout).toBeTruthy();
 
-    // wait until neither job is pending or running
-    const end = Date.now() + 90_000;
-    while (c.run('squeue', '--noheader', `--jobs=${arrayId},${mergeId}`).stdout.trim() !== '') {
-      if (Date.now() > end) throw new Error(`the jobs did not finish within 90 s:\n${c.run('squeue').stdout}\n${c.log()}`);
-      await new Promise((r) => setTimeout(r, 250));
-    }
+    await finished(c, [arrayId!, mergeId!]);
 
     const jobs = c.run('scontrol', '--oneliner', 'show', 'job', `${arrayId}`).stdout.trim().split('\n');
     expect(jobs.map((l) => /ArrayTaskId=(\d+)/.exec(l)?.[1]).sort()).toEqual(['0', '1', '2']);
@@ -106,11 +120,7 @@ describe.runIf(MISSING.length === 0)('batch slurm on a single-node Slurm cluster
     }
     expect(readFileSync(join(out, 'slurm/logs/merge.out'), 'utf8')).toMatch(/^batch: 6 recording\(s\): 5 ok .*\(merged from 3 shard folder\(s\)\)/m);
 
-    // byte for byte: every file of the one-machine run but its manifest
-    const files = listFiles(join(dir, 'reference')).filter((f) => f !== 'manifest.json');
-    expect(files).toContain('breaths.csv');
-    expect(listFiles(out, ['slurm', 'shards']).filter((f) => f !== 'manifest.json')).toEqual(files);
-    for (const f of files) expect(readFileSync(join(out, f)).equals(readFileSync(join(dir, 'reference', f))), f).toBe(true);
+    expectSameTables(out);
 
     const manifest = (d: string) => JSON.parse(readFileSync(join(d, 'manifest.json'), 'utf8')) as Manifest;
     const { command: _c1, merged_from: from, settings_file: settingsFile, ...merged } = withoutTiming(manifest(out));
@@ -121,5 +131,28 @@ describe.runIf(MISSING.length === 0)('batch slurm on a single-node Slurm cluster
     expect(none).toEqual([]);
     expect(from).toEqual([0, 1, 2].map((k) => join(out, 'shards', String(k))));
     expect(statSync(join(out, 'slurm/submit.sh')).mode & 0o111).not.toBe(0);
+  });
+
+  it('one shard submitted again (sbatch --array=I, as the docs say) resumes what it had, appends to its log, and a new merge gives the same study', async () => {
+    const c = cluster!;
+    const slurm = join(dir, study, 'slurm');
+    const again = c.run('sbatch', '--parsable', '--array=1', join(slurm, 'shards.sbatch'));
+    expect(again.status, again.stderr).toBe(0);
+    const arrayId = again.stdout.trim().split(';')[0]!;
+    const merge = c.run('sbatch', '--parsable', `--dependency=afterok:${arrayId}`, join(slurm, 'merge.sbatch'));
+    expect(merge.status, merge.stderr).toBe(0);
+    const mergeId = merge.stdout.trim().split(';')[0]!;
+    await finished(c, [arrayId, mergeId]);
+    // --array on the command line wins over the script's #SBATCH --array=0-2: one task, index 1
+    const tasks = c.run('scontrol', '--oneliner', 'show', 'job', arrayId).stdout.trim().split('\n');
+    expect(tasks.map((l) => /ArrayTaskId=(\d+)/.exec(l)?.[1])).toEqual(['1']);
+    const log = readFileSync(join(slurm, 'logs', 'shard-1.out'), 'utf8');
+    expect(log.match(/^phasewise shard 1\/3: job /gm)).toHaveLength(2); // --open-mode=append kept the first run's lines
+    // shard 1 of 3 holds inputs 1 and 4 of the sorted six (r1, r4), both analysed by the first run
+    expect(log.split('\n').filter((l) => l.startsWith('batch: '))).toEqual([
+      expect.stringMatching(/^batch: 2 recording\(s\): 2 ok \(0 kept from an earlier run\), 0 failed in /),
+      expect.stringMatching(/^batch: 2 recording\(s\): 2 ok \(2 kept from an earlier run\), 0 failed in /),
+    ]);
+    expectSameTables(join(dir, study));
   });
 });
