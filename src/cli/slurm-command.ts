@@ -55,6 +55,14 @@ function outInsideInput(inputs: readonly string[], outDir: string): string | nul
   return null;
 }
 
+/** Options of `batch` that the scripts set themselves; given to `batch slurm` they would otherwise be ignored. */
+const NOT_FOR_SLURM: readonly (readonly [string, string])[] = [
+  ['jobs', 'each task runs --jobs $SLURM_CPUS_PER_TASK; use --cpus-per-task'],
+  ['shard', 'each task runs its own shard; use --shards N'],
+  ['resume', 'the tasks always run with --resume'],
+  ['quiet', 'the logs keep one line per recording'],
+];
+
 /** Adds `batch slurm` to the `batch` command. */
 export function registerSlurm(batch: Command): void {
   const cmd = batch
@@ -74,6 +82,8 @@ export function registerSlurm(batch: Command): void {
     const out = own.out ?? parent.out;
     if (typeof out !== 'string') return usage(`missing --out DIR (the study folder), e.g. phasewise batch slurm ${inputs[0] ?? 'data/'} --out study/ --shards 10`);
     if (typeof own.shards !== 'number') return usage('missing --shards N (how many array tasks share the recordings)');
+    const notHere = NOT_FOR_SLURM.filter(([key]) => parent[key] !== undefined).map(([key, why]) => `--${key} (${why})`);
+    if (notHere.length) return usage(`${notHere.join(', ')}: not options of batch slurm`);
     const cwd = process.cwd();
     const outDir = resolve(cwd, out);
     const absInputs = inputs.map((i) => resolve(cwd, i));

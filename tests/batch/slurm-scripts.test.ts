@@ -180,7 +180,7 @@ describe.skipIf(!existsSync(CLI))('phasewise batch slurm (the built CLI)', () =>
     expect(text).toContain(`--settings ${shellQuote(join(work, 'study.json'))} --paco2 40 --report \\\n`);
     expect(text).toContain(`cd ${shellQuote(work)} || exit 1`);
   });
-  it('usage errors are one line with exit code 2: no --shards, a missing input, no recordings, --out inside an input folder, a bad settings file', () => {
+  it('usage errors are one line with exit code 2: no --shards, a missing input, no recordings, options of batch that the scripts set, --out inside an input folder, a bad settings file', () => {
     const fails = (args: string[], message: RegExp) => {
       const r = run('batch', 'slurm', ...args);
       expect(r.status, r.stderr).toBe(2);
@@ -193,6 +193,7 @@ describe.skipIf(!existsSync(CLI))('phasewise batch slurm (the built CLI)', () =>
     fails(['data/*.tsv', '--out', 'x', '--shards', '2'], /no recordings found in data\/\*\.tsv/);
     fails(['data', '--out', 'data/study', '--shards', '2'], /is inside the input folder .*\/data; choose an --out folder outside it/);
     fails(['data', '--out', 'x', '--shards', '2', '--time', '2 h'], /--time needs one word/);
+    fails(['data', '--out', 'x', '--shards', '2', '--jobs', '8', '--resume'], /--jobs \(each task runs --jobs \$SLURM_CPUS_PER_TASK; use --cpus-per-task\), --resume \(.*\): not options of batch slurm/);
     writeFileSync(join(work, 'bad.json'), '{ not json');
     fails(['data', '--out', 'x', '--shards', '2', '--settings', 'bad.json'], /bad\.json/);
     expect(existsSync(join(work, 'x'))).toBe(false);
