@@ -145,7 +145,8 @@ function mergeScript(p: SlurmPlan, logs: string): string {
     'echo "phasewise merge: job $SLURM_JOB_ID on $(hostname) at $(date -u +%Y-%m-%dT%H:%M:%SZ)"',
     'shards=()',
     `for i in $(seq 0 ${p.shards - 1}); do shards+=(${shellQuote(`${p.outDir}/${SHARDS_FOLDER}`)}/"$i"); done`,
-    `exec ${programWords(p)} batch merge "\${shards[@]}" --out ${shellQuote(p.outDir)}`,
+    // not exec: a --phasewise command may be several commands (`module load nodejs && phasewise`)
+    `${programWords(p)} batch merge "\${shards[@]}" --out ${shellQuote(p.outDir)}`,
     '',
   ].join('\n');
 }

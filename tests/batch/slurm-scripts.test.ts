@@ -95,7 +95,7 @@ describe('the job array script', () => {
   it('takes the command as given by --phasewise, unquoted, so it may be several words', () => {
     const text = file(slurmScripts(plan({ program: { raw: 'apptainer exec pw.sif phasewise' } })), 'shards.sbatch').text;
     expect(text).toMatch(/^apptainer exec pw\.sif phasewise batch /m);
-    expect(file(slurmScripts(plan({ program: { raw: 'apptainer exec pw.sif phasewise' } })), 'merge.sbatch').text).toMatch(/^exec apptainer exec pw\.sif phasewise batch merge /m);
+    expect(file(slurmScripts(plan({ program: { raw: 'apptainer exec pw.sif phasewise' } })), 'merge.sbatch').text).toMatch(/^apptainer exec pw\.sif phasewise batch merge /m);
   });
 });
 
@@ -110,6 +110,11 @@ describe('the merge script and submit.sh', () => {
     writeFileSync(script, file(s, 'merge.sbatch').text);
     const r = spawnSync('bash', [script], { encoding: 'utf8' });
     expect(r.status, r.stderr).toBe(0);
+    // the merge job ends with the merge's exit code (4 when some recordings failed)
+    const failing = join(dir, 'merge exits 4');
+    standIn(failing, join(dir, 'ignored.txt'), 4);
+    writeFileSync(script, file(slurmScripts(plan({ program: [failing] })), 'merge.sbatch').text);
+    expect(spawnSync('bash', [script]).status).toBe(4);
     expect(readFileSync(record, 'utf8').split('\n').slice(0, -1)).toEqual(['batch', 'merge', ...[0, 1, 2, 3].map((k) => join(study, 'shards', String(k))), '--out', study]);
   });
 
