@@ -1,8 +1,9 @@
 // `phasewise batch INPUTS... --out DIR [--settings FILE.json] [--jobs N] [--resume] [--shard I/N]` and
-// `phasewise batch merge SHARD_DIR... --out DIR`. Exit codes: 0 all recordings analysed; 4 some failed (the rest are
-// complete and the manifest names each failure); 2 usage (bad options, no inputs, shards that do not fit together);
-// 130 stopped by Ctrl-C (SIGINT), 143 by SIGTERM (128 + the signal number, common practice, no source): the
-// recordings in flight finish, the manifest names what is complete, and a second signal exits at once.
+// `phasewise batch merge SHARD_DIR... --out DIR`; `batch slurm` (the job scripts of a cluster run) is slurm-command.ts.
+// Exit codes: 0 all recordings analysed; 4 some failed (the rest are complete and the manifest names each failure);
+// 2 usage (bad options, no inputs, shards that do not fit together); 130 stopped by Ctrl-C (SIGINT), 143 by SIGTERM
+// (128 + the signal number, common practice, no source): the recordings in flight finish, the manifest names what is
+// complete, and a second signal exits at once.
 import { CAUTION } from '../report/caution';
 import { availableParallelism } from 'node:os';
 import { existsSync } from 'node:fs';
@@ -17,6 +18,7 @@ import { MANIFEST_FILE, type Manifest } from '../batch/manifest';
 import { STUDY_INDEX_FILE } from '../batch/study-index';
 import { STUDY_TABLES } from '../batch/tables';
 import { addInputOptions } from './options';
+import { registerSlurm } from './slurm-command';
 
 function positiveInt(v: string): number {
   const n = Number(v);
@@ -140,6 +142,7 @@ export function registerBatch(program: Command): void {
       throw e;
     }
   });
+  registerSlurm(cmd);
   // `batch merge`: the root program parses options anywhere on the line, so `--out` and `--quiet` written after
   // `merge` may land on `batch` itself; read them from either.
   cmd
