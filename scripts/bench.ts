@@ -226,6 +226,10 @@ async function main(): Promise<void> {
       const ratio = shortMbps(r) / mbps;
       log(`  --jobs ${j}  ${f2(r.wall_s)} s wall, ${f2(r.cpu_s)} s CPU, ${f1(shortMbps(r))} MB/s, peak RSS ${f1(r.max_rss_mb)} MB   per-byte ratio to the 24 h file ${f2(ratio)}   target >= 0.5: ${mark(ratio >= 0.5)}, peak RSS < 300 MB: ${mark(r.max_rss_mb < 300)}`);
     }
+    // the same comparison in CPU time (bytes per CPU second), which the machine's load moves far less than wall time:
+    // what each short recording costs beyond its bytes (sniffing the head, calibration, its own output files)
+    const cpuRatio = (r: Run) => set5.bytes / r.cpu_s / (bigBytes / a24.cpu_s);
+    log(`  bytes per CPU second against the 24 h analyse: --jobs 1 ${f2(cpuRatio(s1))}, --jobs 2 ${f2(cpuRatio(s2))}`);
     log(`load average at the end ${load()} (other processes on the machine distort every figure above)`);
   } finally {
     if (keep) log(`kept ${dir}`);
