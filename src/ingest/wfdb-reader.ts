@@ -137,7 +137,7 @@ export function wfdbPhysical(dig: number, s: Pick<WfdbSignal, 'gain' | 'baseline
 /** A signal file name without a folder part (the files are looked up beside the header). */
 function checkFileName(s: WfdbSignal, file: string): void {
   if (/[/\\]/.test(s.file)) {
-    throw new InputError('wfdb_unsupported', `signal file "${s.file}" (header line ${s.line}) is named with a folder`, 'Put the signal files beside the header and name them without a folder in the .hea file.', { file, line: s.line });
+    throw new InputError('wfdb_unsupported', `signal file "${s.file}" is named with a folder`, 'Put the signal files beside the header and name them without a folder in the .hea file.', { file, line: s.line });
   }
 }
 
@@ -174,13 +174,13 @@ function placeSignal(h: WfdbHeader, index: number, files: ReadonlyMap<string, Ui
     const what = UNREAD_FORMATS[s.format];
     throw new InputError(
       'wfdb_unsupported',
-      `signal "${s.description}" (header line ${s.line}) is stored in WFDB format ${s.format}${what ? ` (${what})` : ''}, which phasewise does not read (it reads formats 16, 24, 32, 61, 80, 160 and 212)`,
+      `signal "${s.description}" is stored in WFDB format ${s.format}${what ? ` (${what})` : ''}, which phasewise does not read (it reads formats 16, 24, 32, 61, 80, 160 and 212)`,
       'Convert the record to format 16 with the WFDB tools, then analyse it again.',
       { file, line: s.line },
     );
   }
   if (s.skew !== 0) {
-    throw new InputError('wfdb_unsupported', `signal "${s.description}" (header line ${s.line}) has a skew of ${s.skew} samples, which phasewise does not apply`, 'Write the record without skew (shift the signal in the file), then analyse it again.', { file, line: s.line });
+    throw new InputError('wfdb_unsupported', `signal "${s.description}" has a skew of ${s.skew} samples, which phasewise does not apply`, 'Write the record without skew (shift the signal in the file), then analyse it again.', { file, line: s.line });
   }
   checkFileName(s, file);
   const bytes = files.get(s.file);
