@@ -141,7 +141,12 @@ function checkFileName(s: WfdbSignal, file: string): void {
   }
 }
 
-/** The signal file names the header refers to, in first-use order (no duplicates; null signals '~' have none). */
+/**
+ * The signal file names the header refers to, in first-use order (no duplicates; null signals '~' have none), so
+ * Node or the browser can fetch them. Throws InputError 'wfdb_bad_header' / 'wfdb_unsupported' for a header that
+ * cannot be read (as readWfdbRecord would), or names a signal file with a folder.
+ * @example wfdbSignalFileNames(new TextEncoder().encode('r 2 100\nr.dat 16\nr.dat 16\n'), 'r.hea') // => ['r.dat']
+ */
 export function wfdbSignalFileNames(headerBytes: Uint8Array, headerName: string): string[] {
   const h = parseWfdbHeader(headerBytes, headerName);
   const out: string[] = [];
