@@ -63,6 +63,23 @@ describe.skipIf(!existsSync(cli))('phasewise analyse on a WFDB record', () => {
   });
 });
 
+describe.skipIf(!existsSync(cli))('blood gas clock times placed on the clock start of a WFDB record or an EDF file', () => {
+  // f16.hea: base time 08:30:00, date 3/12/2026; c100.edf: start 02.01.26 03.04.05. A gas drawn 20 s (30 s) after the
+  // start is at time_s 20 (30) without --start; before the clock start was read from these headers, this was an error
+  // asking for --start.
+  for (const [rec, clock, seconds] of [[join(fixtures, 'f16.hea'), '08:30:20', '20'], [fileURLToPath(new URL('../fixtures/edf/c100.edf', import.meta.url)), '03:04:35', '30']] as const) {
+    it(rec.slice(-8), () => {
+      const gas = join(dir, `gas-${seconds}.csv`);
+      writeFileSync(gas, `clock,paco2_mmhg\n${clock},40.1\n`);
+      const out = join(dir, `gas-out-${seconds}`);
+      const r = run(['analyse', rec, '--gas', gas, '--out', out, '--quiet']);
+      expect(r.status, r.stderr).toBe(0);
+      const [head, row] = readFileSync(join(out, 'gas.csv'), 'utf8').split('\n');
+      expect(row!.split(',')[head!.split(',').indexOf('time_s')]).toBe(seconds);
+    });
+  }
+});
+
 describe.skipIf(!existsSync(cli))('phasewise batch with WFDB records', () => {
   it('a folder: finds .hea beside .csv, each record analysed to the same breaths as its twin CSV', () => {
     const data = join(dir, 'mixed');
