@@ -83,10 +83,13 @@ export function readEdfBytes(
   }
   blocks.push(...rows.finish());
   const report = rows.report(bytes.length);
-  const clock = edfClockStart(h, h.plus === 'C' && Number.isFinite(first_keeping_s) ? first_keeping_s : 0);
+  // EDF+C: the time axis starts at the first record, `subsecond` after the file's start time; EDF+D record onsets
+  // and every annotation onset count from the start time (Kemp & Olivan 2003), so the annotations move by it
+  const subsecond = h.plus === 'C' && Number.isFinite(first_keeping_s) ? first_keeping_s : 0;
+  const clock = edfClockStart(h, subsecond);
   if (clock.start) report.clock_start = clock.start;
   if (clock.note) report.notes.push(clock.note);
-  if (annotations.length) report.annotations = annotations;
+  if (annotations.length) report.annotations = annotations.map((a) => (subsecond === 0 ? a : { ...a, onset_s: a.onset_s - subsecond }));
   return { blocks, report };
 }
 

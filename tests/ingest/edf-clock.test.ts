@@ -46,5 +46,8 @@ describe('EDF clock start', () => {
     for (let i = 0; i < tal.length; i++) b[annotAt + i] = tal.charCodeAt(i);
     const { report } = readEdfBytes(b, ingest, 20, 'x.edf');
     expect(report.clock_start).toEqual({ kind: 'date_time', seconds: at(2026, 1, 2, 3, 4, 5) + 0.25, text: '2026-01-02T03:04:05.250' });
+    // annotation onsets count from the file's start time (Kemp & Olivan 2003); the time axis starts 0.25 s later, at
+    // the first record, so "suction" at +2.5 s lies at 2.25 s on it
+    expect(report.annotations?.find((a) => a.text === 'suction')?.onset_s).toBe(2.25);
   });
 });
