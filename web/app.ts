@@ -11,6 +11,7 @@ import { startHeartbeat, type HeartbeatStats } from './heartbeat';
 import { startLaunch } from './launch';
 import { bindReviewKeys } from './keys';
 import { renderMappingFields, renderPreview } from './mapping-step';
+import { isEdfName } from '../src/ingest/edf-reader';
 import { breathPng } from './png';
 import type { Done, FromWorker } from './protocol';
 import {
@@ -47,7 +48,17 @@ function openFile(file: File): void {
   worker.send({ type: 'sniff', file, settings: state.settings });
 }
 
+/** Several files chosen or dropped at once: one recording. */
+function openFiles(files: readonly File[]): void {
+  if (files.length === 1) openFile(files[0]!);
+  else if (files.length > 1) fail(`${files.length} files were chosen: open one recording at a time.`);
+}
+
 function renderMapping(): void {
+  const signals = Boolean(state.file && isEdfName(state.file.name));
+  byId('map-hint').textContent = signals
+    ? 'Detected from the signal headers of the file (labels and physical dimensions). Change a choice if it is wrong; “auto” keeps the detection.'
+    : 'Detected from the first rows of the file. Change a choice if it is wrong; “auto” keeps the detection.';
   renderMappingFields(byId('map-fields'), () => state.settings, state.preview, (key, value) => {
     state.settings = withSetting(state.settings, 'ingest', key, value);
     renderSettingsForm();
@@ -55,7 +66,7 @@ function renderMapping(): void {
       setBodyState('sniffing');
       worker.send({ type: 'sniff', file: state.file, settings: state.settings });
     }
-  });
+  }, signals);
   renderPreview(byId<HTMLTableElement>('map-preview'), byId('map-notes'), state.preview);
 }
 
@@ -246,11 +257,15 @@ function exportPng(): void {
 // ---------------------------------------------------------------- wiring
 
 function onFileInput(id: string, use: (f: File) => void): void {
+  onFilesInput(id, (files) => use(files[0]!));
+}
+
+function onFilesInput(id: string, use: (files: File[]) => void): void {
   byId<HTMLInputElement>(id).addEventListener('change', (e) => {
     const input = e.target as HTMLInputElement;
-    const f = input.files?.[0];
+    const files = Array.from(input.files ?? []);
     input.value = '';
-    if (f) use(f);
+    if (files.length) use(files);
   });
 }
 
@@ -266,6 +281,10 @@ function wire(): void {
     get load() {
       return state.load;
     },
+    /** the overview's visible time range, s */
+    get range() {
+      return overviewChart()?.range ?? null;
+    },
   };
   worker = createWorkerClient(onWorker, fail);
   byId('caution').textContent = CAUTION;
@@ -276,7 +295,7 @@ function wire(): void {
     if (s === 'review') requestAnimationFrame(resizeCharts);
   });
 
-  onFileInput('file-input', openFile);
+  onFilesInput('file-input', openFiles);
   const root = document.documentElement;
   root.addEventListener('dragover', (e) => {
     e.preventDefault();
@@ -286,8 +305,7 @@ function wire(): void {
   root.addEventListener('drop', (e) => {
     e.preventDefault();
     byId('drop-zone').classList.remove('over');
-    const f = e.dataTransfer?.files?.[0];
-    if (f) openFile(f);
+    openFiles(Array.from(e.dataTransfer?.files ?? []));
   });
   byId('analyse-button').addEventListener('click', analyse);
   wireSettingsScreen(renderMapping, () => {

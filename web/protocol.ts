@@ -11,6 +11,7 @@ export type ReaderIn = { type: 'read'; file: File; settings: Settings } | { type
 /** From the reader worker. */
 export type ReaderOut =
   | { type: 'layout'; layout: TableLayout; head: string }
+  | { type: 'count'; samples: number }
   | { type: 'block'; block: SampleBlock }
   | { type: 'progress'; bytes: number }
   | { type: 'done'; report: IngestReport }
@@ -24,11 +25,24 @@ export type ToWorker =
   | { type: 'window'; id: number; t0: number; t1: number; columns: number }
   | { type: 'gas'; file: File; start: string | null };
 
+/** A signal of a recording that stores signals rather than table columns (EDF/BDF), as the mapping step lists it. */
+export interface SignalInfo {
+  label: string;
+  /** physical dimension as written (e.g. 'L/s', 'mmHg') */
+  dimension: string;
+  rate_hz: number;
+  /** physical minimum and maximum of the signal's digital range */
+  physical: [number, number];
+  transducer: string;
+}
+
 /** The head of the file as the mapping step shows it. */
 export interface Preview {
   layout: TableLayout;
-  /** header cells (generated names when the file has none) */
+  /** header cells (generated names when the file has none); for a file of signals, the signal labels */
   header: string[];
+  /** for a file of signals (EDF/BDF): its data signals; the mapping step lists them instead of table rows */
+  signals?: SignalInfo[];
   /** the first data rows, split at the delimiter */
   rows: string[][];
   /** 1-based line number of each preview row */

@@ -9,7 +9,7 @@ import { splitFields } from '../src/ingest/split-fields';
 import { GeometryWriter, transferables } from './geometry-store';
 import { packRows, rowTransferables } from './row-columns';
 import type { FromWorker, ReaderIn, ReaderOut, ToWorker } from './protocol';
-import { readHead, readRecording, type ReadCallbacks } from './read-file';
+import { isEdfName, readEdfHead, readHead, readRecording, type ReadCallbacks } from './read-file';
 import { SignalStore } from './signal-store';
 
 declare const self: DedicatedWorkerGlobalScope;
@@ -37,6 +37,7 @@ function errorOf(e: unknown): { message: string; code: string } {
 }
 
 async function sniff(file: File, settings: Settings): Promise<void> {
+  if (isEdfName(file.name)) return sniffSignals(file, settings);
   const head = await readHead(file, settings.ingest.encoding);
   const layout = sniffTable(head, settings.ingest, settings.analysis.min_rate_hz, file.name);
   const lines = head.split(layout.line_end === '\r' ? '\r' : '\n');
@@ -49,6 +50,15 @@ async function sniff(file: File, settings: Settings): Promise<void> {
     numbers.push(k + 1);
   }
   post({ type: 'sniffed', preview: { layout, header: layout.header, rows, lines: numbers } });
+}
+
+/** An EDF/BDF file: its data signals (labels as the "columns") and the choice the reader makes, from the header. */
+async function sniffSignals(file: File, settings: Settings): Promise<void> {
+  const { header, layout } = await readEdfHead(file, settings.ingest, settings.analysis.min_rate_hz);
+  const signals = header.signals
+    .filter((s) => !s.annotations)
+    .map((s) => ({ label: s.label, dimension: s.dimension, rate_hz: s.samples_per_record / header.record_s, physical: [s.pmin, s.pmax] as [number, number], transducer: s.transducer }));
+  post({ type: 'sniffed', preview: { layout, header: signals.map((s) => s.label), signals, rows: [], lines: [] } });
 }
 
 async function analyse(file: File, settings: Settings, given: string[]): Promise<void> {
@@ -65,6 +75,9 @@ async function analyse(file: File, settings: Settings, given: string[]): Promise
       const chars = data.reduce((n, l) => n + l.length + 1, 0);
       const perRow = data.length ? chars / data.length : 20;
       s = new SignalStore((1.02 * file.size) / Math.max(4, perRow) + 1024);
+    },
+    onSampleCount: (n) => {
+      s = new SignalStore(n);
     },
     onBlock: (b) => {
       s!.append(b.t_s, b.flow_lps, b.co2_mmhg, b.n);
@@ -133,6 +146,7 @@ function readInReaderWorker(file: File, settings: Settings, cb: ReadCallbacks): 
           cb.onBlock(m.block);
           send({ type: 'ack' });
         } else if (m.type === 'layout') cb.onLayout?.(m.layout, m.head);
+        else if (m.type === 'count') cb.onSampleCount?.(m.samples);
         else if (m.type === 'progress') cb.onProgress?.(m.bytes);
         else if (m.type === 'done') finish(() => resolve(m.report));
         else finish(() => reject(Object.assign(new Error(m.message), { code: m.code })));
