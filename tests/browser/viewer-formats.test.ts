@@ -1,10 +1,11 @@
 // The review viewer opens EDF+ and BDF+ recordings (tests/fixtures/edf, written by EDFlib) in headless Chromium
 // (Debian's /usr/bin/chromium via playwright-core): the file is decoded in the worker by the core's EDF reader, the
 // mapping step lists the signals with the chosen flow and CO2 marked, and the analysis gives the built CLI's numbers
-// (summary.json byte for byte, the CLI run in the file's folder so both name it alike); the file's annotations are
-// drawn as markers on the overview (as many as summary.json lists) and listed, and choosing one moves the view to it
-// (by click and by keyboard); a signal chosen by label in the mapping step gives the CLI's `--co2-col LABEL` output;
-// a file whose CO2 signal is missing shows the CLI's one-line message.
+// (summary.json and report.html byte for byte, the CLI run in the file's folder so both name it alike; the report
+// lists the annotations in both); the file's annotations are drawn as markers on the overview (as many as
+// summary.json lists) and listed, and choosing one moves the view to it (by click and by keyboard); a signal chosen
+// by label in the mapping step gives the CLI's `--co2-col LABEL` output; a file whose CO2 signal is missing shows the
+// CLI's one-line message.
 //
 // Without /usr/bin/chromium the tests are skipped with a message (tests/browser/viewer.test.ts fails under CI=true).
 
@@ -75,7 +76,7 @@ describe.skipIf(!haveChromium())('viewer: EDF+ and BDF+ recordings in headless C
 
   for (const name of ['c100.edf', 'd100.edf', 'b50.bdf']) {
     it(`${name}: signals in the mapping step, the CLI's summary.json, annotation markers and list`, async () => {
-      const run = cli(['analyse', name, '--out', `ref-${name}`, '--quiet'], tmp);
+      const run = cli(['analyse', name, '--out', `ref-${name}`, '--quiet', '--report'], tmp);
       expect(run.status, run.stderr).toBe(0);
       const refText = readFileSync(join(tmp, `ref-${name}`, 'summary.json'), 'utf8');
       const ref = JSON.parse(refText);
@@ -96,6 +97,10 @@ describe.skipIf(!haveChromium())('viewer: EDF+ and BDF+ recordings in headless C
       expect(Number(await page.textContent('#sum-found'))).toBe(ref.breaths.found);
       expect(await page.locator('tr[data-metric="vd_aw_ml"] td.median').getAttribute('data-value')).toBe(formatNumber(ref.metrics.vd_aw_ml.median));
       expect(await downloadText(page, '#export-summary')).toBe(refText);
+      // the saved report is analyse --report's, annotations section included
+      const report = await downloadText(page, '#export-report');
+      expect(report).toBe(readFileSync(join(tmp, `ref-${name}`, 'report.html'), 'utf8'));
+      expect(report).toContain('<td>suction</td>');
       expect(await page.textContent('#caution')).toBe(CAUTION);
       expect(await page.isVisible('#caution')).toBe(true);
 
