@@ -22,6 +22,10 @@ export const INPUT_ERROR_CODES = [
   'edf_bad_header',
   'edf_truncated',
   'edf_record_count',
+  'wfdb_bad_header',
+  'wfdb_truncated',
+  'wfdb_unsupported',
+  'wfdb_missing_signal_file',
 ] as const;
 
 export type InputErrorCode = (typeof INPUT_ERROR_CODES)[number];
