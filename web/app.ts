@@ -11,7 +11,7 @@ import { startHeartbeat, type HeartbeatStats } from './heartbeat';
 import { startLaunch } from './launch';
 import { bindReviewKeys } from './keys';
 import { renderMappingFields, renderPreview } from './mapping-step';
-import { isEdfName } from '../src/ingest/edf-reader';
+import { isSignalsName, isWfdbName } from './read-file';
 import { breathPng } from './png';
 import type { Done, FromWorker } from './protocol';
 import {
@@ -33,38 +33,47 @@ let analyseStarted = 0;
 
 // ---------------------------------------------------------------- opening a file and the mapping step
 
-function openFile(file: File): void {
+/** Opens a recording: one file, or a WFDB header with the signal files chosen together with it (`companions`). */
+function openFile(file: File, companions: File[] = []): void {
   worker.restart();
   clearError();
   state.file = file;
+  state.companions = companions;
   state.preview = null;
   state.gasParsed = null;
   state.gasInput = null;
   byId('gas').replaceChildren();
-  byId('file-name').textContent = `${file.name} · ${(file.size / 1e6).toFixed(1)} MB`;
+  const bytes = [file, ...companions].reduce((n, f) => n + f.size, 0);
+  byId('file-name').textContent = `${[file, ...companions].map((f) => f.name).join(' + ')} · ${(bytes / 1e6).toFixed(1)} MB`;
   setBodyState('sniffing');
   show('map');
   renderMapping();
-  worker.send({ type: 'sniff', file, settings: state.settings });
+  worker.send({ type: 'sniff', file, companions, settings: state.settings });
 }
 
-/** Several files chosen or dropped at once: one recording. */
+/**
+ * Files chosen or dropped together: one recording, or one WFDB record (its .hea header and its signal files; the
+ * header says which files it needs, and the reader names any that is missing).
+ */
 function openFiles(files: readonly File[]): void {
-  if (files.length === 1) openFile(files[0]!);
-  else if (files.length > 1) fail(`${files.length} files were chosen: open one recording at a time.`);
+  const headers = files.filter((f) => isWfdbName(f.name));
+  if (headers.length === 1) openFile(headers[0]!, files.filter((f) => f !== headers[0]));
+  else if (headers.length > 1) fail(`${headers.length} WFDB headers (.hea) were chosen: open one record at a time, its .hea file together with its signal files.`);
+  else if (files.length === 1) openFile(files[0]!);
+  else if (files.length > 1) fail(`${files.length} files were chosen: open one recording at a time (several files only for a WFDB record: its .hea file together with its signal files).`);
 }
 
 function renderMapping(): void {
-  const signals = Boolean(state.file && isEdfName(state.file.name));
+  const signals = Boolean(state.file && isSignalsName(state.file.name));
   byId('map-hint').textContent = signals
-    ? 'Detected from the signal headers of the file (labels and physical dimensions). Change a choice if it is wrong; “auto” keeps the detection.'
+    ? 'Detected from the signal headers of the recording (labels and physical units). Change a choice if it is wrong; “auto” keeps the detection.'
     : 'Detected from the first rows of the file. Change a choice if it is wrong; “auto” keeps the detection.';
   renderMappingFields(byId('map-fields'), () => state.settings, state.preview, (key, value) => {
     state.settings = withSetting(state.settings, 'ingest', key, value);
     renderSettingsForm();
     if (state.file) {
       setBodyState('sniffing');
-      worker.send({ type: 'sniff', file: state.file, settings: state.settings });
+      worker.send({ type: 'sniff', file: state.file, companions: state.companions, settings: state.settings });
     }
   }, signals);
   renderPreview(byId<HTMLTableElement>('map-preview'), byId('map-notes'), state.preview);
@@ -87,7 +96,7 @@ function analyse(): void {
   byId('progress-text').textContent = 'reading…';
   analyseStarted = performance.now();
   stopHeartbeat = startHeartbeat();
-  worker.send({ type: 'analyse', file: state.file, settings: state.settings, given: [...state.analysed.given] });
+  worker.send({ type: 'analyse', file: state.file, companions: state.companions, settings: state.settings, given: [...state.analysed.given] });
 }
 
 // ---------------------------------------------------------------- worker messages
@@ -311,7 +320,7 @@ function wire(): void {
   wireSettingsScreen(renderMapping, () => {
     if (!state.file) return;
     if (state.preview) analyse();
-    else openFile(state.file);
+    else openFile(state.file, state.companions);
   });
 
   byId('tabs').querySelectorAll<HTMLButtonElement>('button').forEach((b) => {
@@ -379,7 +388,7 @@ function wire(): void {
 export function start(): void {
   wire();
   setBodyState('idle');
-  void startLaunch(openFile, (e) => fail(String((e as Error)?.message ?? e)));
+  void startLaunch(openFiles, (e) => fail(String((e as Error)?.message ?? e)));
 }
 
 /** The gas options typed in the sidebar: patient values and the blood-gas constants (empty fields are left to the

@@ -1,9 +1,9 @@
 // The column/unit mapping step: what the sniffer detected from the first rows, shown with those rows, and the
 // ingest settings that steer it (columns, units, delimiter, decimal mark, expiration sign, sampling rate).
 // "auto" (null) keeps the detection, so untouched choices stay out of the `given` set.
-// A file of signals (EDF/BDF) has no table: its signal labels are the "columns" (flow_col / co2_col pick a signal by
-// label, as on the command line), the units come from each signal's physical dimension unless given, and the
-// preview lists the signals instead of the first rows.
+// A recording of signals (EDF/BDF, WFDB) has no table: its signal labels are the "columns" (flow_col / co2_col pick
+// a signal by label, as on the command line), the units come from each signal's physical dimension unless given, and
+// the preview lists the signals instead of the first rows.
 
 import type { Settings } from '../src/index';
 import { h } from './dom';
@@ -13,13 +13,14 @@ import { fieldControl, fieldSpecs, type FieldSpec } from './settings-form';
 /** Ingest keys shown in the mapping step, in this order. */
 export const MAPPING_KEYS = ['time_col', 'flow_col', 'co2_col', 'time_unit', 'flow_unit', 'co2_unit', 'expiration', 'delimiter', 'decimal', 'rate_hz'] as const;
 
-/** The keys that apply to a file of signals (EDF/BDF): time comes from the file's records, there is no text to split. */
+/** The keys that apply to a recording of signals (EDF/BDF, WFDB): time comes from the file's records or frames, there
+ *  is no text to split. */
 export const SIGNAL_MAPPING_KEYS = ['flow_col', 'co2_col', 'flow_unit', 'co2_unit', 'expiration'] as const;
 
 const COLUMN_KEYS: Record<string, 'time' | 'flow' | 'co2'> = { time_col: 'time', flow_col: 'flow', co2_col: 'co2' };
 
 /**
- * The mapping fields. `signals`: the file is a file of signals (EDF/BDF), also when its preview failed (then the
+ * The mapping fields. `signals`: the recording is one of signals (EDF/BDF, WFDB), also when its preview failed (then the
  * signal fields are free text: the error names the labels there are).
  */
 export function renderMappingFields(
@@ -87,11 +88,11 @@ export function renderPreview(table: HTMLTableElement, notesHost: HTMLElement, p
   notesHost.replaceChildren(...layout.notes.map((n) => h('li', { text: n })));
 }
 
-/** The signals of an EDF/BDF file, one row each, the chosen flow and CO2 signals marked (as the table's columns are). */
+/** The signals of a recording, one row each, the chosen flow and CO2 signals marked (as the table's columns are). */
 function renderSignals(table: HTMLTableElement, preview: Preview): void {
   const { layout } = preview;
   const roleOf = (label: string) => (label === layout.names.flow ? 'flow' : label === layout.names.co2 ? 'co2' : '');
-  const head = h('tr', {}, ['signal', 'dimension', 'rate', 'physical range', 'transducer', 'used as'].map((t) => h('th', { text: t })));
+  const head = h('tr', {}, ['signal', 'units', 'rate', 'scaling', 'details', 'used as'].map((t) => h('th', { text: t })));
   const rows = preview.signals!.map((s) => {
     const r = roleOf(s.label);
     const unit = r === 'flow' ? layout.units.flow : r === 'co2' ? layout.units.co2 : '';
@@ -99,8 +100,8 @@ function renderSignals(table: HTMLTableElement, preview: Preview): void {
       h('th', { class: r ? `role-${r}` : '', 'data-role': r, text: s.label }),
       h('td', { text: s.dimension }),
       h('td', { text: `${s.rate_hz} Hz` }),
-      h('td', { text: `${s.physical[0]} to ${s.physical[1]}` }),
-      h('td', { text: s.transducer }),
+      h('td', { text: s.scaling }),
+      h('td', { text: s.details }),
       h('td', { class: r ? `role-${r}` : '', text: r ? `${r} (${unit})` : 'not used' }),
     ]);
   });

@@ -6,7 +6,7 @@ import type { PackedRows } from './row-columns';
 import type { SignalWindow } from './signal-store';
 
 /** To the reader worker (read-worker.ts), from the analysis worker. */
-export type ReaderIn = { type: 'read'; file: File; settings: Settings } | { type: 'ack' };
+export type ReaderIn = { type: 'read'; file: File; companions: File[]; settings: Settings } | { type: 'ack' };
 
 /** From the reader worker. */
 export type ReaderOut =
@@ -18,22 +18,25 @@ export type ReaderOut =
   | { type: 'error'; message: string; code: string };
 
 export type ToWorker =
-  | { type: 'sniff'; file: File; settings: Settings }
-  | { type: 'analyse'; file: File; settings: Settings; given: string[] }
+  /** `companions`: the signal files chosen together with a WFDB header (empty for other recordings) */
+  | { type: 'sniff'; file: File; companions: File[]; settings: Settings }
+  | { type: 'analyse'; file: File; companions: File[]; settings: Settings; given: string[] }
   /** recompute the outputs of the last analysis with these exclusions and blood gases */
   | { type: 'compose'; id: number; excluded: [number, string][]; gas: GasInput | null }
   | { type: 'window'; id: number; t0: number; t1: number; columns: number }
   | { type: 'gas'; file: File; start: string | null };
 
-/** A signal of a recording that stores signals rather than table columns (EDF/BDF), as the mapping step lists it. */
+/** A signal of a recording that stores signals rather than table columns (EDF/BDF, WFDB), as the mapping step lists it. */
 export interface SignalInfo {
+  /** EDF label, WFDB description */
   label: string;
-  /** physical dimension as written (e.g. 'L/s', 'mmHg') */
+  /** physical dimension / units as written (e.g. 'L/s', 'mmHg') */
   dimension: string;
   rate_hz: number;
-  /** physical minimum and maximum of the signal's digital range */
-  physical: [number, number];
-  transducer: string;
+  /** how digital values become physical ones (EDF: the physical range; WFDB: gain and baseline) */
+  scaling: string;
+  /** EDF: the transducer; WFDB: the signal file and its format */
+  details: string;
 }
 
 /** The head of the file as the mapping step shows it. */
@@ -41,7 +44,7 @@ export interface Preview {
   layout: TableLayout;
   /** header cells (generated names when the file has none); for a file of signals, the signal labels */
   header: string[];
-  /** for a file of signals (EDF/BDF): its data signals; the mapping step lists them instead of table rows */
+  /** for a recording of signals (EDF/BDF, WFDB): its data signals; the mapping step lists them instead of table rows */
   signals?: SignalInfo[];
   /** the first data rows, split at the delimiter */
   rows: string[][];

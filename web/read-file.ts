@@ -1,13 +1,16 @@
 // Reads a recording File in the worker with the CLI's own byte reader (src/ingest/bytes.ts): 1 MiB chunks, valid UTF-8
 // scanned as bytes (checked in JavaScript here; Node uses its native all-ASCII test), the same checks, order and
 // notes, so the blocks (and the breaths) are the ones the CLI sees. EDF/BDF files (.edf, .bdf) are read whole and
-// decoded by the core's EDF reader (src/ingest/edf-reader.ts), as the CLI does (src/node/read-recording.ts).
+// decoded by the core's EDF reader (src/ingest/edf-reader.ts), and WFDB records (a .hea header chosen together with
+// its signal files) by the core's WFDB reader (src/ingest/wfdb-reader.ts), as the CLI does (src/node/read-recording.ts).
 
 import { CHUNK_BYTES, notTextError, readRecordingBytes } from '../src/ingest/bytes';
 import { edfHeaderBytes } from '../src/ingest/edf-header';
 import { isEdfName, previewEdfHeader, readEdfBytes } from '../src/ingest/edf-reader';
 import { chooseEncoding } from '../src/ingest/encoding';
+import { isWfdbName, previewWfdbRecord, readWfdbRecord } from '../src/ingest/wfdb-reader';
 import { InputError, SNIFF_CHARS, type IngestReport, type TableLayout, type IngestSettings, type SampleBlock } from '../src/index';
+import type { SignalInfo } from './protocol';
 
 export { CHUNK_BYTES };
 
@@ -20,7 +23,12 @@ export interface ReadCallbacks {
   onProgress?: (bytesDone: number) => void;
 }
 
-export { isEdfName };
+export { isEdfName, isWfdbName };
+
+/** A recording of signals rather than a text table: EDF/BDF, or a WFDB record's header. */
+export function isSignalsName(name: string): boolean {
+  return isEdfName(name) || isWfdbName(name);
+}
 
 const HINT = 'Export the recording as a CSV text table (UTF-8 or Windows-1252) and open it again.';
 
@@ -43,13 +51,18 @@ export async function readHead(file: File, encoding: IngestSettings['encoding'] 
 
 /**
  * Streams the whole file through the shared byte reader; resolves to the ingest report. `beforeChunk` (optional) is
- * awaited before each chunk is read (the reader worker's backpressure).
+ * awaited before each chunk is read (the reader worker's backpressure). `companions`: the signal files chosen with a
+ * WFDB header.
  */
 export async function readRecording(
-  file: File, settings: IngestSettings, minRateHz: number, cb: ReadCallbacks, beforeChunk?: () => Promise<void>,
+  file: File, settings: IngestSettings, minRateHz: number, cb: ReadCallbacks, beforeChunk?: () => Promise<void>, companions: readonly File[] = [],
 ): Promise<IngestReport> {
   checkNotEmpty(file);
-  if (isEdfName(file.name)) return readEdf(file, settings, minRateHz, cb, beforeChunk);
+  if (isEdfName(file.name)) return readDecoded(readEdfBytes(await bytesOf(file), settings, minRateHz, file.name), file.size, cb, beforeChunk);
+  if (isWfdbName(file.name)) {
+    const decoded = readWfdbRecord(await bytesOf(file), await filesByName(companions), settings, minRateHz, file.name);
+    return readDecoded(decoded, file.size + companions.reduce((n, f) => n + f.size, 0), cb, beforeChunk);
+  }
   async function* chunks(): AsyncGenerator<Uint8Array> {
     for (let pos = 0; pos < file.size; pos += CHUNK_BYTES) {
       if (beforeChunk) await beforeChunk();
@@ -64,29 +77,57 @@ export async function readRecording(
   );
 }
 
-/** An EDF/BDF file: read whole and decoded by the core's EDF reader; its blocks are handed on one by one. */
-async function readEdf(
-  file: File, settings: IngestSettings, minRateHz: number, cb: ReadCallbacks, beforeChunk?: () => Promise<void>,
+async function bytesOf(file: File): Promise<Uint8Array> {
+  return new Uint8Array(await file.arrayBuffer());
+}
+
+/** The chosen signal files by name (the names a WFDB header uses for them). */
+async function filesByName(files: readonly File[]): Promise<Map<string, Uint8Array>> {
+  const out = new Map<string, Uint8Array>();
+  for (const f of files) out.set(f.name, await bytesOf(f));
+  return out;
+}
+
+/** A recording decoded whole by a core reader (EDF/BDF, WFDB): its blocks handed on one by one. */
+async function readDecoded(
+  decoded: { blocks: SampleBlock[]; report: IngestReport }, bytes: number, cb: ReadCallbacks, beforeChunk?: () => Promise<void>,
 ): Promise<IngestReport> {
-  const { blocks, report } = readEdfBytes(new Uint8Array(await file.arrayBuffer()), settings, minRateHz, file.name);
-  cb.onSampleCount?.(blocks.reduce((n, b) => n + b.n, 0));
-  for (const b of blocks) {
+  cb.onSampleCount?.(decoded.blocks.reduce((n, b) => n + b.n, 0));
+  for (const b of decoded.blocks) {
     if (beforeChunk) await beforeChunk();
     cb.onBlock(b);
   }
-  cb.onProgress?.(file.size);
-  return report;
+  cb.onProgress?.(bytes);
+  return decoded.report;
 }
 
 /**
- * The header of an EDF/BDF file and the signals the reader would choose with these settings (the mapping step's
- * preview); reads only the header bytes.
+ * The mapping step's preview of a recording of signals: its data signals and the layout the reader would use with
+ * these settings (the chosen flow and CO2 signals, units, notes). EDF/BDF: from the header bytes alone; WFDB: from
+ * the header, with the checks that the flow and CO2 signals' files were chosen with it.
  */
-export async function readEdfHead(file: File, settings: IngestSettings, minRateHz: number): Promise<ReturnType<typeof previewEdfHeader>> {
+export async function readSignalsHead(
+  file: File, companions: readonly File[], settings: IngestSettings, minRateHz: number,
+): Promise<{ signals: SignalInfo[]; layout: TableLayout }> {
   checkNotEmpty(file);
+  if (isWfdbName(file.name)) {
+    const { header, layout } = previewWfdbRecord(await bytesOf(file), await filesByName(companions), settings, file.name);
+    const signals = header.signals.map((s) => ({
+      label: s.description,
+      dimension: s.units,
+      rate_hz: header.frequency_hz * s.spf,
+      scaling: `gain ${s.gain}${s.uncalibrated ? ' (assumed)' : ''}, baseline ${s.baseline}`,
+      details: s.file === '~' ? 'no samples stored' : `${s.file}, format ${s.format}`,
+    }));
+    return { signals, layout };
+  }
   const fixed = new Uint8Array(await file.slice(0, 256).arrayBuffer());
   const head = new Uint8Array(await file.slice(0, edfHeaderBytes(fixed)).arrayBuffer());
-  return previewEdfHeader(head, file.size, settings, minRateHz, file.name);
+  const { header, layout } = previewEdfHeader(head, file.size, settings, minRateHz, file.name);
+  const signals = header.signals
+    .filter((s) => !s.annotations)
+    .map((s) => ({ label: s.label, dimension: s.dimension, rate_hz: s.samples_per_record / header.record_s, scaling: `physical ${s.pmin} to ${s.pmax}`, details: s.transducer }));
+  return { signals, layout };
 }
 
 function checkNotEmpty(file: File): void {

@@ -45,6 +45,7 @@ self.onmessage = async (ev: MessageEvent<ReaderIn>) => {
         onProgress: (bytes) => post({ type: 'progress', bytes }),
       },
       room,
+      m.companions,
     );
     post({ type: 'done', report });
   } catch (e) {

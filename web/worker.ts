@@ -9,7 +9,7 @@ import { splitFields } from '../src/ingest/split-fields';
 import { GeometryWriter, transferables } from './geometry-store';
 import { packRows, rowTransferables } from './row-columns';
 import type { FromWorker, ReaderIn, ReaderOut, ToWorker } from './protocol';
-import { isEdfName, readEdfHead, readHead, readRecording, type ReadCallbacks } from './read-file';
+import { isSignalsName, readHead, readRecording, readSignalsHead, type ReadCallbacks } from './read-file';
 import { SignalStore } from './signal-store';
 
 declare const self: DedicatedWorkerGlobalScope;
@@ -36,8 +36,8 @@ function errorOf(e: unknown): { message: string; code: string } {
   return { message: String(err?.message ?? e).split('\n')[0]!, code: typeof err?.code === 'string' ? err.code : 'internal' };
 }
 
-async function sniff(file: File, settings: Settings): Promise<void> {
-  if (isEdfName(file.name)) return sniffSignals(file, settings);
+async function sniff(file: File, companions: File[], settings: Settings): Promise<void> {
+  if (isSignalsName(file.name)) return sniffSignals(file, companions, settings);
   const head = await readHead(file, settings.ingest.encoding);
   const layout = sniffTable(head, settings.ingest, settings.analysis.min_rate_hz, file.name);
   const lines = head.split(layout.line_end === '\r' ? '\r' : '\n');
@@ -52,16 +52,14 @@ async function sniff(file: File, settings: Settings): Promise<void> {
   post({ type: 'sniffed', preview: { layout, header: layout.header, rows, lines: numbers } });
 }
 
-/** An EDF/BDF file: its data signals (labels as the "columns") and the choice the reader makes, from the header. */
-async function sniffSignals(file: File, settings: Settings): Promise<void> {
-  const { header, layout } = await readEdfHead(file, settings.ingest, settings.analysis.min_rate_hz);
-  const signals = header.signals
-    .filter((s) => !s.annotations)
-    .map((s) => ({ label: s.label, dimension: s.dimension, rate_hz: s.samples_per_record / header.record_s, physical: [s.pmin, s.pmax] as [number, number], transducer: s.transducer }));
+/** A recording of signals (EDF/BDF, WFDB): its data signals (labels as the "columns") and the reader's choice. */
+async function sniffSignals(file: File, companions: File[], settings: Settings): Promise<void> {
+  const { signals, layout } = await readSignalsHead(file, companions, settings.ingest, settings.analysis.min_rate_hz);
   post({ type: 'sniffed', preview: { layout, header: signals.map((s) => s.label), signals, rows: [], lines: [] } });
 }
 
-async function analyse(file: File, settings: Settings, given: string[]): Promise<void> {
+async function analyse(file: File, companions: File[], settings: Settings, given: string[]): Promise<void> {
+  const totalBytes = file.size + companions.reduce((n, f) => n + f.size, 0);
   const started = performance.now();
   const geometry = new GeometryWriter();
   const analyser = createAnalyser(settings, (e) => geometry.add(e.decomposition.geometry));
@@ -85,13 +83,16 @@ async function analyse(file: File, settings: Settings, given: string[]): Promise
     },
     onProgress: (bytes) => {
       const now = performance.now();
-      if (now - lastPost > 100 || bytes === file.size) {
+      if (now - lastPost > 100 || bytes === totalBytes) {
         lastPost = now;
-        post({ type: 'progress', bytes, total: file.size, breaths: geometry.count });
+        post({ type: 'progress', bytes, total: totalBytes, breaths: geometry.count });
       }
     },
   };
-  const report = typeof Worker === 'function' ? await readInReaderWorker(file, settings, callbacks) : await readRecording(file, settings.ingest, settings.analysis.min_rate_hz, callbacks);
+  const report =
+    typeof Worker === 'function'
+      ? await readInReaderWorker(file, companions, settings, callbacks)
+      : await readRecording(file, settings.ingest, settings.analysis.min_rate_hz, callbacks, undefined, companions);
   const core = analyser.finish();
   const sig = s! as SignalStore;
   sig.finalize();
@@ -131,7 +132,7 @@ async function analyse(file: File, settings: Settings, given: string[]): Promise
  * Reads the file in a reader worker of its own (read-worker.ts) while this worker analyses the blocks: the same
  * blocks, in the same order, as reading here (the exports are compared with the command line's in the browser tests).
  */
-function readInReaderWorker(file: File, settings: Settings, cb: ReadCallbacks): Promise<IngestReport> {
+function readInReaderWorker(file: File, companions: File[], settings: Settings, cb: ReadCallbacks): Promise<IngestReport> {
   const reader = new Worker(new URL('./read-worker.ts', import.meta.url), { type: 'module' });
   const send = (m: ReaderIn) => reader.postMessage(m);
   return new Promise<IngestReport>((resolve, reject) => {
@@ -155,15 +156,15 @@ function readInReaderWorker(file: File, settings: Settings, cb: ReadCallbacks): 
       }
     };
     reader.onerror = (ev) => finish(() => reject(new Error(`the reader worker stopped: ${ev.message || 'unknown error'}`)));
-    send({ type: 'read', file, settings });
+    send({ type: 'read', file, companions, settings });
   });
 }
 
 self.onmessage = async (ev: MessageEvent<ToWorker>) => {
   const m = ev.data;
   try {
-    if (m.type === 'sniff') await sniff(m.file, m.settings);
-    else if (m.type === 'analyse') await analyse(m.file, m.settings, m.given);
+    if (m.type === 'sniff') await sniff(m.file, m.companions, m.settings);
+    else if (m.type === 'analyse') await analyse(m.file, m.companions, m.settings, m.given);
     else if (m.type === 'compose') {
       if (!last) throw new Error('no analysis to recompute');
       const t0 = performance.now();
