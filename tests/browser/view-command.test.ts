@@ -1,8 +1,8 @@
 // `phasewise view` in headless Chromium (Debian's /usr/bin/chromium via playwright-core): the packaged viewer
 // (dist/web, built by `node scripts/build.mjs --package`, which npm test runs first) served by the CLI opens the
-// recording named on the command line at once (a text table, and an EDF+ file with its annotations), and (started
-// without one) its start screen offers the bundled samples; a sample opened from there analyses to the CLI's breath
-// count and median airway dead space. No request leaves the page's own origin and no CSP violation occurs.
+// recording named on the command line at once (a text table, an EDF+ file with its annotations, a WFDB header with
+// its signal file), and (started without one) its start screen offers the bundled samples; a sample opened from
+// there analyses to the CLI's breath count and median airway dead space. No request leaves the page's own origin and no CSP violation occurs.
 // Without /usr/bin/chromium the tests are skipped with a message (tests/browser/viewer.test.ts fails under CI=true).
 import { spawnSync } from 'node:child_process';
 import { existsSync, mkdtempSync, readFileSync, readdirSync, rmSync } from 'node:fs';
@@ -11,6 +11,7 @@ import { join } from 'node:path';
 import type { Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { haveChromium, launchBrowser, ROOT, startServer, type Browser, type Viewer } from './harness';
+import { writeWfdbRecord } from './wfdb-record';
 
 const OPENED = 'child-sidestream.csv';
 const PICKED = 'adult-healthy.csv';
@@ -42,6 +43,7 @@ describe.skipIf(!haveChromium())('phasewise view in headless Chromium', () => {
   let viewer: Viewer | null = null;
   let plain: Viewer | null = null;
   let edf: Viewer | null = null;
+  let wfdb: Viewer | null = null;
   let browser: Browser | null = null;
   let page: Page;
   const requests: string[] = [];
@@ -53,6 +55,7 @@ describe.skipIf(!haveChromium())('phasewise view in headless Chromium', () => {
     viewer = await startServer([join(ROOT, 'bin', 'phasewise.cjs'), 'view', join(ROOT, 'sample-waveforms', OPENED), '--port', '0']);
     plain = await startServer([join(ROOT, 'bin', 'phasewise.cjs'), 'view', '--port', '0']);
     edf = await startServer([join(ROOT, 'bin', 'phasewise.cjs'), 'view', EDF, '--port', '0']);
+    wfdb = await startServer([join(ROOT, 'bin', 'phasewise.cjs'), 'view', join(writeWfdbRecord(tmp), 'rec.hea'), '--port', '0']);
     browser = await launchBrowser();
     page = browser.page;
     await page.addInitScript(() => {
@@ -72,6 +75,7 @@ describe.skipIf(!haveChromium())('phasewise view in headless Chromium', () => {
     await viewer?.stop();
     await plain?.stop();
     await edf?.stop();
+    await wfdb?.stop();
     if (tmp) rmSync(tmp, { recursive: true, force: true });
   });
 
@@ -101,8 +105,14 @@ describe.skipIf(!haveChromium())('phasewise view in headless Chromium', () => {
     expect(await page.locator('#annotations button.annotation').allTextContents()).toEqual(['2.5 s · suction (1 s)', '42.5 s · PEEP 8']);
   });
 
+  it('opens a WFDB header given on the command line with the signal file it names: the CLI numbers of the same samples as CSV', async () => {
+    await page.goto(wfdb!.url);
+    await page.waitForFunction(() => (document.getElementById('file-name')?.textContent ?? '').includes('rec.hea + rec.dat'), undefined, { timeout: 30_000 });
+    await analyseAndCheck(page, cliSummary(tmp, 'sim.csv', join(ROOT, 'tests', 'fixtures', 'edf', 'sim.csv')));
+  });
+
   it('makes no request outside its own origin and no CSP violation', async () => {
-    const origins = [new URL(viewer!.url).origin, new URL(plain!.url).origin, new URL(edf!.url).origin];
+    const origins = [viewer, plain, edf, wfdb].map((v) => new URL(v!.url).origin);
     expect(requests.length).toBeGreaterThan(3);
     expect(requests.filter((u) => !origins.some((o) => u.startsWith(`${o}/`)) && !u.startsWith('blob:') && !u.startsWith('data:'))).toEqual([]);
     expect(await page.evaluate(() => (window as unknown as { __csp: string[] }).__csp)).toEqual([]);

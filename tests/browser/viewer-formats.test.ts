@@ -5,7 +5,8 @@
 // lists the annotations in both); the file's annotations are drawn as markers on the overview (as many as
 // summary.json lists) and listed, and choosing one moves the view to it (by click and by keyboard); a signal chosen
 // by label in the mapping step gives the CLI's `--co2-col LABEL` output; a file whose CO2 signal is missing shows the
-// CLI's one-line message.
+// CLI's one-line message. A WFDB record (a .hea header and its .dat signal file, chosen together) gives the breaths the
+// CLI finds in the same samples as CSV; the header chosen alone names the missing signal file.
 //
 // Without /usr/bin/chromium the tests are skipped with a message (tests/browser/viewer.test.ts fails under CI=true).
 
@@ -18,6 +19,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { CAUTION } from '../../src/report/caution';
 import { formatNumber } from '../../src/report/format';
 import { haveChromium, launchBrowser, ROOT, startViewer, type Browser, type Viewer } from './harness';
+import { writeWfdbRecord } from './wfdb-record';
 
 const FIXTURES = join(ROOT, 'tests', 'fixtures', 'edf');
 const CLI = join(ROOT, 'bin', 'phasewise.cjs');
@@ -172,6 +174,46 @@ describe.skipIf(!haveChromium())('viewer: EDF+ and BDF+ recordings in headless C
     expect(await page.textContent('#map-error')).toBe(message);
     expect(await page.isDisabled('#analyse-button')).toBe(true);
     expect(await page.isVisible('#caution')).toBe(true);
+  });
+
+  it('a WFDB record chosen with its signal file: the breaths of the same samples as CSV, by the CLI', async () => {
+    const dir = writeWfdbRecord(tmp);
+    const run = cli(['analyse', join(FIXTURES, 'sim.csv'), '--out', 'ref-sim', '--quiet'], tmp);
+    expect(run.status, run.stderr).toBe(0);
+    const ref = JSON.parse(readFileSync(join(tmp, 'ref-sim', 'summary.json'), 'utf8'));
+    await page.setInputFiles('#file-input', [join(dir, 'rec.hea'), join(dir, 'rec.dat')]);
+    expect(await waitState(page, ['mapped', 'sniff-error'])).toBe('mapped');
+    expect(await page.textContent('#file-name')).toContain('rec.hea + rec.dat');
+    expect(await page.textContent('#map-preview th[data-role="flow"]')).toBe('Flow');
+    expect(await page.textContent('#map-preview th[data-role="co2"]')).toBe('CO2');
+    await page.click('#analyse-button');
+    expect(await waitState(page, ['done', 'error'])).toBe('done');
+    expect(Number(await page.textContent('#sum-found'))).toBe(ref.breaths.found);
+    expect(await page.locator('tr[data-metric="vd_aw_ml"] td.median').getAttribute('data-value')).toBe(formatNumber(ref.metrics.vd_aw_ml.median));
+    expect(await downloadText(page, '#export-breaths')).toBe(readFileSync(join(tmp, 'ref-sim', 'breaths.csv'), 'utf8'));
+    // the checksums written with the record match what the reader summed
+    const notes = JSON.parse(await downloadText(page, '#export-summary')).input.notes as string[];
+    expect(notes.filter((n) => /^(flow|CO2) signal "(Flow|CO2)": checksum -?\d+ matches$/.test(n)).length).toBe(2);
+    expect(notes.join('\n')).not.toContain('checksum mismatch');
+    // a WFDB record has no annotations here: no list, no marker
+    expect(await page.isHidden('#annotations')).toBe(true);
+    expect(await page.isVisible('#caution')).toBe(true);
+  });
+
+  it('a WFDB header chosen without its signal file: the one-line message names the missing file', async () => {
+    const dir = writeWfdbRecord(tmp);
+    await page.setInputFiles('#file-input', join(dir, 'rec.hea'));
+    expect(await waitState(page, ['mapped', 'sniff-error'])).toBe('sniff-error');
+    const message = (await page.textContent('#map-error'))!;
+    expect(message).toBe('rec.hea: the signal file "rec.dat" named by the header is not among the files given (none). Choose the .hea file together with its signal files.');
+    expect(await page.isDisabled('#analyse-button')).toBe(true);
+  });
+
+  it('two recordings chosen at once: one line asking for one recording at a time', async () => {
+    await page.setInputFiles('#file-input', [join(tmp, 'c100.edf'), join(tmp, 'b50.bdf')]);
+    await page.waitForSelector('#error-box', { state: 'visible' });
+    expect(await page.textContent('#error-box span')).toBe('2 files were chosen: open one recording at a time (several files only for a WFDB record: its .hea file together with its signal files).');
+    await page.click('#error-box button');
   });
 
   it('no page error or console error', () => {
