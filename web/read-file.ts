@@ -32,6 +32,11 @@ export function isSignalsName(name: string): boolean {
 
 const HINT = 'Export the recording as a CSV text table (UTF-8 or Windows-1252) and open it again.';
 
+/** The hint for a file that is not text: a .dat file may be a WFDB signal file, opened with its header. */
+function hintFor(name: string): string {
+  return name.toLowerCase().endsWith('.dat') ? `${HINT.slice(0, -1)}; if it is a WFDB signal file, choose it together with its .hea header.` : HINT;
+}
+
 /**
  * The first characters of the file (for the mapping step), decoded like the full read: the encoding chosen from the
  * first MiB by the same rule (src/ingest/encoding.ts), bytes that are not UTF-8 in a UTF-8 file replaced (U+FFFD).
@@ -39,13 +44,13 @@ const HINT = 'Export the recording as a CSV text table (UTF-8 or Windows-1252) a
 export async function readHead(file: File, encoding: IngestSettings['encoding'] = 'auto', chars = SNIFF_CHARS): Promise<string> {
   checkNotEmpty(file);
   const buf = new Uint8Array(await file.slice(0, CHUNK_BYTES).arrayBuffer());
-  const choice = chooseEncoding(buf, buf.length >= file.size, encoding, file.name, HINT);
+  const choice = chooseEncoding(buf, buf.length >= file.size, encoding, file.name, hintFor(file.name));
   const decoder = new TextDecoder(choice.encoding, { fatal: choice.encoding.startsWith('utf-16') });
   try {
     // the first MiB holds at least SNIFF_CHARS characters (at most 4 bytes each) or the whole file
     return decoder.decode(buf, { stream: buf.length < file.size }).slice(0, chars);
   } catch {
-    throw notTextError(file.name, 0, choice.encoding, 1, HINT);
+    throw notTextError(file.name, 0, choice.encoding, 1, hintFor(file.name));
   }
 }
 
@@ -70,7 +75,7 @@ export async function readRecording(
     }
   }
   return readRecordingBytes(
-    { name: file.name, size: file.size, chunks: chunks(), lineAtByte: (offset) => lineAtByte(file, offset), notTextHint: HINT },
+    { name: file.name, size: file.size, chunks: chunks(), lineAtByte: (offset) => lineAtByte(file, offset), notTextHint: hintFor(file.name) },
     settings,
     minRateHz,
     cb,

@@ -207,6 +207,10 @@ describe.skipIf(!haveChromium())('viewer: EDF+ and BDF+ recordings in headless C
     const message = (await page.textContent('#map-error'))!;
     expect(message).toBe('rec.hea: the signal file "rec.dat" named by the header is not among the files given (none). Choose the .hea file together with its signal files.');
     expect(await page.isDisabled('#analyse-button')).toBe(true);
+    // the signal file alone is read as a text table, which it is not: the message says to choose it with its header
+    await page.setInputFiles('#file-input', join(dir, 'rec.dat'));
+    expect(await waitState(page, ['mapped', 'sniff-error'])).toBe('sniff-error');
+    expect(await page.textContent('#map-error')).toMatch(/^rec\.dat.*; if it is a WFDB signal file, choose it together with its \.hea header\.$/);
   });
 
   it('two recordings chosen at once: one line asking for one recording at a time', async () => {
