@@ -200,13 +200,22 @@ describe.skipIf(!haveChromium())('viewer: EDF+ and BDF+ recordings in headless C
     expect(await page.isVisible('#caution')).toBe(true);
   });
 
-  it('a WFDB header chosen without its signal file: the one-line message names the missing file', async () => {
+  it('a WFDB header chosen without its signal file: the one-line message names the missing file; dropped together they open', async () => {
     const dir = writeWfdbRecord(tmp);
     await page.setInputFiles('#file-input', join(dir, 'rec.hea'));
     expect(await waitState(page, ['mapped', 'sniff-error'])).toBe('sniff-error');
     const message = (await page.textContent('#map-error'))!;
     expect(message).toBe('rec.hea: the signal file "rec.dat" named by the header is not among the files given (none). Choose the .hea file together with its signal files.');
     expect(await page.isDisabled('#analyse-button')).toBe(true);
+    // dropped together, the two files open as one record
+    const files = ['rec.hea', 'rec.dat'].map((n) => ({ name: n, bytes: [...readFileSync(join(dir, n))] }));
+    await page.evaluate((fs) => {
+      const dt = new DataTransfer();
+      for (const f of fs) dt.items.add(new File([new Uint8Array(f.bytes)], f.name));
+      document.documentElement.dispatchEvent(new DragEvent('drop', { dataTransfer: dt, bubbles: true, cancelable: true }));
+    }, files);
+    expect(await waitState(page, ['mapped', 'sniff-error'])).toBe('mapped');
+    expect(await page.textContent('#file-name')).toContain('rec.hea + rec.dat');
     // the signal file alone is read as a text table, which it is not: the message says to choose it with its header
     await page.setInputFiles('#file-input', join(dir, 'rec.dat'));
     expect(await waitState(page, ['mapped', 'sniff-error'])).toBe('sniff-error');
