@@ -65,6 +65,7 @@ function openFiles(files: readonly File[]): void {
 
 function renderMapping(): void {
   const signals = Boolean(state.file && isSignalsName(state.file.name));
+  byId('map-title').textContent = signals ? 'Signals and units' : 'Columns and units';
   byId('map-hint').textContent = signals
     ? 'Detected from the signal headers of the recording (labels and physical units). Change a choice if it is wrong; “auto” keeps the detection.'
     : 'Detected from the first rows of the file. Change a choice if it is wrong; “auto” keeps the detection.';
