@@ -1,15 +1,17 @@
-// Batch inputs: files, folders (searched recursively for .csv, .tsv and .txt files) and globs, expanded into one
-// deterministic, sorted, de-duplicated list. Hidden files and folders (names starting with ".") are skipped while
+// Batch inputs: files, folders (searched recursively for .csv, .tsv, .txt, .edf, .bdf and .hea files) and globs,
+// expanded into one deterministic, sorted, de-duplicated list. A WFDB record is its header (.hea): a file that a
+// header in the same folder names as its signal file (e.g. rec.dat) is left out with a warning, however it was found. Hidden files and folders (names starting with ".") are skipped while
 // searching folders and globs; a file named explicitly is always taken. Anything inside the output folder is left
 // out, so a re-run never reads its own tables, and so are folders written by phasewise itself (a folder holding a
 // batch manifest.json, or the breaths.csv + summary.json pair of `analyse`), so `phasewise batch .` does not read
 // earlier results as recordings.
-import { closeSync, existsSync, openSync, readdirSync, readSync, realpathSync, statSync } from 'node:fs';
-import { basename, isAbsolute, join, posix, relative, resolve, sep } from 'node:path';
+import { closeSync, existsSync, openSync, readdirSync, readFileSync, readSync, realpathSync, statSync } from 'node:fs';
+import { basename, dirname, isAbsolute, join, posix, relative, resolve, sep } from 'node:path';
+import { isWfdbName, wfdbSignalFileNames } from '../ingest/wfdb-reader';
 import { globToRegExp, hasGlobChars, toPosix } from './glob';
 
 /** Extensions taken when a folder is searched (case-insensitive). */
-export const RECORDING_EXTENSIONS = ['.csv', '.tsv', '.txt', '.edf', '.bdf'] as const;
+export const RECORDING_EXTENSIONS = ['.csv', '.tsv', '.txt', '.edf', '.bdf', '.hea'] as const;
 
 export interface BatchInput {
   /** recording id: the path relative to the working folder with `/` separators (absolute when outside it) */
@@ -146,7 +148,7 @@ export function expandInputs(args: readonly string[], cwd: string = process.cwd(
       if (st.isDirectory()) {
         const files: string[] = [];
         walk(abs, exclude, (f) => hasRecordingExtension(f), files, new Set(), skipped);
-        if (!files.length) warnings.push(`${arg}: the folder holds no .csv, .tsv or .txt files`);
+        if (!files.length) warnings.push(`${arg}: the folder holds no ${RECORDING_EXTENSIONS.join(', ')} files`);
         for (const f of files) add(f, toPosix(relative(abs, f)));
       } else {
         add(abs, basename(abs));
@@ -166,6 +168,42 @@ export function expandInputs(args: readonly string[], cwd: string = process.cwd(
     for (const f of files) add(f, toPosix(relative(base, f)));
   }
   for (const d of [...new Set(skipped)].sort()) warnings.push(`${recordingId(d, cwd)}: skipped, it holds phasewise outputs (manifest.json, or breaths.csv with summary.json)`);
-  const inputs = [...found.values()].sort((a, b) => (a.recording < b.recording ? -1 : a.recording > b.recording ? 1 : 0));
+  const sorted = [...found.values()].sort((a, b) => (a.recording < b.recording ? -1 : a.recording > b.recording ? 1 : 0));
+  const headers = new Map<string, Map<string, string>>();
+  const inputs = sorted.filter((input) => {
+    const owner = input.missing ? null : wfdbOwner(input.path, headers);
+    if (owner === null) return true;
+    const taken = found.has(owner);
+    warnings.push(`${input.recording}: skipped, it is a signal file of the WFDB record ${recordingId(owner, cwd)} (${taken ? 'read with that header' : 'give the .hea file to analyse the record'})`);
+    return false;
+  });
   return { inputs, warnings };
+}
+
+/**
+ * The WFDB header in the same folder that names this file as one of its signal files, or null. `headers` keeps, per
+ * folder looked at, each signal file name with the header naming it (unreadable headers name none).
+ */
+function wfdbOwner(path: string, headers: Map<string, Map<string, string>>): string | null {
+  if (isWfdbName(path)) return null;
+  const dir = dirname(path);
+  let names = headers.get(dir);
+  if (!names) {
+    names = new Map();
+    let entries: string[] = [];
+    try {
+      entries = readdirSync(dir).filter((n) => isWfdbName(n)).sort();
+    } catch {
+      /* no listing: no headers */
+    }
+    for (const hea of entries) {
+      try {
+        for (const n of wfdbSignalFileNames(new Uint8Array(readFileSync(join(dir, hea))), hea)) if (!names.has(n)) names.set(n, join(dir, hea));
+      } catch {
+        /* not a readable header: it names no files */
+      }
+    }
+    headers.set(dir, names);
+  }
+  return names.get(basename(path)) ?? null;
 }

@@ -2,19 +2,25 @@
 // level), so the same settings always give the same hash whatever order they were written in.
 import { createHash } from 'node:crypto';
 import { createReadStream } from 'node:fs';
+import { recordingFiles } from '../node/wfdb-files';
 
-/** SHA-256 (hex) and size in bytes of a file, read as a stream. */
+/**
+ * SHA-256 (hex) and size in bytes of a recording's bytes, read as a stream: the file, or for a WFDB header (.hea)
+ * the header followed by the signal files it names (src/node/wfdb-files.ts), so a changed signal file changes the hash.
+ */
 export async function sha256File(path: string): Promise<{ sha256: string; size: number }> {
   const h = createHash('sha256');
   let size = 0;
-  const s = createReadStream(path, { highWaterMark: 1 << 20 });
-  try {
-    for await (const chunk of s) {
-      h.update(chunk as Buffer);
-      size += (chunk as Buffer).length;
+  for (const p of recordingFiles(path)) {
+    const s = createReadStream(p, { highWaterMark: 1 << 20 });
+    try {
+      for await (const chunk of s) {
+        h.update(chunk as Buffer);
+        size += (chunk as Buffer).length;
+      }
+    } finally {
+      s.destroy();
     }
-  } finally {
-    s.destroy();
   }
   return { sha256: h.digest('hex'), size };
 }

@@ -5,9 +5,10 @@
 // manifest is written with the rest still `pending` (finished_at null) and no study table is written: the outcome's
 // `interrupted` says how many are complete, and `--resume` finishes the rest.
 import { createHash } from 'node:crypto';
-import { rmSync, statSync } from 'node:fs';
+import { rmSync } from 'node:fs';
 import { join, resolve } from 'node:path';
 import { writeFileAtomic } from '../node/atomic-write';
+import { recordingSize } from '../node/wfdb-files';
 import { VERSION } from '../version';
 import { expandInputs, recordingIdBelowInput, type BatchInput } from './expand-inputs';
 import { settingsForRecording, unmatchedPatternWarnings, unusedGasWarnings, type SettingsPlan } from './file-settings';
@@ -77,13 +78,13 @@ export async function runBatch(o: BatchOptions): Promise<BatchOutcome> {
   const cwd = o.cwd ?? process.cwd();
   const outDir = resolve(cwd, o.outDir);
   const { inputs: all, warnings: inputWarnings } = expandInputs(o.inputs, cwd, outDir);
-  if (!all.length) throw new BatchUsageError(`no recordings found in ${o.inputs.join(' ')}: give files, folders (searched for .csv, .tsv, .txt) or quoted globs such as 'data/**/*.csv'`);
+  if (!all.length) throw new BatchUsageError(`no recordings found in ${o.inputs.join(' ')}: give files, folders (searched for .csv, .tsv, .txt, .edf, .bdf, .hea) or quoted globs such as 'data/**/*.csv'`);
   const warnings = [...inputWarnings, ...unmatchedPatternWarnings(o.plan, all), ...unusedGasWarnings(o.plan)];
   for (const w of warnings) o.onWarning?.(w);
   const picked = pickRecordings(all, o.shard);
   const done = resumableResults(o.resume, outDir);
   // sizes (bytes), read cheaply before hashing: for the progress bar and the choice of lanes
-  const sizes = picked.map(({ input }) => fileSize(input.path));
+  const sizes = picked.map(({ input }) => recordingSize(input.path));
   const { entries, tasks } = planRecordings(o.plan, picked, sizes, done, outDir, o.report === true);
   const manifest = newManifest(o, all, warnings, entries, started);
   const writeManifest = () => {
@@ -143,15 +144,6 @@ function resumableResults(resume: boolean, outDir: string): Map<string, Manifest
   const done = new Map<string, ManifestEntry>();
   if (previous && previous.version === VERSION) for (const e of previous.inputs) if (e.status === 'ok' && e.sha256) done.set(e.recording, e);
   return done;
-}
-
-/** Size of a file in bytes, or 0 when it cannot be read (here only for the progress bar and the choice of lanes). */
-function fileSize(path: string): number {
-  try {
-    return statSync(path).size;
-  } catch {
-    return 0;
-  }
 }
 
 /** The manifest entry and the task of each picked recording, in order (entry k belongs to task k). */

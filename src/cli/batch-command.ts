@@ -99,7 +99,7 @@ export function registerBatch(program: Command): void {
   const cmd = program
     .command('batch')
     .description('analyse many recordings (files, folders, globs) into one breaths table, one recordings table and a manifest')
-    .argument('<inputs...>', 'recording files, folders (searched for .csv, .tsv, .txt, .edf, .bdf) or quoted globs like "data/**/*.csv"')
+    .argument('<inputs...>', 'recording files, folders (searched for .csv, .tsv, .txt, .edf, .bdf, .hea) or quoted globs like "data/**/*.csv"')
     // not requiredOption: Commander would then demand it of `batch merge` too (it checks ancestors' options)
     .option('--out <dir>', 'output folder (required)')
     .option('--jobs <n>', 'threads to use: lanes of an analysis thread and a reader thread when most bytes are in recordings of 4 MB or more, else N - 1 lanes (at least one) that read their own files (default: number of cores)', positiveInt)

@@ -28,6 +28,8 @@ export interface EdfHeader {
   plus: 'C' | 'D' | null;
   /** start date and time as written (dd.mm.yy hh.mm.ss) */
   start: string;
+  /** the local recording identification field (80 characters, trimmed); EDF+ begins it with "Startdate dd-MMM-yyyy" */
+  recording: string;
   header_bytes: number;
   records: number;
   record_s: number;
@@ -86,7 +88,8 @@ export function parseEdfHeader(b: Uint8Array, size: number, file: string): EdfHe
   const record_bytes = last.offset_bytes + last.samples_per_record * bytes_per_sample;
   const records = recordCount(num(b, 236, 8, 'the number of data records', file), size - headerBytes, record_bytes, file);
   const start = `${field(b, 168, 8)} ${field(b, 176, 8)}`;
-  return { format, plus, start, header_bytes: headerBytes, records, record_s, bytes_per_sample, record_bytes, signals };
+  const recording = field(b, 88, 80);
+  return { format, plus, start, recording, header_bytes: headerBytes, records, record_s, bytes_per_sample, record_bytes, signals };
 }
 
 /**

@@ -8,8 +8,11 @@
 //   (src/ingest/row-assembler.ts): a CO2 channel slower than flow is filled by linear interpolation between its
 //   samples exactly as blank CO2 cells of a table are, and a pause between EDF+D records longer than max_silence_s
 //   becomes a gap (one NaN sample), as a pause in a table's time column does.
+// - clock start (report.clock_start): the header's start date and time, plus for EDF+C the first record's
+//   time-keeping onset (its fraction of a second), see edfClockStart.
 import type { IngestSettings } from '../settings';
 import type { SampleBlock } from '../types';
+import { formatClockStamp } from './clock-time';
 import { chooseEdfChannels, type EdfChannels } from './edf-channels';
 import { parseEdfHeader, type EdfHeader, type EdfSignal } from './edf-header';
 import { InputError } from './errors';
@@ -66,7 +69,7 @@ export function readEdfBytes(
 ): { blocks: SampleBlock[]; report: IngestReport } {
   const h = parseEdfHeader(bytes, bytes.length, fileName);
   const { ch, layout } = chooseSignals(h, settings, min_rate_hz, fileName);
-  const { onsets, annotations } = readAnnotations(bytes, h, fileName);
+  const { onsets, annotations, first_keeping_s } = readAnnotations(bytes, h, fileName);
   const rows = new RowAssembler(layout, settings, fileName);
   const blocks: SampleBlock[] = [];
   let line = 0;
@@ -76,6 +79,9 @@ export function readEdfBytes(
   }
   blocks.push(...rows.finish());
   const report = rows.report(bytes.length);
+  const clock = edfClockStart(h, h.plus === 'C' && Number.isFinite(first_keeping_s) ? first_keeping_s : 0);
+  if (clock.start) report.clock_start = clock.start;
+  if (clock.note) report.notes.push(clock.note);
   if (annotations.length) report.annotations = annotations;
   return { blocks, report };
 }
@@ -155,7 +161,8 @@ function edfLayout(h: EdfHeader, ch: EdfChannels, rate: number): TableLayout {
 }
 
 /** TALs of all annotation signals: record onsets (time-keeping TALs) and the annotations. */
-function readAnnotations(b: Uint8Array, h: EdfHeader, file: string): { onsets: number[]; annotations: EdfAnnotation[] } {
+function readAnnotations(b: Uint8Array, h: EdfHeader, file: string): { onsets: number[]; annotations: EdfAnnotation[]; first_keeping_s: number } {
+  let first_keeping_s = NaN;
   const onsets: number[] = [];
   const annotations: EdfAnnotation[] = [];
   const annot = h.signals.map((s, k) => (s.annotations ? k : -1)).filter((k) => k >= 0);
@@ -171,6 +178,7 @@ function readAnnotations(b: Uint8Array, h: EdfHeader, file: string): { onsets: n
         else for (const text of tal.texts) annotations.push({ onset_s: tal.onset_s, duration_s: tal.duration_s, text });
       }
     }
+    if (r === 0) first_keeping_s = keeping;
     if (h.plus === 'D') {
       if (Number.isNaN(keeping)) throw new InputError('edf_bad_header', `EDF+D data record ${r + 1} has no time-keeping annotation (its onset)`, 'Check that the file is a complete EDF+ recording.', { file });
       onset = keeping;
@@ -180,7 +188,41 @@ function readAnnotations(b: Uint8Array, h: EdfHeader, file: string): { onsets: n
     }
     onsets.push(onset);
   }
-  return { onsets, annotations };
+  return { onsets, annotations, first_keeping_s };
+}
+
+const MONTHS = ['JAN', 'FEB', 'MAR', 'APR', 'MAY', 'JUN', 'JUL', 'AUG', 'SEP', 'OCT', 'NOV', 'DEC'];
+
+/**
+ * The clock time of t = 0 from the header's start date dd.mm.yy and start time hh.mm.ss (Kemp et al. 1992), as a
+ * 'date_time' (the wall-clock time as written, no zone). Years: 1985 is the clipping date, yy 85-99 are 1985-1999 and
+ * 00-84 are 2000-2084; after 2084 the start date field holds 'yy' and an EDF+ recording field's "Startdate
+ * dd-MMM-yyyy" gives the date (Kemp & Olivan 2003), whose four-digit year is also used when it agrees with yy.
+ * `subsecond_s`: for EDF+C the onset of the first data record's time-keeping annotation, the start's fraction of a
+ * second (Kemp & Olivan 2003); the time axis begins at the first record. An unreadable date gives a note instead.
+ * @example edfClockStart({ start: '02.01.26 03.04.05', recording: '', plus: null }, 0).start?.text // => '2026-01-02T03:04:05.000'
+ */
+export function edfClockStart(h: Pick<EdfHeader, 'start' | 'recording' | 'plus'>, subsecond_s: number): { start?: NonNullable<IngestReport['clock_start']>; note?: string } {
+  const [dateText = '', timeText = ''] = h.start.split(' ');
+  const full = /^Startdate (\d{2})-([A-Z]{3})-(\d{4})\b/.exec(h.recording);
+  const fullDate = full && MONTHS.includes(full[2]!) ? { d: Number(full[1]), m: MONTHS.indexOf(full[2]!) + 1, y: Number(full[3]) } : null;
+  const dm = /^(\d{2})\.(\d{2})\.(\d{2}|yy)$/.exec(dateText);
+  const tm = /^(\d{2})\.(\d{2})\.(\d{2})$/.exec(timeText);
+  let date: { d: number; m: number; y: number } | null = null;
+  if (dm && dm[3] === 'yy') date = fullDate;
+  else if (dm) {
+    const yy = Number(dm[3]);
+    const y = fullDate && fullDate.y % 100 === yy ? fullDate.y : yy >= 85 ? 1900 + yy : 2000 + yy;
+    date = { d: Number(dm[1]), m: Number(dm[2]), y };
+  }
+  const day = date && date.m >= 1 && date.m <= 12 && date.d >= 1 ? Date.UTC(date.y, date.m - 1, date.d) : NaN;
+  const valid = Number.isFinite(day) && new Date(day).getUTCDate() === date!.d;
+  const [hh, mi, ss] = tm ? [Number(tm[1]), Number(tm[2]), Number(tm[3])] : [NaN, NaN, NaN];
+  if (!valid || !(hh <= 23 && mi <= 59 && ss <= 59)) {
+    return { note: `start date and time "${h.start}" are not a valid dd.mm.yy hh.mm.ss: the recording has no clock start` };
+  }
+  const seconds = day / 1000 + hh * 3600 + mi * 60 + ss + subsecond_s;
+  return { start: { kind: 'date_time', seconds, text: formatClockStamp('date_time', seconds) } };
 }
 
 interface Tal { onset_s: number; duration_s: number | null; texts: string[] }

@@ -26,6 +26,7 @@ export const INPUT_ERROR_CODES = [
   'wfdb_truncated',
   'wfdb_unsupported',
   'wfdb_missing_signal_file',
+  'wfdb_signal_file',
 ] as const;
 
 export type InputErrorCode = (typeof INPUT_ERROR_CODES)[number];

@@ -172,7 +172,7 @@ export function parseWfdbDate(text: string): number | null {
 function parseSignalLine(l: Line, k: number, record: string, file: string): WfdbSignal {
   const f = l.fields;
   const field = (i: number) => f[i]?.text;
-  const where = `signal ${k + 1} (line ${l.no})`;
+  const where = `signal ${k + 1}`;
   const intField = (i: number, name: string, dflt: number): number => {
     const t = field(i);
     if (t === undefined) return dflt;

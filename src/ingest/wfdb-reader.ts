@@ -137,11 +137,16 @@ export function wfdbPhysical(dig: number, s: Pick<WfdbSignal, 'gain' | 'baseline
 /** A signal file name without a folder part (the files are looked up beside the header). */
 function checkFileName(s: WfdbSignal, file: string): void {
   if (/[/\\]/.test(s.file)) {
-    throw new InputError('wfdb_unsupported', `signal file "${s.file}" (header line ${s.line}) is named with a folder`, 'Put the signal files beside the header and name them without a folder in the .hea file.', { file, line: s.line });
+    throw new InputError('wfdb_unsupported', `signal file "${s.file}" is named with a folder`, 'Put the signal files beside the header and name them without a folder in the .hea file.', { file, line: s.line });
   }
 }
 
-/** The signal file names the header refers to, in first-use order (no duplicates; null signals '~' have none). */
+/**
+ * The signal file names the header refers to, in first-use order (no duplicates; null signals '~' have none), so
+ * Node or the browser can fetch them. Throws InputError 'wfdb_bad_header' / 'wfdb_unsupported' for a header that
+ * cannot be read (as readWfdbRecord would), or names a signal file with a folder.
+ * @example wfdbSignalFileNames(new TextEncoder().encode('r 2 100\nr.dat 16\nr.dat 16\n'), 'r.hea') // => ['r.dat']
+ */
 export function wfdbSignalFileNames(headerBytes: Uint8Array, headerName: string): string[] {
   const h = parseWfdbHeader(headerBytes, headerName);
   const out: string[] = [];
@@ -174,13 +179,13 @@ function placeSignal(h: WfdbHeader, index: number, files: ReadonlyMap<string, Ui
     const what = UNREAD_FORMATS[s.format];
     throw new InputError(
       'wfdb_unsupported',
-      `signal "${s.description}" (header line ${s.line}) is stored in WFDB format ${s.format}${what ? ` (${what})` : ''}, which phasewise does not read (it reads formats 16, 24, 32, 61, 80, 160 and 212)`,
+      `signal "${s.description}" is stored in WFDB format ${s.format}${what ? ` (${what})` : ''}, which phasewise does not read (it reads formats 16, 24, 32, 61, 80, 160 and 212)`,
       'Convert the record to format 16 with the WFDB tools, then analyse it again.',
       { file, line: s.line },
     );
   }
   if (s.skew !== 0) {
-    throw new InputError('wfdb_unsupported', `signal "${s.description}" (header line ${s.line}) has a skew of ${s.skew} samples, which phasewise does not apply`, 'Write the record without skew (shift the signal in the file), then analyse it again.', { file, line: s.line });
+    throw new InputError('wfdb_unsupported', `signal "${s.description}" has a skew of ${s.skew} samples, which phasewise does not apply`, 'Write the record without skew (shift the signal in the file), then analyse it again.', { file, line: s.line });
   }
   checkFileName(s, file);
   const bytes = files.get(s.file);

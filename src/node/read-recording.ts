@@ -1,5 +1,6 @@
 // readRecordingFile: streams a recording file from disk through the ingest reader, block by block.
-// EDF/BDF files (.edf, .bdf) are read whole and decoded by src/ingest/edf-reader.ts.
+// EDF/BDF files (.edf, .bdf) are read whole and decoded by src/ingest/edf-reader.ts; a WFDB record (.hea) is read
+// whole with the signal files its header names (from the header's folder), decoded by src/ingest/wfdb-reader.ts.
 // Memory stays flat: 1 MiB byte chunks, the carried partial line and the current block of samples.
 // Checks here: the file exists, is a file and is not empty; the text checks (encoding, binary content, damage) are
 // the shared byte reader's (src/ingest/bytes.ts), the same as the viewer's.
@@ -10,15 +11,18 @@ import { CHUNK_BYTES, readRecordingBytes } from '../ingest/bytes';
 import { isEdfName, readEdfBytes } from '../ingest/edf-reader';
 import { InputError } from '../ingest/errors';
 import type { IngestReport } from '../ingest/report';
+import { isWfdbName, readWfdbRecord } from '../ingest/wfdb-reader';
 import type { IngestSettings } from '../settings';
 import type { SampleBlock } from '../types';
+import { owningWfdbHeader, readWfdbFiles } from './wfdb-files';
 
 export { CHUNK_BYTES, firstInvalidUtf8 } from '../ingest/bytes';
 
 /**
  * Read a recording file. Calls `onBlock` for each block of samples (about 64k samples, internal units) as soon as
  * it is complete, and resolves to the ingest report. Rejects with an InputError for unusable input.
- * `onChunk` sees every byte chunk of the file in order (e.g. for a content hash) when the read succeeds.
+ * `onChunk` sees every byte chunk of the file in order (e.g. for a content hash) when the read succeeds; for a WFDB
+ * record, the header's bytes and then each signal file's, in the header's order.
  */
 export async function readRecordingFile(
   path: string, settings: IngestSettings, min_rate_hz: number, onBlock: (b: SampleBlock) => void,
@@ -26,6 +30,11 @@ export async function readRecordingFile(
 ): Promise<IngestReport> {
   const size = await checkFile(path);
   if (isEdfName(path)) return readEdfFile(path, settings, min_rate_hz, onBlock, onChunk);
+  if (isWfdbName(path)) return readWfdbFile(path, settings, min_rate_hz, onBlock, onChunk);
+  const owner = owningWfdbHeader(path);
+  if (owner) {
+    throw new InputError('wfdb_signal_file', `this is a signal file of the WFDB record ${owner}, not a recording of its own`, `Give the record's header (${owner}) instead.`, { file: path });
+  }
   const stream = createReadStream(path, { highWaterMark: CHUNK_BYTES });
   try {
     return await readRecordingBytes(
@@ -60,6 +69,21 @@ async function readEdfFile(
   const { blocks, report } = readEdfBytes(new Uint8Array(bytes.buffer, bytes.byteOffset, bytes.length), settings, min_rate_hz, path);
   for (const b of blocks) onBlock(b);
   if (onChunk) onChunk(bytes);
+  return report;
+}
+
+/** A WFDB record (chosen by its extension, .hea): the header and its signal files, decoded by the core's WFDB reader. */
+async function readWfdbFile(
+  path: string, settings: IngestSettings, min_rate_hz: number, onBlock: (b: SampleBlock) => void,
+  onChunk?: (bytes: Uint8Array) => void,
+): Promise<IngestReport> {
+  const { header, signals } = await readWfdbFiles(path);
+  const { blocks, report } = readWfdbRecord(header, signals, settings, min_rate_hz, path);
+  for (const b of blocks) onBlock(b);
+  if (onChunk) {
+    onChunk(header);
+    for (const bytes of signals.values()) onChunk(bytes);
+  }
   return report;
 }
 

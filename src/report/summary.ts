@@ -372,8 +372,9 @@ function readingLine(inp: InputSummary): string {
   if (!cols || !units) return '';
   const delim = inp.delimiter === '\t' ? 'tab' : inp.delimiter === ';' ? 'semicolon' : inp.delimiter === ',' ? 'comma' : String(inp.delimiter);
   const rate = typeof inp.rate_hz === 'number' && Number.isFinite(inp.rate_hz) ? `, ${fmt(inp.rate_hz, 0)} Hz` : '';
-  // EDF/BDF input (src/ingest/edf-reader.ts) has signals, not delimited columns
-  if (inp.delimiter === '') return `read: EDF/BDF signals, flow ${withUnit(cols.flow, units.flow)}, CO2 ${withUnit(cols.co2, units.co2)}${rate} (details: summary.json input.notes)`;
+  // EDF/BDF (src/ingest/edf-reader.ts) and WFDB input (src/ingest/wfdb-reader.ts, a .hea header) have signals, not delimited columns
+  const signals = /\.hea$/i.test(String(inp.file)) ? 'WFDB' : 'EDF/BDF';
+  if (inp.delimiter === '') return `read: ${signals} signals, flow ${withUnit(cols.flow, units.flow)}, CO2 ${withUnit(cols.co2, units.co2)}${rate} (details: summary.json input.notes)`;
   return (
     `read: ${delim}-separated, decimal '${String(inp.decimal)}', time ${withUnit(cols.time ?? '(from --rate)', units.time)}, ` +
     `flow ${withUnit(cols.flow, units.flow)}, CO2 ${withUnit(cols.co2, units.co2)}${rate} (details: summary.json input.notes)`
