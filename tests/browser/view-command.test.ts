@@ -1,7 +1,7 @@
 // `phasewise view` in headless Chromium (Debian's /usr/bin/chromium via playwright-core): the packaged viewer
 // (dist/web, built by `node scripts/build.mjs --package`, which npm test runs first) served by the CLI opens the
 // recording named on the command line at once (a text table, an EDF+ file with its annotations, a WFDB header with
-// its signal file), and (started without one) its start screen offers the bundled samples; a sample opened from
+// its signal files), and (started without one) its start screen offers the bundled samples; a sample opened from
 // there analyses to the CLI's breath count and median airway dead space. No request leaves the page's own origin and no CSP violation occurs.
 // Without /usr/bin/chromium the tests are skipped with a message (tests/browser/viewer.test.ts fails under CI=true).
 import { spawnSync } from 'node:child_process';
@@ -11,12 +11,13 @@ import { join } from 'node:path';
 import type { Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { haveChromium, launchBrowser, ROOT, startServer, type Browser, type Viewer } from './harness';
-import { writeWfdbRecord } from './wfdb-record';
 
 const OPENED = 'child-sidestream.csv';
 const PICKED = 'adult-healthy.csv';
 /** an EDF+ recording (tests/fixtures/edf, written by EDFlib) named on the command line */
 const EDF = join(ROOT, 'tests', 'fixtures', 'edf', 'c100.edf');
+/** a WFDB header (tests/fixtures/wfdb) whose two signal files are beside it */
+const WFDB = join(ROOT, 'tests', 'fixtures', 'wfdb', 'f212.hea');
 
 function cliSummary(dir: string, sample: string, path = join(ROOT, 'sample-waveforms', sample)): { breaths: { found: number }; metrics: { vd_aw_ml: { median: number } } } {
   const out = join(dir, sample);
@@ -55,7 +56,7 @@ describe.skipIf(!haveChromium())('phasewise view in headless Chromium', () => {
     viewer = await startServer([join(ROOT, 'bin', 'phasewise.cjs'), 'view', join(ROOT, 'sample-waveforms', OPENED), '--port', '0']);
     plain = await startServer([join(ROOT, 'bin', 'phasewise.cjs'), 'view', '--port', '0']);
     edf = await startServer([join(ROOT, 'bin', 'phasewise.cjs'), 'view', EDF, '--port', '0']);
-    wfdb = await startServer([join(ROOT, 'bin', 'phasewise.cjs'), 'view', join(writeWfdbRecord(tmp), 'rec.hea'), '--port', '0']);
+    wfdb = await startServer([join(ROOT, 'bin', 'phasewise.cjs'), 'view', WFDB, '--port', '0']);
     browser = await launchBrowser();
     page = browser.page;
     await page.addInitScript(() => {
@@ -105,10 +106,10 @@ describe.skipIf(!haveChromium())('phasewise view in headless Chromium', () => {
     expect(await page.locator('#annotations button.annotation').allTextContents()).toEqual(['2.5 s · suction (1 s)', '42.5 s · PEEP 8']);
   });
 
-  it('opens a WFDB header given on the command line with the signal file it names: the CLI numbers of the same samples as CSV', async () => {
+  it('opens a WFDB header given on the command line with the signal files it names: the CLI numbers', async () => {
     await page.goto(wfdb!.url);
-    await page.waitForFunction(() => (document.getElementById('file-name')?.textContent ?? '').includes('rec.hea + rec.dat'), undefined, { timeout: 30_000 });
-    await analyseAndCheck(page, cliSummary(tmp, 'sim.csv', join(ROOT, 'tests', 'fixtures', 'edf', 'sim.csv')));
+    await page.waitForFunction(() => (document.getElementById('file-name')?.textContent ?? '').includes('f212.hea + f212_flow.dat + f212_co2.dat'), undefined, { timeout: 30_000 });
+    await analyseAndCheck(page, cliSummary(tmp, 'f212.hea', WFDB));
   });
 
   it('makes no request outside its own origin and no CSP violation', async () => {

@@ -5,8 +5,9 @@
 // lists the annotations in both); the file's annotations are drawn as markers on the overview (as many as
 // summary.json lists) and listed, and choosing one moves the view to it (by click and by keyboard); a signal chosen
 // by label in the mapping step gives the CLI's `--co2-col LABEL` output; a file whose CO2 signal is missing shows the
-// CLI's one-line message. A WFDB record (a .hea header and its .dat signal file, chosen together) gives the breaths the
-// CLI finds in the same samples as CSV; the header chosen alone names the missing signal file.
+// CLI's one-line message. WFDB records (tests/fixtures/wfdb: format 16, format 212 over two signal files, and
+// multi-frequency 212), their .hea header and signal files chosen together, give the CLI's outputs byte for byte; a
+// header chosen without one of its signal files names it; dropped together they open.
 //
 // Without /usr/bin/chromium the tests are skipped with a message (tests/browser/viewer.test.ts fails under CI=true).
 
@@ -19,9 +20,15 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { CAUTION } from '../../src/report/caution';
 import { formatNumber } from '../../src/report/format';
 import { haveChromium, launchBrowser, ROOT, startViewer, type Browser, type Viewer } from './harness';
-import { writeWfdbRecord } from './wfdb-record';
 
 const FIXTURES = join(ROOT, 'tests', 'fixtures', 'edf');
+/** WFDB fixtures (tests/fixtures/wfdb, written by their own script from the format's description): header, signal files */
+const WFDB = join(ROOT, 'tests', 'fixtures', 'wfdb');
+const WFDB_RECORDS: [string, string[]][] = [
+  ['f16.hea', ['f16.dat']],
+  ['f212.hea', ['f212_flow.dat', 'f212_co2.dat']],
+  ['mf212.hea', ['mf212.dat']],
+];
 const CLI = join(ROOT, 'bin', 'phasewise.cjs');
 
 interface CliRun {
@@ -59,6 +66,7 @@ describe.skipIf(!haveChromium())('viewer: EDF+ and BDF+ recordings in headless C
     const build = spawnSync(process.execPath, ['scripts/build.mjs'], { cwd: ROOT, encoding: 'utf8' });
     if (build.status !== 0) throw new Error(`build failed:\n${build.stderr}`);
     for (const name of ['c100.edf', 'd100.edf', 'b50.bdf']) copyFileSync(join(FIXTURES, name), join(tmp, name));
+    for (const name of WFDB_RECORDS.flat(2)) copyFileSync(join(WFDB, name), join(tmp, name));
     viewer = await startViewer(join(tmp, 'web'));
     browser = await launchBrowser();
     page = browser.page;
@@ -176,50 +184,48 @@ describe.skipIf(!haveChromium())('viewer: EDF+ and BDF+ recordings in headless C
     expect(await page.isVisible('#caution')).toBe(true);
   });
 
-  it('a WFDB record chosen with its signal file: the breaths of the same samples as CSV, by the CLI', async () => {
-    const dir = writeWfdbRecord(tmp);
-    const run = cli(['analyse', join(FIXTURES, 'sim.csv'), '--out', 'ref-sim', '--quiet'], tmp);
-    expect(run.status, run.stderr).toBe(0);
-    const ref = JSON.parse(readFileSync(join(tmp, 'ref-sim', 'summary.json'), 'utf8'));
-    await page.setInputFiles('#file-input', [join(dir, 'rec.hea'), join(dir, 'rec.dat')]);
-    expect(await waitState(page, ['mapped', 'sniff-error'])).toBe('mapped');
-    expect(await page.textContent('#file-name')).toContain('rec.hea + rec.dat');
-    expect(await page.textContent('#map-preview th[data-role="flow"]')).toBe('Flow');
-    expect(await page.textContent('#map-preview th[data-role="co2"]')).toBe('CO2');
-    await page.click('#analyse-button');
-    expect(await waitState(page, ['done', 'error'])).toBe('done');
-    expect(Number(await page.textContent('#sum-found'))).toBe(ref.breaths.found);
-    expect(await page.locator('tr[data-metric="vd_aw_ml"] td.median').getAttribute('data-value')).toBe(formatNumber(ref.metrics.vd_aw_ml.median));
-    expect(await downloadText(page, '#export-breaths')).toBe(readFileSync(join(tmp, 'ref-sim', 'breaths.csv'), 'utf8'));
-    // the checksums written with the record match what the reader summed
-    const notes = JSON.parse(await downloadText(page, '#export-summary')).input.notes as string[];
-    expect(notes.filter((n) => /^(flow|CO2) signal "(Flow|CO2)": checksum -?\d+ matches$/.test(n)).length).toBe(2);
-    expect(notes.join('\n')).not.toContain('checksum mismatch');
-    // a WFDB record has no annotations here: no list, no marker
-    expect(await page.isHidden('#annotations')).toBe(true);
-    expect(await page.isVisible('#caution')).toBe(true);
-  });
+  for (const [header, signalFiles] of WFDB_RECORDS) {
+    it(`WFDB ${header} chosen with ${signalFiles.join(' and ')}: the CLI's summary.json, breaths.csv and report.html`, async () => {
+      const run = cli(['analyse', header, '--out', `ref-${header}`, '--quiet', '--report'], tmp);
+      expect(run.status, run.stderr).toBe(0);
+      const ref = (name: string) => readFileSync(join(tmp, `ref-${header}`, name), 'utf8');
+      await page.setInputFiles('#file-input', [header, ...signalFiles].map((n) => join(tmp, n)));
+      expect(await waitState(page, ['mapped', 'sniff-error'])).toBe('mapped');
+      expect(await page.textContent('#file-name')).toContain([header, ...signalFiles].join(' + '));
+      expect(await page.locator('#map-preview th[data-role="flow"]').count()).toBe(1);
+      expect(await page.locator('#map-preview th[data-role="co2"]').textContent()).toBe('CO2');
+      await page.click('#analyse-button');
+      expect(await waitState(page, ['done', 'error'])).toBe('done');
+      expect(Number(await page.textContent('#sum-found'))).toBe(JSON.parse(ref('summary.json')).breaths.found);
+      expect(await downloadText(page, '#export-summary')).toBe(ref('summary.json'));
+      expect(await downloadText(page, '#export-breaths')).toBe(ref('breaths.csv'));
+      expect(await downloadText(page, '#export-report')).toBe(ref('report.html'));
+      // a WFDB record has no annotations: no list, no marker
+      expect(await page.isHidden('#annotations')).toBe(true);
+      expect(await page.isVisible('#caution')).toBe(true);
+    });
+  }
 
-  it('a WFDB header chosen without its signal file: the one-line message names the missing file; dropped together they open', async () => {
-    const dir = writeWfdbRecord(tmp);
-    await page.setInputFiles('#file-input', join(dir, 'rec.hea'));
+  it('a WFDB header chosen without one of its signal files: the one-line message names it; dropped together they open', async () => {
+    await page.setInputFiles('#file-input', [join(tmp, 'f212.hea'), join(tmp, 'f212_flow.dat')]);
     expect(await waitState(page, ['mapped', 'sniff-error'])).toBe('sniff-error');
     const message = (await page.textContent('#map-error'))!;
-    expect(message).toBe('rec.hea: the signal file "rec.dat" named by the header is not among the files given (none). Choose the .hea file together with its signal files.');
+    expect(message).toBe('f212.hea: the signal file "f212_co2.dat" named by the header is not among the files given ("f212_flow.dat"). Choose the .hea file together with its signal files.');
+    expect(message).not.toContain('\n');
     expect(await page.isDisabled('#analyse-button')).toBe(true);
-    // dropped together, the two files open as one record
-    const files = ['rec.hea', 'rec.dat'].map((n) => ({ name: n, bytes: [...readFileSync(join(dir, n))] }));
+    // dropped together, the files open as one record
+    const files = ['f212.hea', 'f212_flow.dat', 'f212_co2.dat'].map((n) => ({ name: n, bytes: [...readFileSync(join(tmp, n))] }));
     await page.evaluate((fs) => {
       const dt = new DataTransfer();
       for (const f of fs) dt.items.add(new File([new Uint8Array(f.bytes)], f.name));
       document.documentElement.dispatchEvent(new DragEvent('drop', { dataTransfer: dt, bubbles: true, cancelable: true }));
     }, files);
     expect(await waitState(page, ['mapped', 'sniff-error'])).toBe('mapped');
-    expect(await page.textContent('#file-name')).toContain('rec.hea + rec.dat');
-    // the signal file alone is read as a text table, which it is not: the message says to choose it with its header
-    await page.setInputFiles('#file-input', join(dir, 'rec.dat'));
+    expect(await page.textContent('#file-name')).toContain('f212.hea + f212_flow.dat + f212_co2.dat');
+    // a signal file alone is read as a text table, which it is not: the message says to choose it with its header
+    await page.setInputFiles('#file-input', join(tmp, 'f16.dat'));
     expect(await waitState(page, ['mapped', 'sniff-error'])).toBe('sniff-error');
-    expect(await page.textContent('#map-error')).toMatch(/^rec\.dat.*; if it is a WFDB signal file, choose it together with its \.hea header\.$/);
+    expect(await page.textContent('#map-error')).toMatch(/^f16\.dat.*; if it is a WFDB signal file, choose it together with its \.hea header\.$/);
   });
 
   it('two recordings chosen at once: one line asking for one recording at a time', async () => {
