@@ -27,6 +27,8 @@ export const state = {
   screen: 'open' as Screen,
   backTo: 'open' as Screen,
   file: null as File | null,
+  /** the signal files chosen together with a WFDB header (empty for other recordings) */
+  companions: [] as File[],
   /** the settings being edited (used by the next analysis) */
   settings: defaultSettings(),
   preview: null as Preview | null,

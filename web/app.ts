@@ -11,6 +11,7 @@ import { startHeartbeat, type HeartbeatStats } from './heartbeat';
 import { startLaunch } from './launch';
 import { bindReviewKeys } from './keys';
 import { renderMappingFields, renderPreview } from './mapping-step';
+import { isSignalsName, isWfdbName } from './read-file';
 import { breathPng } from './png';
 import type { Done, FromWorker } from './protocol';
 import {
@@ -32,30 +33,50 @@ let analyseStarted = 0;
 
 // ---------------------------------------------------------------- opening a file and the mapping step
 
-function openFile(file: File): void {
+/** Opens a recording: one file, or a WFDB header with the signal files chosen together with it (`companions`). */
+function openFile(file: File, companions: File[] = []): void {
   worker.restart();
   clearError();
   state.file = file;
+  state.companions = companions;
   state.preview = null;
   state.gasParsed = null;
   state.gasInput = null;
   byId('gas').replaceChildren();
-  byId('file-name').textContent = `${file.name} · ${(file.size / 1e6).toFixed(1)} MB`;
+  const bytes = [file, ...companions].reduce((n, f) => n + f.size, 0);
+  byId('file-name').textContent = `${[file, ...companions].map((f) => f.name).join(' + ')} · ${(bytes / 1e6).toFixed(1)} MB`;
   setBodyState('sniffing');
   show('map');
   renderMapping();
-  worker.send({ type: 'sniff', file, settings: state.settings });
+  worker.send({ type: 'sniff', file, companions, settings: state.settings });
+}
+
+/**
+ * Files chosen or dropped together: one recording, or one WFDB record (its .hea header and its signal files; the
+ * header says which files it needs, and the reader names any that is missing).
+ */
+function openFiles(files: readonly File[]): void {
+  const headers = files.filter((f) => isWfdbName(f.name));
+  if (headers.length === 1) openFile(headers[0]!, files.filter((f) => f !== headers[0]));
+  else if (headers.length > 1) fail(`${headers.length} WFDB headers (.hea) were chosen: open one record at a time, its .hea file together with its signal files.`);
+  else if (files.length === 1) openFile(files[0]!);
+  else if (files.length > 1) fail(`${files.length} files were chosen: open one recording at a time (several files only for a WFDB record: its .hea file together with its signal files).`);
 }
 
 function renderMapping(): void {
+  const signals = Boolean(state.file && isSignalsName(state.file.name));
+  byId('map-title').textContent = signals ? 'Signals and units' : 'Columns and units';
+  byId('map-hint').textContent = signals
+    ? 'Detected from the signal headers of the recording (labels and physical units). Change a choice if it is wrong; “auto” keeps the detection.'
+    : 'Detected from the first rows of the file. Change a choice if it is wrong; “auto” keeps the detection.';
   renderMappingFields(byId('map-fields'), () => state.settings, state.preview, (key, value) => {
     state.settings = withSetting(state.settings, 'ingest', key, value);
     renderSettingsForm();
     if (state.file) {
       setBodyState('sniffing');
-      worker.send({ type: 'sniff', file: state.file, settings: state.settings });
+      worker.send({ type: 'sniff', file: state.file, companions: state.companions, settings: state.settings });
     }
-  });
+  }, signals);
   renderPreview(byId<HTMLTableElement>('map-preview'), byId('map-notes'), state.preview);
 }
 
@@ -76,7 +97,7 @@ function analyse(): void {
   byId('progress-text').textContent = 'reading…';
   analyseStarted = performance.now();
   stopHeartbeat = startHeartbeat();
-  worker.send({ type: 'analyse', file: state.file, settings: state.settings, given: [...state.analysed.given] });
+  worker.send({ type: 'analyse', file: state.file, companions: state.companions, settings: state.settings, given: [...state.analysed.given] });
 }
 
 // ---------------------------------------------------------------- worker messages
@@ -246,11 +267,15 @@ function exportPng(): void {
 // ---------------------------------------------------------------- wiring
 
 function onFileInput(id: string, use: (f: File) => void): void {
+  onFilesInput(id, (files) => use(files[0]!));
+}
+
+function onFilesInput(id: string, use: (files: File[]) => void): void {
   byId<HTMLInputElement>(id).addEventListener('change', (e) => {
     const input = e.target as HTMLInputElement;
-    const f = input.files?.[0];
+    const files = Array.from(input.files ?? []);
     input.value = '';
-    if (f) use(f);
+    if (files.length) use(files);
   });
 }
 
@@ -266,6 +291,10 @@ function wire(): void {
     get load() {
       return state.load;
     },
+    /** the overview's visible time range, s */
+    get range() {
+      return overviewChart()?.range ?? null;
+    },
   };
   worker = createWorkerClient(onWorker, fail);
   byId('caution').textContent = CAUTION;
@@ -276,7 +305,7 @@ function wire(): void {
     if (s === 'review') requestAnimationFrame(resizeCharts);
   });
 
-  onFileInput('file-input', openFile);
+  onFilesInput('file-input', openFiles);
   const root = document.documentElement;
   root.addEventListener('dragover', (e) => {
     e.preventDefault();
@@ -286,14 +315,13 @@ function wire(): void {
   root.addEventListener('drop', (e) => {
     e.preventDefault();
     byId('drop-zone').classList.remove('over');
-    const f = e.dataTransfer?.files?.[0];
-    if (f) openFile(f);
+    openFiles(Array.from(e.dataTransfer?.files ?? []));
   });
   byId('analyse-button').addEventListener('click', analyse);
   wireSettingsScreen(renderMapping, () => {
     if (!state.file) return;
     if (state.preview) analyse();
-    else openFile(state.file);
+    else openFile(state.file, state.companions);
   });
 
   byId('tabs').querySelectorAll<HTMLButtonElement>('button').forEach((b) => {
@@ -361,7 +389,7 @@ function wire(): void {
 export function start(): void {
   wire();
   setBodyState('idle');
-  void startLaunch(openFile, (e) => fail(String((e as Error)?.message ?? e)));
+  void startLaunch(openFiles, (e) => fail(String((e as Error)?.message ?? e)));
 }
 
 /** The gas options typed in the sidebar: patient values and the blood-gas constants (empty fields are left to the

@@ -6,7 +6,8 @@ import { byId, h } from './dom';
 
 interface Launch {
   samples: { name: string; url: string; bytes: number; description: string }[];
-  open: { name: string; url: string } | null;
+  /** `companions`: a WFDB header's signal files, opened together with it */
+  open: { name: string; url: string; companions?: { name: string; url: string }[] } | null;
 }
 
 /** A recording served by the viewer's own server, as a File (the same path as a file the user picked). */
@@ -17,7 +18,7 @@ async function fetchRecording(url: string, name: string): Promise<File> {
 }
 
 /** Offers the samples on the start screen and opens the given recording, when the page was served by `phasewise view`. */
-export async function startLaunch(open: (f: File) => void, fail: (e: unknown) => void): Promise<void> {
+export async function startLaunch(open: (files: File[]) => void, fail: (e: unknown) => void): Promise<void> {
   const marker = document.querySelector<HTMLMetaElement>('meta[name="phasewise-launch"]');
   if (!marker) return;
   try {
@@ -27,11 +28,14 @@ export async function startLaunch(open: (f: File) => void, fail: (e: unknown) =>
     const list = byId('samples');
     for (const s of launch.samples) {
       const button = h('button', { type: 'button', text: s.name, title: s.description });
-      button.addEventListener('click', () => fetchRecording(s.url, s.name).then(open, fail));
+      button.addEventListener('click', () => fetchRecording(s.url, s.name).then((f) => open([f]), fail));
       list.append(h('li', {}, [button, ` ${s.description} (${(s.bytes / 1e6).toFixed(1)} MB)`]));
     }
     byId('samples-box').hidden = launch.samples.length === 0;
-    if (launch.open) open(await fetchRecording(launch.open.url, launch.open.name));
+    if (launch.open) {
+      const files = [launch.open, ...(launch.open.companions ?? [])];
+      open(await Promise.all(files.map((f) => fetchRecording(f.url, f.name))));
+    }
   } catch (e) {
     fail(e);
   }

@@ -2,9 +2,12 @@
 // The worker serves each visible window at pixel resolution (min/max per pixel column when zoomed out), so a
 // 24-hour file pans and zooms as fast as a 3-minute one. Breaths are drawn in the draw hook: a status strip
 // (colour = ok / flagged / excluded by hand) and, when they are wide enough, the breath and expiration boundaries.
+// The file's own annotations (EDF+) are drawn over them as markers: a thin vertical line at the onset, a band over
+// the duration when there is one, and the text beside the line on the flow chart.
 
 import uPlot from 'uplot';
 import type { BreathRow } from '../src/index';
+import type { EdfAnnotation } from '../src/ingest/report';
 import { COLOURS, statusColour } from './palette';
 import type { SignalWindow } from './signal-store';
 
@@ -17,12 +20,16 @@ export interface OverviewOptions {
   selected: () => number;
   onSelect: (index: number) => void;
   fetchWindow: (t0: number, t1: number, columns: number) => Promise<SignalWindow>;
+  /** the recording's own annotations (EDF+), on the samples' time axis */
+  annotations?: readonly EdfAnnotation[];
 }
 
 export interface Overview {
   /** zoom so breath i is in view (keeps the zoom level when it already is) */
   reveal(index: number): void;
   setRange(t0: number, t1: number): void;
+  /** centre the view on time t (s), keeping the zoom level when it is at most `span` s, else zooming to `span` */
+  centre(t: number, span: number): void;
   zoom(factor: number): void;
   pan(fraction: number): void;
   whole(): void;
@@ -131,6 +138,51 @@ export function createOverview(host: HTMLElement, o: OverviewOptions): Overview 
     ctx.restore();
   };
 
+  /** Annotation markers in view; on the flow chart (`labels`) with their text. Sets host[data-annotations-drawn]. */
+  const drawAnnotations = (u: uPlot, labels: boolean) => {
+    const list = o.annotations ?? [];
+    if (!list.length) return;
+    const ctx = u.ctx;
+    const { left, top, width, height } = u.bbox;
+    const x0 = u.scales.x!.min!;
+    const x1 = u.scales.x!.max!;
+    const px = (t: number) => u.valToPos(t, 'x', true);
+    const dpr = devicePixelRatio || 1;
+    let drawn = 0;
+    ctx.save();
+    ctx.beginPath();
+    ctx.rect(left, top, width, height);
+    ctx.clip();
+    ctx.font = `${11 * dpr}px system-ui, sans-serif`;
+    ctx.textBaseline = 'top';
+    for (const a of list) {
+      const end = a.onset_s + (a.duration_s ?? 0);
+      if (end < x0 || a.onset_s > x1) continue;
+      drawn++;
+      const x = Math.round(px(a.onset_s)) + 0.5;
+      if (a.duration_s !== null && a.duration_s > 0) {
+        ctx.fillStyle = COLOURS.annotationBand;
+        ctx.fillRect(px(a.onset_s), top, Math.max(dpr, px(end) - px(a.onset_s)), height);
+      }
+      ctx.strokeStyle = COLOURS.annotation;
+      ctx.lineWidth = dpr;
+      ctx.beginPath();
+      ctx.moveTo(x, top);
+      ctx.lineTo(x, top + height);
+      ctx.stroke();
+      if (labels) {
+        const text = a.text.length > 28 ? `${a.text.slice(0, 27)}…` : a.text;
+        const w = ctx.measureText(text).width;
+        ctx.fillStyle = 'rgba(255, 255, 255, 0.85)';
+        ctx.fillRect(x + 2 * dpr, top + 7 * dpr, w + 4 * dpr, 14 * dpr);
+        ctx.fillStyle = COLOURS.annotation;
+        ctx.fillText(text, x + 4 * dpr, top + 8 * dpr);
+      }
+    }
+    ctx.restore();
+    if (labels) host.dataset.annotationsDrawn = String(drawn);
+  };
+
   const axisX = (showLabels: boolean): uPlot.Axis => ({
     stroke: COLOURS.axis,
     grid: { stroke: COLOURS.grid },
@@ -154,7 +206,7 @@ export function createOverview(host: HTMLElement, o: OverviewOptions): Overview 
     axes: [axisX(showX), { stroke: COLOURS.axis, grid: { stroke: COLOURS.grid }, label: `${title} (${unit})`, labelSize: 18, size: 52 }],
     series: [{}, { label: title, stroke: colour, width: 1.2, spanGaps: false, points: { show: false } }],
     hooks: {
-      draw: [drawBreaths],
+      draw: [drawBreaths, (u) => drawAnnotations(u, title === 'flow')],
       setScale: [
         (u, key) => {
           if (key !== 'x' || syncing) return;
@@ -276,6 +328,11 @@ export function createOverview(host: HTMLElement, o: OverviewOptions): Overview 
       apply(mid - span / 2, mid + span / 2);
     },
     setRange: apply,
+    centre(t, span) {
+      const [a, b] = range;
+      const s = b - a <= span ? b - a : Math.min(full, span);
+      apply(t - s / 2, t + s / 2);
+    },
     zoom(f) {
       const [a, b] = range;
       const m = (a + b) / 2;

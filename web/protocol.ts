@@ -6,29 +6,46 @@ import type { PackedRows } from './row-columns';
 import type { SignalWindow } from './signal-store';
 
 /** To the reader worker (read-worker.ts), from the analysis worker. */
-export type ReaderIn = { type: 'read'; file: File; settings: Settings } | { type: 'ack' };
+export type ReaderIn = { type: 'read'; file: File; companions: File[]; settings: Settings } | { type: 'ack' };
 
 /** From the reader worker. */
 export type ReaderOut =
   | { type: 'layout'; layout: TableLayout; head: string }
+  | { type: 'count'; samples: number }
   | { type: 'block'; block: SampleBlock }
   | { type: 'progress'; bytes: number }
   | { type: 'done'; report: IngestReport }
   | { type: 'error'; message: string; code: string };
 
 export type ToWorker =
-  | { type: 'sniff'; file: File; settings: Settings }
-  | { type: 'analyse'; file: File; settings: Settings; given: string[] }
+  /** `companions`: the signal files chosen together with a WFDB header (empty for other recordings) */
+  | { type: 'sniff'; file: File; companions: File[]; settings: Settings }
+  | { type: 'analyse'; file: File; companions: File[]; settings: Settings; given: string[] }
   /** recompute the outputs of the last analysis with these exclusions and blood gases */
   | { type: 'compose'; id: number; excluded: [number, string][]; gas: GasInput | null }
   | { type: 'window'; id: number; t0: number; t1: number; columns: number }
   | { type: 'gas'; file: File; start: string | null };
 
+/** A signal of a recording that stores signals rather than table columns (EDF/BDF, WFDB), as the mapping step lists it. */
+export interface SignalInfo {
+  /** EDF label, WFDB description */
+  label: string;
+  /** physical dimension / units as written (e.g. 'L/s', 'mmHg') */
+  dimension: string;
+  rate_hz: number;
+  /** how digital values become physical ones (EDF: the physical range; WFDB: gain and baseline) */
+  scaling: string;
+  /** EDF: the transducer; WFDB: the signal file and its format */
+  details: string;
+}
+
 /** The head of the file as the mapping step shows it. */
 export interface Preview {
   layout: TableLayout;
-  /** header cells (generated names when the file has none) */
+  /** header cells (generated names when the file has none); for a file of signals, the signal labels */
   header: string[];
+  /** for a recording of signals (EDF/BDF, WFDB): its data signals; the mapping step lists them instead of table rows */
+  signals?: SignalInfo[];
   /** the first data rows, split at the delimiter */
   rows: string[][];
   /** 1-based line number of each preview row */

@@ -37,6 +37,7 @@ self.onmessage = async (ev: MessageEvent<ReaderIn>) => {
       m.settings.analysis.min_rate_hz,
       {
         onLayout: (layout, head) => post({ type: 'layout', layout, head }),
+        onSampleCount: (samples) => post({ type: 'count', samples }),
         onBlock: (block) => {
           inFlight++;
           post({ type: 'block', block }, [block.t_s.buffer, block.flow_lps.buffer, block.co2_mmhg.buffer]);
@@ -44,6 +45,7 @@ self.onmessage = async (ev: MessageEvent<ReaderIn>) => {
         onProgress: (bytes) => post({ type: 'progress', bytes }),
       },
       room,
+      m.companions,
     );
     post({ type: 'done', report });
   } catch (e) {

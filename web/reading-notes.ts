@@ -16,6 +16,7 @@ export function renderReadingNotes(host: HTMLElement, s: Summary, r: IngestRepor
     ['gaps', String(r.gaps)],
     ['duration', `${(s.recording.duration_s / 60).toFixed(1)} min, ${s.recording.segments} segment(s)`],
   ];
+  if (r.annotations?.length) facts.push(['annotations in the file', `${r.annotations.length} (listed under the recording overview)`]);
   const examples = r.skipped_examples.map((e) => h('li', { text: `line ${e.line}${e.column ? ` column ${e.column}` : ''}: ${e.reason}` }));
   host.replaceChildren(
     h('h2', { text: 'How the file was read' }),

@@ -4,6 +4,7 @@
 import type { ComposedOutputs } from '../src/index';
 import { state } from './app-state';
 import { createBreathView, fowlerVolume, type BreathScene, type BreathView, type Shading } from './breath-view';
+import { renderAnnotations } from './annotations-list';
 import { byId, h } from './dom';
 import { renderEvents } from './events-list';
 import { paco2ForBreath, renderGas } from './gas';
@@ -52,7 +53,14 @@ export function buildReview(fetchWindow: (t0: number, t1: number, columns: numbe
     selected: () => state.selected,
     onSelect: select,
     fetchWindow,
+    annotations: d.report.annotations ?? [],
   });
+  const annotations = d.report.annotations ?? [];
+  byId('annotation-legend').hidden = annotations.length === 0;
+  // the view centres on the annotation: its duration and some context either side, at least 20 s
+  renderAnnotations(byId('annotations'), annotations, d.t_last_s - d.t_first_s, (a) =>
+    overview?.centre(a.onset_s + (a.duration_s ?? 0) / 2, Math.max(20, 2 * (a.duration_s ?? 0))),
+  );
   breathView = createBreathView(byId('breath-chart'), byId('breath-chart').clientWidth || paneWidth - 320);
   trendsStale = true;
   if (!byId('pane-trends').hidden) showTrends();

@@ -9,7 +9,7 @@ import { splitFields } from '../src/ingest/split-fields';
 import { GeometryWriter, transferables } from './geometry-store';
 import { packRows, rowTransferables } from './row-columns';
 import type { FromWorker, ReaderIn, ReaderOut, ToWorker } from './protocol';
-import { readHead, readRecording, type ReadCallbacks } from './read-file';
+import { isSignalsName, readHead, readRecording, readSignalsHead, type ReadCallbacks } from './read-file';
 import { SignalStore } from './signal-store';
 
 declare const self: DedicatedWorkerGlobalScope;
@@ -36,7 +36,8 @@ function errorOf(e: unknown): { message: string; code: string } {
   return { message: String(err?.message ?? e).split('\n')[0]!, code: typeof err?.code === 'string' ? err.code : 'internal' };
 }
 
-async function sniff(file: File, settings: Settings): Promise<void> {
+async function sniff(file: File, companions: File[], settings: Settings): Promise<void> {
+  if (isSignalsName(file.name)) return sniffSignals(file, companions, settings);
   const head = await readHead(file, settings.ingest.encoding);
   const layout = sniffTable(head, settings.ingest, settings.analysis.min_rate_hz, file.name);
   const lines = head.split(layout.line_end === '\r' ? '\r' : '\n');
@@ -51,7 +52,14 @@ async function sniff(file: File, settings: Settings): Promise<void> {
   post({ type: 'sniffed', preview: { layout, header: layout.header, rows, lines: numbers } });
 }
 
-async function analyse(file: File, settings: Settings, given: string[]): Promise<void> {
+/** A recording of signals (EDF/BDF, WFDB): its data signals (labels as the "columns") and the reader's choice. */
+async function sniffSignals(file: File, companions: File[], settings: Settings): Promise<void> {
+  const { signals, layout } = await readSignalsHead(file, companions, settings.ingest, settings.analysis.min_rate_hz);
+  post({ type: 'sniffed', preview: { layout, header: signals.map((s) => s.label), signals, rows: [], lines: [] } });
+}
+
+async function analyse(file: File, companions: File[], settings: Settings, given: string[]): Promise<void> {
+  const totalBytes = file.size + companions.reduce((n, f) => n + f.size, 0);
   const started = performance.now();
   const geometry = new GeometryWriter();
   const analyser = createAnalyser(settings, (e) => geometry.add(e.decomposition.geometry));
@@ -66,19 +74,25 @@ async function analyse(file: File, settings: Settings, given: string[]): Promise
       const perRow = data.length ? chars / data.length : 20;
       s = new SignalStore((1.02 * file.size) / Math.max(4, perRow) + 1024);
     },
+    onSampleCount: (n) => {
+      s = new SignalStore(n);
+    },
     onBlock: (b) => {
       s!.append(b.t_s, b.flow_lps, b.co2_mmhg, b.n);
       analyser.push(b);
     },
     onProgress: (bytes) => {
       const now = performance.now();
-      if (now - lastPost > 100 || bytes === file.size) {
+      if (now - lastPost > 100 || bytes === totalBytes) {
         lastPost = now;
-        post({ type: 'progress', bytes, total: file.size, breaths: geometry.count });
+        post({ type: 'progress', bytes, total: totalBytes, breaths: geometry.count });
       }
     },
   };
-  const report = typeof Worker === 'function' ? await readInReaderWorker(file, settings, callbacks) : await readRecording(file, settings.ingest, settings.analysis.min_rate_hz, callbacks);
+  const report =
+    typeof Worker === 'function'
+      ? await readInReaderWorker(file, companions, settings, callbacks)
+      : await readRecording(file, settings.ingest, settings.analysis.min_rate_hz, callbacks, undefined, companions);
   const core = analyser.finish();
   const sig = s! as SignalStore;
   sig.finalize();
@@ -118,7 +132,7 @@ async function analyse(file: File, settings: Settings, given: string[]): Promise
  * Reads the file in a reader worker of its own (read-worker.ts) while this worker analyses the blocks: the same
  * blocks, in the same order, as reading here (the exports are compared with the command line's in the browser tests).
  */
-function readInReaderWorker(file: File, settings: Settings, cb: ReadCallbacks): Promise<IngestReport> {
+function readInReaderWorker(file: File, companions: File[], settings: Settings, cb: ReadCallbacks): Promise<IngestReport> {
   const reader = new Worker(new URL('./read-worker.ts', import.meta.url), { type: 'module' });
   const send = (m: ReaderIn) => reader.postMessage(m);
   return new Promise<IngestReport>((resolve, reject) => {
@@ -133,6 +147,7 @@ function readInReaderWorker(file: File, settings: Settings, cb: ReadCallbacks): 
           cb.onBlock(m.block);
           send({ type: 'ack' });
         } else if (m.type === 'layout') cb.onLayout?.(m.layout, m.head);
+        else if (m.type === 'count') cb.onSampleCount?.(m.samples);
         else if (m.type === 'progress') cb.onProgress?.(m.bytes);
         else if (m.type === 'done') finish(() => resolve(m.report));
         else finish(() => reject(Object.assign(new Error(m.message), { code: m.code })));
@@ -141,15 +156,15 @@ function readInReaderWorker(file: File, settings: Settings, cb: ReadCallbacks): 
       }
     };
     reader.onerror = (ev) => finish(() => reject(new Error(`the reader worker stopped: ${ev.message || 'unknown error'}`)));
-    send({ type: 'read', file, settings });
+    send({ type: 'read', file, companions, settings });
   });
 }
 
 self.onmessage = async (ev: MessageEvent<ToWorker>) => {
   const m = ev.data;
   try {
-    if (m.type === 'sniff') await sniff(m.file, m.settings);
-    else if (m.type === 'analyse') await analyse(m.file, m.settings, m.given);
+    if (m.type === 'sniff') await sniff(m.file, m.companions, m.settings);
+    else if (m.type === 'analyse') await analyse(m.file, m.companions, m.settings, m.given);
     else if (m.type === 'compose') {
       if (!last) throw new Error('no analysis to recompute');
       const t0 = performance.now();

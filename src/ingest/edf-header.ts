@@ -92,6 +92,17 @@ export function parseEdfHeader(b: Uint8Array, size: number, file: string): EdfHe
   return { format, plus, start, recording, header_bytes: headerBytes, records, record_s, bytes_per_sample, record_bytes, signals };
 }
 
+/**
+ * The size of the whole header as the fixed part (the file's first 256 bytes) states it, so that a reader of a part
+ * of the file knows how much to read for parseEdfHeader; 256 when the field is not a usable number (parseEdfHeader
+ * then names the problem).
+ */
+export function edfHeaderBytes(fixed: Uint8Array): number {
+  if (fixed.length < FIXED) return FIXED;
+  const v = Number(field(fixed, 184, 8));
+  return Number.isInteger(v) && v >= FIXED ? v : FIXED;
+}
+
 /** Signal fields are stored field by field: all labels, then all transducers, ... (Kemp et al. 1992). */
 function parseSignals(b: Uint8Array, ns: number, bytesPerSample: number, file: string): EdfSignal[] {
   const widths = [16, 80, 8, 8, 8, 8, 8, 80, 8, 32];

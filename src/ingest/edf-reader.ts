@@ -68,13 +68,9 @@ export function readEdfBytes(
   bytes: Uint8Array, settings: IngestSettings, min_rate_hz: number, fileName: string,
 ): { blocks: SampleBlock[]; report: IngestReport } {
   const h = parseEdfHeader(bytes, bytes.length, fileName);
-  const ch = chooseEdfChannels(h, settings, fileName);
-  const rate = ch.flow.samples_per_record / h.record_s;
-  if (rate < min_rate_hz) {
-    throw new InputError('rate_too_low', `the flow signal "${ch.flow.label}" is sampled at ${rate} Hz, below the minimum ${min_rate_hz} Hz needed for phase II work`, 'Record flow at a higher rate.', { file: fileName });
-  }
+  const { ch, layout } = chooseSignals(h, settings, min_rate_hz, fileName);
   const { onsets, annotations, first_keeping_s } = readAnnotations(bytes, h, fileName);
-  const rows = new RowAssembler(edfLayout(h, ch, rate), settings, fileName);
+  const rows = new RowAssembler(layout, settings, fileName);
   const blocks: SampleBlock[] = [];
   let line = 0;
   for (let r = 0; r < h.records; r++) {
@@ -91,6 +87,29 @@ export function readEdfBytes(
   if (clock.note) report.notes.push(clock.note);
   if (annotations.length) report.annotations = annotations.map((a) => (subsecond === 0 ? a : { ...a, onset_s: a.onset_s - subsecond }));
   return { blocks, report };
+}
+
+/** The flow and CO2 signals and the layout the row assembler reads them with; throws when flow is sampled too slowly. */
+function chooseSignals(h: EdfHeader, settings: IngestSettings, min_rate_hz: number, fileName: string): { ch: EdfChannels; layout: TableLayout } {
+  const ch = chooseEdfChannels(h, settings, fileName);
+  const rate = ch.flow.samples_per_record / h.record_s;
+  if (rate < min_rate_hz) {
+    throw new InputError('rate_too_low', `the flow signal "${ch.flow.label}" is sampled at ${rate} Hz, below the minimum ${min_rate_hz} Hz needed for phase II work`, 'Record flow at a higher rate.', { file: fileName });
+  }
+  return { ch, layout: edfLayout(h, ch, rate) };
+}
+
+/**
+ * What the viewer's mapping step shows before an analysis, from the header alone (`head`: the file's first
+ * headerBytes bytes, see edfHeaderBytes; `size`: the file's size): the parsed header and the layout readEdfBytes
+ * would read the file with (the chosen signals, their units, the notes). Throws the same InputErrors as
+ * readEdfBytes does for the header and the signal choice.
+ */
+export function previewEdfHeader(
+  head: Uint8Array, size: number, settings: IngestSettings, min_rate_hz: number, fileName: string,
+): { header: EdfHeader; layout: TableLayout } {
+  const header = parseEdfHeader(head, size, fileName);
+  return { header, layout: chooseSignals(header, settings, min_rate_hz, fileName).layout };
 }
 
 /** Flow and CO2 samples of one record, merged by time into rows; returns the last row number used. */

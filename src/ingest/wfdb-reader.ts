@@ -384,3 +384,19 @@ export function wfdbClockStart(h: Pick<WfdbHeader, 'base_time' | 'base_date'>, n
   const seconds = day === null ? sec : day + sec;
   return { kind, seconds, text: formatClockStamp(kind, seconds) };
 }
+
+/**
+ * What the viewer's mapping step shows before an analysis: the parsed header and the layout readWfdbRecord reads the
+ * record with (the chosen signals, their units, the notes on the choice), with readWfdbRecord's checks of the header,
+ * the signal choice and the flow and CO2 signals' files (given, named without a folder, in a format read); the
+ * samples are not decoded, so the rate, the frame count and the file lengths are checked by readWfdbRecord.
+ */
+export function previewWfdbRecord(
+  headerBytes: Uint8Array, signalFiles: ReadonlyMap<string, Uint8Array>, settings: IngestSettings, headerName: string,
+): { header: WfdbHeader; layout: TableLayout } {
+  const h = parseWfdbHeader(headerBytes, headerName);
+  const ch = chooseWfdbChannels(h, settings, headerName);
+  const flow = placeSignal(h, ch.flowIndex, signalFiles, headerName);
+  placeSignal(h, ch.co2Index, signalFiles, headerName);
+  return { header: h, layout: wfdbLayout(h, ch, h.frequency_hz * flow.s.spf) };
+}

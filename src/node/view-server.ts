@@ -1,13 +1,14 @@
 // `phasewise view`: serves the packaged review viewer (dist/web, built by `node scripts/build.mjs --package`) on the
 // loopback address. Local only, as the development viewer (scripts/viewer.mjs): it listens on 127.0.0.1, answers
 // GET and HEAD alone, serves the build folder and nothing else of the disk except the bundled sample recordings and
-// the one recording named on the command line, and sends a Content-Security-Policy that forbids every request that
-// leaves the page's own origin. One difference from the development viewer: the page may fetch from its own origin
+// the one recording named on the command line (for a WFDB header, with the signal files it names beside it), and
+// sends a Content-Security-Policy that forbids every request that leaves the page's own origin. One difference from the development viewer: the page may fetch from its own origin
 // (connect-src 'self' instead of 'none'), so that it can open a bundled sample or the given recording; the server
 // marks the page for that with <meta name="phasewise-launch" content="launch.json"> (read by web/launch.ts).
 import { createServer, type Server } from 'node:http';
 import { existsSync, readdirSync, readFileSync, statSync } from 'node:fs';
-import { basename, extname, join, normalize, resolve, sep } from 'node:path';
+import { basename, dirname, extname, join, normalize, resolve, sep } from 'node:path';
+import { isWfdbName, wfdbSignalFileNames } from '../ingest/wfdb-reader';
 
 /** The policy of the viewer page (web/index.html's meta tag and scripts/viewer.mjs send the same, with connect-src 'none'). */
 export const VIEW_CSP =
@@ -37,7 +38,23 @@ export interface ViewServerOptions {
 /** What the start screen offers (GET /launch.json). */
 export interface Launch {
   samples: { name: string; url: string; bytes: number; description: string }[];
-  open: { name: string; url: string } | null;
+  /** `companions`: the signal files of a WFDB header, opened together with it */
+  open: { name: string; url: string; companions?: { name: string; url: string }[] } | null;
+}
+
+/**
+ * The signal files a WFDB header names that exist beside it (the page's reader names any that is missing, as the
+ * CLI does); [] for other recordings, and for a header that cannot be read (the page's reader then says why).
+ */
+export function wfdbCompanions(recording: string): string[] {
+  if (!isWfdbName(recording)) return [];
+  let names: string[];
+  try {
+    names = wfdbSignalFileNames(new Uint8Array(readFileSync(recording)), basename(recording));
+  } catch {
+    return [];
+  }
+  return names.map((n) => join(dirname(recording), n)).filter((f) => existsSync(f) && statSync(f).isFile());
 }
 
 /** The bundled samples: every FILE.csv of the folder, described by its FILE.truth.json (the scenario's description). */
@@ -75,14 +92,16 @@ export function startViewServer(o: ViewServerOptions): Promise<Server> {
   const page = launchPage(readFileSync(index, 'utf8'));
   const samples = listSamples(o.samplesDir);
   const recording = o.recording ? resolve(o.recording) : null;
+  const served = (f: string) => ({ name: basename(f), url: `recording/${encodeURIComponent(basename(f))}` });
+  const companions = recording ? wfdbCompanions(recording) : [];
   const launch: Launch = {
     samples,
-    open: recording ? { name: basename(recording), url: `recording/${encodeURIComponent(basename(recording))}` } : null,
+    open: recording ? { ...served(recording), ...(companions.length ? { companions: companions.map(served) } : {}) } : null,
   };
   // the only files outside the build folder that can be served: URL path -> file
   const extra = new Map<string, string>();
   for (const s of samples) extra.set(`/${s.url}`, join(o.samplesDir!, s.name));
-  if (recording && launch.open) extra.set(`/${launch.open.url}`, recording);
+  if (recording) for (const f of [recording, ...companions]) extra.set(`/${served(f).url}`, f);
 
   const server = createServer((req, res) => {
     const headers = { 'Content-Security-Policy': VIEW_CSP, 'X-Content-Type-Options': 'nosniff', 'Cache-Control': 'no-store', 'Referrer-Policy': 'no-referrer' };

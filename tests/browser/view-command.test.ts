@@ -1,8 +1,8 @@
 // `phasewise view` in headless Chromium (Debian's /usr/bin/chromium via playwright-core): the packaged viewer
 // (dist/web, built by `node scripts/build.mjs --package`, which npm test runs first) served by the CLI opens the
-// recording named on the command line at once, and (started without one) its start screen offers the bundled samples; a sample opened
-// from there analyses to the CLI's breath count and median airway dead space. No request leaves the page's own
-// origin and no CSP violation occurs.
+// recording named on the command line at once (a text table, an EDF+ file with its annotations, a WFDB header with
+// its signal files), and (started without one) its start screen offers the bundled samples; a sample opened from
+// there analyses to the CLI's breath count and median airway dead space. No request leaves the page's own origin and no CSP violation occurs.
 // Without /usr/bin/chromium the tests are skipped with a message (tests/browser/viewer.test.ts fails under CI=true).
 import { spawnSync } from 'node:child_process';
 import { existsSync, mkdtempSync, readFileSync, readdirSync, rmSync } from 'node:fs';
@@ -14,10 +14,14 @@ import { haveChromium, launchBrowser, ROOT, startServer, type Browser, type View
 
 const OPENED = 'child-sidestream.csv';
 const PICKED = 'adult-healthy.csv';
+/** an EDF+ recording (tests/fixtures/edf, written by EDFlib) named on the command line */
+const EDF = join(ROOT, 'tests', 'fixtures', 'edf', 'c100.edf');
+/** a WFDB header (tests/fixtures/wfdb) whose two signal files are beside it */
+const WFDB = join(ROOT, 'tests', 'fixtures', 'wfdb', 'f212.hea');
 
-function cliSummary(dir: string, sample: string): { breaths: { found: number }; metrics: { vd_aw_ml: { median: number } } } {
+function cliSummary(dir: string, sample: string, path = join(ROOT, 'sample-waveforms', sample)): { breaths: { found: number }; metrics: { vd_aw_ml: { median: number } } } {
   const out = join(dir, sample);
-  const r = spawnSync(process.execPath, [join(ROOT, 'bin', 'phasewise.cjs'), 'analyse', join(ROOT, 'sample-waveforms', sample), '--out', out, '--quiet'], { encoding: 'utf8' });
+  const r = spawnSync(process.execPath, [join(ROOT, 'bin', 'phasewise.cjs'), 'analyse', path, '--out', out, '--quiet'], { encoding: 'utf8' });
   if (r.status !== 0) throw new Error(`phasewise analyse ${sample} failed:\n${r.stderr}`);
   return JSON.parse(readFileSync(join(out, 'summary.json'), 'utf8'));
 }
@@ -39,6 +43,8 @@ describe.skipIf(!haveChromium())('phasewise view in headless Chromium', () => {
   let tmp = '';
   let viewer: Viewer | null = null;
   let plain: Viewer | null = null;
+  let edf: Viewer | null = null;
+  let wfdb: Viewer | null = null;
   let browser: Browser | null = null;
   let page: Page;
   const requests: string[] = [];
@@ -49,6 +55,8 @@ describe.skipIf(!haveChromium())('phasewise view in headless Chromium', () => {
     tmp = mkdtempSync(join(tmpdir(), 'phasewise-view-test-'));
     viewer = await startServer([join(ROOT, 'bin', 'phasewise.cjs'), 'view', join(ROOT, 'sample-waveforms', OPENED), '--port', '0']);
     plain = await startServer([join(ROOT, 'bin', 'phasewise.cjs'), 'view', '--port', '0']);
+    edf = await startServer([join(ROOT, 'bin', 'phasewise.cjs'), 'view', EDF, '--port', '0']);
+    wfdb = await startServer([join(ROOT, 'bin', 'phasewise.cjs'), 'view', WFDB, '--port', '0']);
     browser = await launchBrowser();
     page = browser.page;
     await page.addInitScript(() => {
@@ -67,6 +75,8 @@ describe.skipIf(!haveChromium())('phasewise view in headless Chromium', () => {
     await browser?.close();
     await viewer?.stop();
     await plain?.stop();
+    await edf?.stop();
+    await wfdb?.stop();
     if (tmp) rmSync(tmp, { recursive: true, force: true });
   });
 
@@ -89,8 +99,21 @@ describe.skipIf(!haveChromium())('phasewise view in headless Chromium', () => {
     await analyseAndCheck(page, cliSummary(tmp, PICKED));
   });
 
+  it('opens an EDF+ recording given on the command line: the CLI numbers and the file\'s annotations', async () => {
+    await page.goto(edf!.url);
+    await page.waitForFunction(() => (document.getElementById('file-name')?.textContent ?? '').includes('c100.edf'), undefined, { timeout: 30_000 });
+    await analyseAndCheck(page, cliSummary(tmp, 'c100.edf', EDF));
+    expect(await page.locator('#annotations button.annotation').allTextContents()).toEqual(['2.5 s · suction (1 s)', '42.5 s · PEEP 8']);
+  });
+
+  it('opens a WFDB header given on the command line with the signal files it names: the CLI numbers', async () => {
+    await page.goto(wfdb!.url);
+    await page.waitForFunction(() => (document.getElementById('file-name')?.textContent ?? '').includes('f212.hea + f212_flow.dat + f212_co2.dat'), undefined, { timeout: 30_000 });
+    await analyseAndCheck(page, cliSummary(tmp, 'f212.hea', WFDB));
+  });
+
   it('makes no request outside its own origin and no CSP violation', async () => {
-    const origins = [new URL(viewer!.url).origin, new URL(plain!.url).origin];
+    const origins = [viewer, plain, edf, wfdb].map((v) => new URL(v!.url).origin);
     expect(requests.length).toBeGreaterThan(3);
     expect(requests.filter((u) => !origins.some((o) => u.startsWith(`${o}/`)) && !u.startsWith('blob:') && !u.startsWith('data:'))).toEqual([]);
     expect(await page.evaluate(() => (window as unknown as { __csp: string[] }).__csp)).toEqual([]);

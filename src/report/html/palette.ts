@@ -23,6 +23,8 @@ export const COLOURS = {
   excluded: '#7b2cbf',
   selected: 'rgba(29, 53, 87, 0.12)',
   gas: '#d00000',
+  annotation: '#0f766e',
+  annotationBand: 'rgba(15, 118, 110, 0.13)',
   grid: 'rgba(0, 0, 0, 0.07)',
   axis: '#37474f',
 } as const;

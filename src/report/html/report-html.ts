@@ -13,7 +13,7 @@ import { breathChartSvg, evenSubsample, OVERLAY_LIMITS, overlaySvg, type ReportC
 import { TREND_COLOURS } from './palette';
 import { REPRESENTATIVE_RULE, representativeBreath } from './representative';
 import { REPORT_CSS } from './report-css';
-import { cautionsSection, eventsSection, factsSection, gasTable, num, qualitySection, settingsSection, summarySection } from './sections';
+import { annotationsSection, cautionsSection, eventsSection, factsSection, gasTable, num, qualitySection, settingsSection, summarySection } from './sections';
 import { trendSvg } from './small-charts';
 import { esc } from './svg';
 
@@ -115,6 +115,7 @@ export function reportHtml(input: ReportInput): string {
     breathsSection(o, input.curves, typeof apparatus === 'number' ? apparatus : 0),
     trendsSection(o.trends, s, o.gas !== null),
     eventsSection(o.events),
+    annotationsSection(s),
     o.gas ? gasSection(o.gas) : '',
     settingsSection(s),
     caution,

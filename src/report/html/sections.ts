@@ -123,6 +123,20 @@ export function eventsSection(events: readonly EventRow[]): string {
   );
 }
 
+/**
+ * The recording's own annotations (EDF+ / BDF+, summary.json input.annotations): onset on the recording's time axis,
+ * duration, text; '' when the input has none (text tables never do), so other reports are unchanged.
+ */
+export function annotationsSection(s: Summary): string {
+  const list = Array.isArray(s.input.annotations) ? (s.input.annotations as { onset_s: number; duration_s: number | null; text: string }[]) : [];
+  if (!list.length) return '';
+  const rows = list.map((a) => row([num(a.onset_s, 3), a.duration_s === null ? '—' : num(a.duration_s, 3), esc(a.text)]));
+  return (
+    `<section id="annotations"><h2>Annotations in the file (as recorded, not checked)</h2><table class="grid small">` +
+    `${row(['Onset (s)', 'Duration (s)', 'Text'], true)}${rows.join('')}</table></section>`
+  );
+}
+
 /** Settings that differ from the defaults: given by the user or inferred from the file (summary.settings origin). */
 export function settingsSection(s: Summary): string {
   const rows = Object.entries(s.settings)
