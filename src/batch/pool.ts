@@ -6,7 +6,7 @@
 //   --jobs 2: the main thread analyses, one reader thread parses;
 //   --jobs 3: that, plus a worker that reads and analyses by itself; --jobs 4: two lanes of two; and so on.
 // When most of the bytes are in short recordings, readers would idle: every lane then reads its own files, with one
-// thread's worth left to V8's background threads (planLanes).
+// thread's worth left to V8's background threads, except that --jobs 2 runs two lanes on a large set (planLanes).
 // Pairing threads this way (instead of N threads that each read and analyse) starts fewer copies of the code, each
 // of which warms up only its half, and keeps one file per lane in memory. Only files of READER_MIN_BYTES or more
 // go through the reader thread: for short recordings the second thread costs more than it saves (measured, below).
@@ -48,11 +48,15 @@ export function defaultWorkerFile(): string | null {
  * reader), an odd one as a lane of its own. Otherwise readers would idle, so every lane reads its own files; one
  * thread's worth is left to V8's compiler and garbage-collector threads, which keep about a core busy beside the
  * JavaScript threads (measured here: on 2 cores, two such lanes took 1.9-2.2 s for 20 short recordings, one lane
- * 1.4-1.6 s).
+ * 1.4-1.6 s). Only with --jobs 2 and a set of TWO_SHORT_LANES_MIN_BYTES or more (`bytes`: all the tasks' bytes) do
+ * both threads get a lane, as the second lane's start is then repaid.
  */
-export function planLanes(jobs: number, tasks: number, pairs: boolean): boolean[] {
+export function planLanes(jobs: number, tasks: number, pairs: boolean, bytes = 0): boolean[] {
   const n = Math.max(1, Math.floor(jobs));
-  if (!pairs) return Array.from({ length: Math.max(1, Math.min(tasks, n >= 3 ? n - 1 : 1)) }, () => false);
+  if (!pairs) {
+    const lanes = n >= 3 ? n - 1 : n === 2 && bytes >= TWO_SHORT_LANES_MIN_BYTES ? 2 : 1;
+    return Array.from({ length: Math.max(1, Math.min(tasks, lanes)) }, () => false);
+  }
   const lanes: boolean[] = [];
   let left = n;
   while (left > 0 && lanes.length < tasks) {
@@ -62,6 +66,14 @@ export function planLanes(jobs: number, tasks: number, pairs: boolean): boolean[
   }
   return lanes.length ? lanes : [false];
 }
+
+/**
+ * With --jobs 2 and short recordings only, a second lane (a batch worker) pays off once the set holds this many bytes:
+ * it costs about a second of CPU to start and warm up. Measured here (2 vCPUs, quiet machine, 5-minute recordings of
+ * 0.62 MB, two runs each, one lane / two lanes): 40 files 2.13-2.19 / 2.25-2.27 s, 100 files 4.13-4.20 / 3.63-3.67 s,
+ * 200 files 7.50-7.65 / 5.81-5.84 s.
+ */
+export const TWO_SHORT_LANES_MIN_BYTES = 40_000_000;
 
 /**
  * Files from this size on are parsed in the lane's reader thread; smaller ones are read by the analysis thread itself.
@@ -128,7 +140,8 @@ export async function runTasks(
   stop: AbortSignal | null = null,
 ): Promise<void> {
   if (!tasks.length || stop?.aborted) return;
-  const lanes = planLanes(jobs, tasks.length, readerFile !== null && mostBytesInLargeFiles(tasks, readerMinBytes));
+  const bytes = tasks.reduce((a, t) => a + t.bytes, 0);
+  const lanes = planLanes(jobs, tasks.length, readerFile !== null && mostBytesInLargeFiles(tasks, readerMinBytes), bytes);
   if (lanes.length > 1 && !workerFile) throw new Error(`the worker bundle ${WORKER_BUNDLE} was not found next to the CLI; run \`npm run build\``);
   const queue: SharedQueue = { tasks, next: 0, failed: false, stopped: false, workers: [], readerMinBytes };
   await new Promise<void>((resolve, reject) => {

@@ -100,6 +100,10 @@ describe('lanes', () => {
     expect(planLanes(2, 10, false)).toEqual([false]);
     expect(planLanes(4, 10, false)).toEqual([false, false, false]);
     expect(planLanes(8, 3, false)).toEqual([false, false, false]);
+    // --jobs 2 on short recordings: a second lane once the set is large enough to repay its start (TWO_SHORT_LANES_MIN_BYTES)
+    expect(planLanes(2, 200, false, 124_600_000)).toEqual([false, false]);
+    expect(planLanes(2, 40, false, 24_900_000)).toEqual([false]);
+    expect(planLanes(2, 1, false, 124_600_000)).toEqual([false]);
   });
 });
 
