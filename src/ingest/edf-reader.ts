@@ -19,6 +19,7 @@ import { InputError } from './errors';
 import type { TableLayout } from './layout';
 import type { EdfAnnotation, IngestReport } from './report';
 import { RowAssembler } from './row-assembler';
+import { mergeByTime, signalsLayout } from './signal-rows';
 
 /** File name extensions read as EDF / BDF (lower case, with the dot). */
 export const EDF_EXTENSIONS = ['.edf', '.bdf'] as const;
@@ -96,7 +97,7 @@ function chooseSignals(h: EdfHeader, settings: IngestSettings, min_rate_hz: numb
   if (rate < min_rate_hz) {
     throw new InputError('rate_too_low', `the flow signal "${ch.flow.label}" is sampled at ${rate} Hz, below the minimum ${min_rate_hz} Hz needed for phase II work`, 'Record flow at a higher rate.', { file: fileName });
   }
-  return { ch, layout: edfLayout(h, ch, rate) };
+  return { ch, layout: signalsLayout(h.signals.map((s) => s.label), ch, rate) };
 }
 
 /**
@@ -118,50 +119,16 @@ function mergeRecord(b: Uint8Array, h: EdfHeader, ch: EdfChannels, r: number, on
   const co2 = edfRecordSamples(b, h, ch.co2Index, r);
   const nf = flow.length;
   const nc = co2.length;
-  let i = 0;
-  let j = 0;
-  while (i < nf || j < nc) {
-    // compare the times i / nf and j / nc exactly, in integers
-    const cmp = i >= nf ? 1 : j >= nc ? -1 : i * nc - j * nf;
-    if (cmp === 0) {
-      rows.row(++line, onset + (i * h.record_s) / nf, flow[i]!, co2[j]!);
-      i++;
-      j++;
-    } else if (cmp < 0) {
-      rows.row(++line, onset + (i * h.record_s) / nf, flow[i]!, NaN);
-      i++;
-    } else {
-      rows.row(++line, onset + (j * h.record_s) / nc, NaN, co2[j]!);
-      j++;
-    }
-  }
-  return line;
+  // sample i of a signal with n samples per record lies at i / n of the record
+  return mergeByTime(rows, line, {
+    nf, nc, perF: nf, perC: nc,
+    flowTime: (i) => onset + (i * h.record_s) / nf,
+    co2Time: (j) => onset + (j * h.record_s) / nc,
+    flowAt: (i) => flow[i]!,
+    co2At: (j) => co2[j]!,
+  });
 }
 
-/** The layout the row assembler needs: seconds, the units' factors, the chosen signals as column names. */
-function edfLayout(h: EdfHeader, ch: EdfChannels, rate: number): TableLayout {
-  return {
-    delimiter: '',
-    decimal: '.',
-    line_end: '\n',
-    header_index: -1,
-    header_line: 0,
-    data_start_index: 0,
-    header: h.signals.map((s) => s.label),
-    field_count: h.signals.length,
-    header_trailing_empty: false,
-    columns: { time: -1, flow: ch.flowIndex, co2: ch.co2Index },
-    names: { time: null, flow: ch.flow.label, co2: ch.co2.label },
-    units: { time: 's', flow: ch.flowUnit, co2: ch.co2Unit },
-    clock_kind: null,
-    flow_factor: ch.flowFactor,
-    co2_factor: ch.co2Factor,
-    time_divisor: 1,
-    rate_hz: rate,
-    notes: ch.notes,
-    settings: ch.settings,
-  };
-}
 
 /** TALs of all annotation signals: record onsets (time-keeping TALs) and the annotations. */
 function readAnnotations(b: Uint8Array, h: EdfHeader, file: string): { onsets: number[]; annotations: EdfAnnotation[]; first_keeping_s: number } {

@@ -33,6 +33,7 @@ import { InputError } from './errors';
 import type { TableLayout } from './layout';
 import type { IngestReport } from './report';
 import { RowAssembler } from './row-assembler';
+import { mergeByTime, signalsLayout } from './signal-rows';
 import { parseWfdbDate, parseWfdbHeader, parseWfdbTime, type WfdbHeader, type WfdbSignal } from './wfdb-header';
 
 /** File name extensions read as WFDB records (lower case, with the dot): the header names its signal files. */
@@ -265,7 +266,7 @@ export function readWfdbRecord(
   if (rate < min_rate_hz) {
     throw new InputError('rate_too_low', `the flow signal "${flow.s.description}" is sampled at ${rate} Hz, below the minimum ${min_rate_hz} Hz needed for phase II work`, 'Record flow at a higher rate.', { file: headerName });
   }
-  const layout = wfdbLayout(h, ch, rate);
+  const layout = signalsLayout(h.signals.map((s) => s.description), ch, rate);
   const frames = frameCount(h, [flow, co2], headerName, layout.notes);
   const rows = new RowAssembler(layout, settings, headerName);
   const tf = new SignalTally();
@@ -285,29 +286,18 @@ export function readWfdbRecord(
 function mergeSignals(flow: SignalPlace, co2: SignalPlace, frames: number, frequency: number, rows: RowAssembler, tf: SignalTally, tc: SignalTally): void {
   const sf = flow.s.spf;
   const sc = co2.s.spf;
-  const nf = frames * sf;
-  const nc = frames * sc;
   const rf = frequency * sf;
   const rc = frequency * sc;
-  let i = 0;
-  let j = 0;
-  let line = 0;
-  while (i < nf || j < nc) {
-    // flow sample i is at i / (F sf), CO2 sample j at j / (F sc): compare i sc with j sf
-    const cmp = i >= nf ? 1 : j >= nc ? -1 : i * sc - j * sf;
-    if (cmp === 0) {
-      rows.row(++line, i / rf, sampleAt(flow, i, tf), sampleAt(co2, j, tc));
-      i++;
-      j++;
-    } else if (cmp < 0) {
-      rows.row(++line, i / rf, sampleAt(flow, i, tf), NaN);
-      i++;
-    } else {
-      rows.row(++line, j / rc, NaN, sampleAt(co2, j, tc));
-      j++;
-    }
-  }
+  // flow sample i is at i / (F sf), CO2 sample j at j / (F sc): i / sf and j / sc of a frame
+  mergeByTime(rows, 0, {
+    nf: frames * sf, nc: frames * sc, perF: sf, perC: sc,
+    flowTime: (i) => i / rf,
+    co2Time: (j) => j / rc,
+    flowAt: (i) => sampleAt(flow, i, tf),
+    co2At: (j) => sampleAt(co2, j, tc),
+  });
 }
+
 
 /** Notes on "no data" samples and the checksum of one signal. */
 function tallyNotes(h: WfdbHeader, p: SignalPlace, t: SignalTally, role: string, frames: number, notes: string[]): void {
@@ -338,33 +328,6 @@ function chooseWfdbChannels(h: WfdbHeader, settings: IngestSettings, file: strin
     for (const s of [f, c]) if (s.uncalibrated) notes.push(`warning: signal "${s.description}" has no ADC gain in the header (uncalibrated): 200 ADC units per physical unit assumed, as WFDB does`);
     return notes;
   });
-}
-
-/** The layout the row assembler needs: seconds, the units' factors, the chosen signals as column names. */
-function wfdbLayout(h: WfdbHeader, ch: SignalChannels, rate: number): TableLayout {
-  const flow = h.signals[ch.flowIndex]!;
-  const co2 = h.signals[ch.co2Index]!;
-  return {
-    delimiter: '',
-    decimal: '.',
-    line_end: '\n',
-    header_index: -1,
-    header_line: 0,
-    data_start_index: 0,
-    header: h.signals.map((s) => s.description),
-    field_count: h.signals.length,
-    header_trailing_empty: false,
-    columns: { time: -1, flow: ch.flowIndex, co2: ch.co2Index },
-    names: { time: null, flow: flow.description, co2: co2.description },
-    units: { time: 's', flow: ch.flowUnit, co2: ch.co2Unit },
-    clock_kind: null,
-    flow_factor: ch.flowFactor,
-    co2_factor: ch.co2Factor,
-    time_divisor: 1,
-    rate_hz: rate,
-    notes: ch.notes,
-    settings: ch.settings,
-  };
 }
 
 /**
@@ -398,5 +361,5 @@ export function previewWfdbRecord(
   const ch = chooseWfdbChannels(h, settings, headerName);
   const flow = placeSignal(h, ch.flowIndex, signalFiles, headerName);
   placeSignal(h, ch.co2Index, signalFiles, headerName);
-  return { header: h, layout: wfdbLayout(h, ch, h.frequency_hz * flow.s.spf) };
+  return { header: h, layout: signalsLayout(h.signals.map((s) => s.description), ch, h.frequency_hz * flow.s.spf) };
 }
