@@ -6,7 +6,7 @@ import { breathCurve } from './geometry-store';
 import 'uplot/dist/uPlot.min.css';
 import './style.css';
 import { clearError, fail, onScreen, setBodyState, show, state } from './app-state';
-import { byId, download, h } from './dom';
+import { byId, download, formatFileSize, h } from './dom';
 import { startHeartbeat, type HeartbeatStats } from './heartbeat';
 import { startLaunch } from './launch';
 import { bindReviewKeys } from './keys';
@@ -44,7 +44,7 @@ function openFile(file: File, companions: File[] = []): void {
   state.gasInput = null;
   byId('gas').replaceChildren();
   const bytes = [file, ...companions].reduce((n, f) => n + f.size, 0);
-  byId('file-name').textContent = `${[file, ...companions].map((f) => f.name).join(' + ')} · ${(bytes / 1e6).toFixed(1)} MB`;
+  byId('file-name').textContent = `${[file, ...companions].map((f) => f.name).join(' + ')} · ${formatFileSize(bytes)}`;
   setBodyState('sniffing');
   show('map');
   renderMapping();
@@ -113,7 +113,7 @@ function onWorker(m: FromWorker): void {
       return;
     case 'progress':
       byId<HTMLProgressElement>('progress').value = m.total ? m.bytes / m.total : 0;
-      byId('progress-text').textContent = `read ${(m.bytes / 1e6).toFixed(1)} of ${(m.total / 1e6).toFixed(1)} MB · ${m.breaths} breaths so far`;
+      byId('progress-text').textContent = `read ${formatFileSize(m.bytes)} of ${formatFileSize(m.total)} · ${m.breaths} breaths so far`;
       return;
     case 'done':
       void onDone(m);

@@ -44,3 +44,10 @@ export function typingInForm(target: EventTarget | null): boolean {
   }
   return tag === 'SELECT';
 }
+
+/** A file size for people: bytes below 1 kB, whole kB below 1 MB, MB with one decimal from there (1 kB = 1000 bytes). */
+export function formatFileSize(bytes: number): string {
+  if (bytes < 1000) return `${bytes} bytes`;
+  if (bytes < 999_500) return `${Math.round(bytes / 1000)} kB`;
+  return `${(bytes / 1e6).toFixed(1)} MB`;
+}

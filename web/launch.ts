@@ -2,7 +2,7 @@
 // the page with <meta name="phasewise-launch" content="launch.json">, which lists the bundled sample recordings and
 // the recording given on the command line. They are fetched from the page's own loopback origin (the only place the
 // page's policy lets it fetch from there); the development viewer has no marker and shows none of this.
-import { byId, h } from './dom';
+import { byId, formatFileSize, h } from './dom';
 
 interface Launch {
   samples: { name: string; url: string; bytes: number; description: string }[];
@@ -29,7 +29,7 @@ export async function startLaunch(open: (files: File[]) => void, fail: (e: unkno
     for (const s of launch.samples) {
       const button = h('button', { type: 'button', text: s.name, title: s.description });
       button.addEventListener('click', () => fetchRecording(s.url, s.name).then((f) => open([f]), fail));
-      list.append(h('li', {}, [button, ` ${s.description} (${(s.bytes / 1e6).toFixed(1)} MB)`]));
+      list.append(h('li', {}, [button, ` ${s.description} (${formatFileSize(s.bytes)})`]));
     }
     byId('samples-box').hidden = launch.samples.length === 0;
     if (launch.open) {
