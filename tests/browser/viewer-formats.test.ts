@@ -28,6 +28,7 @@ const WFDB_RECORDS: [string, string[]][] = [
   ['f16.hea', ['f16.dat']],
   ['f212.hea', ['f212_flow.dat', 'f212_co2.dat']],
   ['mf212.hea', ['mf212.dat']],
+  ['f80.hea', ['f80.dat']],
 ];
 const CLI = join(ROOT, 'bin', 'phasewise.cjs');
 

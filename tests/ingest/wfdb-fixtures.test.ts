@@ -27,6 +27,8 @@ const FIXTURES = [
   { name: 'f212', flow_gain: 1000, co2_gain: 40, co2_every: 1, no_data: [] as string[] },
   // "no data" at flow sample 301 and CO2 sample 100 (at flow sample 200)
   { name: 'mf212', flow_gain: 1000, co2_gain: 40, co2_every: 2, no_data: ['flow', 'CO2'] },
+  // 8-bit offset binary: coarse steps of 0.01 L/s and 0.2 mmHg
+  { name: 'f80', flow_gain: 100, co2_gain: 5, co2_every: 1, no_data: [] as string[] },
 ] as const;
 
 async function breathsCsv(path: string): Promise<{ csv: string; rows: number; gaps: number }> {

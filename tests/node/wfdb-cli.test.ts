@@ -17,6 +17,7 @@ const RECORDS: Record<string, string[]> = {
   f16: ['f16.hea', 'f16.dat'],
   f212: ['f212.hea', 'f212_flow.dat', 'f212_co2.dat'],
   mf212: ['mf212.hea', 'mf212.dat'],
+  f80: ['f80.hea', 'f80.dat'],
 };
 
 function copyRecords(to: string, names: string[], twins = true): void {
@@ -88,7 +89,7 @@ describe.skipIf(!existsSync(cli))('phasewise batch with WFDB records', () => {
     const r = run(['batch', data, '--out', out, '--quiet']);
     expect(r.status, r.stderr).toBe(0);
     const recs = readdirSync(join(out, 'recordings'));
-    expect(recs.length).toBe(6);
+    expect(recs.length).toBe(2 * Object.keys(RECORDS).length);
     for (const name of Object.keys(RECORDS)) {
       const rec = recs.find((d) => d.endsWith(`__${name}.hea`))!;
       const twin = recs.find((d) => d.endsWith(`__${name}.twin.csv`))!;
