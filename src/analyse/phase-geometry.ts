@@ -52,7 +52,32 @@ export function findInflection(
   const searchTo = at75 >= 0 ? Math.min(last - 3, at75 + width) : last - 3;
   const peak = steepestPoint(grid, smoothed, step, base, line, searchFrom, searchTo);
   if (peak.index <= 0) return null;
-  return { volume_ml: (peak.index + parabolicPeakOffset(smoothed, peak.index)) * step, slope_mmhg_per_ml: peak.slope };
+  // a straight stretch (a coarsely sampled rise is straight between samples) is equally steep all along: its centre,
+  // not whichever of its points rounding noise makes the largest (derived here)
+  const flat = flatTop(grid, smoothed, step, base, line, peak, searchFrom, searchTo);
+  const at = flat.to > flat.from ? 0.5 * (flat.from + flat.to) : peak.index + parabolicPeakOffset(smoothed, peak.index);
+  return { volume_ml: at * step, slope_mmhg_per_ml: peak.slope };
+}
+
+/** Relative tolerance within which smoothed slopes count as equal (rounding noise is about 1e-14 of them). */
+const FLAT_TOLERANCE = 1e-9;
+
+/** The grid steps around the steepest point whose smoothed slope equals its within FLAT_TOLERANCE (and which lie
+ *  between 10 % and 90 % of the line, like the point itself): first and last step of that run. */
+function flatTop(
+  grid: Float64Array, smoothed: Float64Array, step: number, base: number, line: Line,
+  peak: { index: number; slope: number }, from: number, to: number,
+): { from: number; to: number } {
+  const floor = peak.slope * (1 - FLAT_TOLERANCE);
+  const equal = (g: number) => {
+    const level = (grid[g]! - base) / Math.max(1e-9, lineAt(line, g * step));
+    return smoothed[g]! >= floor && level >= 0.1 && level <= 0.9;
+  };
+  let first = peak.index;
+  let last = peak.index;
+  while (first - 1 >= from && equal(first - 1)) first--;
+  while (last + 1 <= to && equal(last + 1)) last++;
+  return { from: first, to: last };
 }
 
 /** Linear interpolation of the curve at the grid volumes g x step, g = 0 .. grid.length - 1 (clamped to the curve). */

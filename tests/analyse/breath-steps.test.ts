@@ -124,6 +124,21 @@ describe('inflection search', () => {
   });
 });
 
+describe('inflection of a coarsely sampled rise', () => {
+  // samples every 10 mL (50 Hz at 0.5 L/s): 0 up to 90 mL, 8 at 100, 30 at 110, 38 at 120, 40 from 130 on. The curve is
+  // straight between samples, so every point of the steepest segment (100-110 mL, 2.2 mmHg/mL) is equally steep; its
+  // centre, 105 mL, is taken (derived here), and it must not move when the values move by 1e-13 (rounding noise).
+  const volume = Array.from({ length: 51 }, (_, i) => 10 * i);
+  const co2 = volume.map((v) => (v < 100 ? 0 : v === 100 ? 8 : v === 110 ? 30 : v === 120 ? 38 : 40));
+  const at = (scale: number) => findInflection(curveOf(volume, co2.map((p) => p * scale)), 500, 0, { a: 40, b: 0 }, createBreathWorkspace())!;
+  it('is the centre of the steepest straight segment, 105 mL', () => {
+    expectClose(at(1).volume_ml, 105, { abs: 0.05 });
+  });
+  it('does not move with a 1e-13 change of the values', () => {
+    for (const scale of [1 + 1e-13, 1 - 1e-13, 1 + 3e-13]) expectClose(at(scale).volume_ml, at(1).volume_ml, { abs: 1e-6 });
+  });
+});
+
 describe('phases, window, areas, end-tidal value', () => {
   const line = { a: 40, b: 0 };
   it('curve A: phase II starts at 105 mL (last point within 5 % = 2 mmHg), phase III at 195 mL (first at 95 % = 38 mmHg)', () => {
