@@ -11,6 +11,9 @@
 import { detLog } from '../numeric/det-math';
 import { fitLine, median } from '../numeric/stats';
 
+/** One-sample falls closer than this are the same fall (mmHg; rounding noise of CO2 values is about 1e-14 mmHg). */
+const FALL_TIE_MMHG = 1e-9;
+
 export interface FallFit {
   /** time the (delayed) step starts at the sensor, s */
   t0_s: number;
@@ -38,13 +41,14 @@ export function fitInspiratoryFall(
   const i0 = lowerBound(t, from_s);
   const i1 = Math.min(n - 1, lowerBound(t, to_s));
   if (i1 - i0 < 3) return null;
-  // steepest one-sample fall
+  // steepest one-sample fall; falls equal within rounding noise (a quantised reading makes equal steps common) keep
+  // the first, so noise in the last digits cannot move the fall by a sample
   let j = -1;
   let steepest = 0;
   for (let i = i0; i < i1; i++) {
     const d = co2[i + 1]! - co2[i]!;
     if (Number.isNaN(d)) return null;
-    if (d < steepest) {
+    if (d < steepest - FALL_TIE_MMHG) {
       steepest = d;
       j = i;
     }
