@@ -120,13 +120,7 @@ function mergeRecord(b: Uint8Array, h: EdfHeader, ch: EdfChannels, r: number, on
   const nf = flow.length;
   const nc = co2.length;
   // sample i of a signal with n samples per record lies at i / n of the record
-  return mergeByTime(rows, line, {
-    nf, nc, perF: nf, perC: nc,
-    flowTime: (i) => onset + (i * h.record_s) / nf,
-    co2Time: (j) => onset + (j * h.record_s) / nc,
-    flowAt: (i) => flow[i]!,
-    co2At: (j) => co2[j]!,
-  });
+  return mergeByTime(rows, line, { flow, co2, perF: nf, perC: nc, onset_s: onset, span_s: h.record_s, rateF: nf, rateC: nc });
 }
 
 

@@ -31,39 +31,42 @@ export function signalsLayout(labels: string[], ch: SignalChannels, rate: number
   };
 }
 
-/** Where the samples of the two signals lie and how to read them (see mergeByTime). */
+/** Two signals' samples and where they lie (see mergeByTime). */
 export interface SignalPair {
-  /** flow and CO2 samples to merge */
-  nf: number;
-  nc: number;
+  flow: Float64Array;
+  co2: Float64Array;
   /** flow sample i lies at i / perF, CO2 sample j at j / perC of one common period (whole numbers) */
   perF: number;
   perC: number;
-  flowTime: (i: number) => number;
-  co2Time: (j: number) => number;
-  flowAt: (i: number) => number;
-  co2At: (j: number) => number;
+  /** times: flow sample i at onset_s + (i span_s) / rateF, CO2 sample j at onset_s + (j span_s) / rateC */
+  onset_s: number;
+  span_s: number;
+  rateF: number;
+  rateC: number;
 }
 
 /**
  * Flow and CO2 samples merged by time into rows, the times compared exactly in integers (i perC against j perF):
- * equal times give one row with both values, otherwise a row with the other value blank (NaN). Samples are read in
- * time order, flow before CO2 at one time. Rows are numbered on from `line`; returns the last number used.
+ * equal times give one row with both values, otherwise a row with the other value blank (NaN). Rows are numbered on
+ * from `line`; returns the last number used.
  */
 export function mergeByTime(rows: RowAssembler, line: number, p: SignalPair): number {
+  const { flow, co2, perF, perC, onset_s, span_s, rateF, rateC } = p;
+  const nf = flow.length;
+  const nc = co2.length;
   let i = 0;
   let j = 0;
-  while (i < p.nf || j < p.nc) {
-    const cmp = i >= p.nf ? 1 : j >= p.nc ? -1 : i * p.perC - j * p.perF;
+  while (i < nf || j < nc) {
+    const cmp = i >= nf ? 1 : j >= nc ? -1 : i * perC - j * perF;
     if (cmp === 0) {
-      rows.row(++line, p.flowTime(i), p.flowAt(i), p.co2At(j));
+      rows.row(++line, onset_s + (i * span_s) / rateF, flow[i]!, co2[j]!);
       i++;
       j++;
     } else if (cmp < 0) {
-      rows.row(++line, p.flowTime(i), p.flowAt(i), NaN);
+      rows.row(++line, onset_s + (i * span_s) / rateF, flow[i]!, NaN);
       i++;
     } else {
-      rows.row(++line, p.co2Time(j), NaN, p.co2At(j));
+      rows.row(++line, onset_s + (j * span_s) / rateC, NaN, co2[j]!);
       j++;
     }
   }

@@ -288,14 +288,18 @@ function mergeSignals(flow: SignalPlace, co2: SignalPlace, frames: number, frequ
   const sc = co2.s.spf;
   const rf = frequency * sf;
   const rc = frequency * sc;
-  // flow sample i is at i / (F sf), CO2 sample j at j / (F sc): i / sf and j / sc of a frame
+  // flow sample i is at i / (F sf), CO2 sample j at j / (F sc): i / sf and j / sc of a frame; 0 + (i x 1) / rf = i / rf
   mergeByTime(rows, 0, {
-    nf: frames * sf, nc: frames * sc, perF: sf, perC: sc,
-    flowTime: (i) => i / rf,
-    co2Time: (j) => j / rc,
-    flowAt: (i) => sampleAt(flow, i, tf),
-    co2At: (j) => sampleAt(co2, j, tc),
+    flow: samplesOf(flow, frames * sf, tf), co2: samplesOf(co2, frames * sc, tc),
+    perF: sf, perC: sc, onset_s: 0, span_s: 1, rateF: rf, rateC: rc,
   });
+}
+
+/** The first n physical samples of a signal (NaN for "no data"), tallied. */
+function samplesOf(p: SignalPlace, n: number, tally: SignalTally): Float64Array {
+  const out = new Float64Array(n);
+  for (let i = 0; i < n; i++) out[i] = sampleAt(p, i, tally);
+  return out;
 }
 
 
