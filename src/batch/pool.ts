@@ -141,7 +141,7 @@ export async function runTasks(
 ): Promise<void> {
   if (!tasks.length || stop?.aborted) return;
   const bytes = tasks.reduce((a, t) => a + t.bytes, 0);
-  const lanes = planLanes(jobs, tasks.length, readerFile !== null && mostBytesInLargeFiles(tasks, readerMinBytes), bytes);
+  const lanes = planLanes(jobs, tasks.length, readerFile !== null && mostBytesInLargeFiles(tasks, bytes, readerMinBytes), bytes);
   if (lanes.length > 1 && !workerFile) throw new Error(`the worker bundle ${WORKER_BUNDLE} was not found next to the CLI; run \`npm run build\``);
   const queue: SharedQueue = { tasks, next: 0, failed: false, stopped: false, workers: [], readerMinBytes };
   await new Promise<void>((resolve, reject) => {
@@ -160,8 +160,7 @@ export async function runTasks(
 }
 
 /** Whether at least half of the bytes are in recordings large enough for the reader thread (then threads go in pairs). */
-function mostBytesInLargeFiles(tasks: readonly RecordingTask[], readerMinBytes: number): boolean {
-  const total = tasks.reduce((a, t) => a + t.bytes, 0);
+function mostBytesInLargeFiles(tasks: readonly RecordingTask[], total: number, readerMinBytes: number): boolean {
   const big = tasks.reduce((a, t) => a + (t.bytes >= readerMinBytes ? t.bytes : 0), 0);
   return total > 0 && big >= 0.5 * total;
 }

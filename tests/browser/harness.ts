@@ -77,6 +77,14 @@ export interface Browser {
   close(): Promise<void>;
 }
 
+/** Records the page's uncaught errors and console errors into `problems` (a test expects it empty at the end). */
+export function recordErrors(page: Page, problems: string[]): void {
+  page.on('pageerror', (e) => problems.push(`page error: ${e.message}`));
+  page.on('console', (m) => {
+    if (m.type() === 'error') problems.push(`console error: ${m.text()}`);
+  });
+}
+
 /** Opens `url` in a new page of the browser, recording every request and every console message or page error. */
 export async function openWatched(browser: Browser, url: string): Promise<{ page: Page; requests: string[]; problems: string[] }> {
   const page = await browser.ctx.newPage();

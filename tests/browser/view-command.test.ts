@@ -10,7 +10,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import type { Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { haveChromium, launchBrowser, ROOT, startServer, type Browser, type Viewer } from './harness';
+import { haveChromium, launchBrowser, recordErrors, ROOT, startServer, type Browser, type Viewer } from './harness';
 
 const OPENED = 'child-sidestream.csv';
 const PICKED = 'adult-healthy.csv';
@@ -64,10 +64,7 @@ describe.skipIf(!haveChromium())('phasewise view in headless Chromium', () => {
       document.addEventListener('securitypolicyviolation', (e) => (window as unknown as { __csp: string[] }).__csp.push(`${e.violatedDirective} ${e.blockedURI}`));
     });
     browser.ctx.on('request', (r) => requests.push(r.url()));
-    page.on('pageerror', (e) => problems.push(`page error: ${e.message}`));
-    page.on('console', (m) => {
-      if (m.type() === 'error') problems.push(`console error: ${m.text()}`);
-    });
+    recordErrors(page, problems);
     await page.goto(viewer.url);
   }, 120_000);
 

@@ -19,7 +19,7 @@ import type { Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { CAUTION } from '../../src/report/caution';
 import { formatNumber } from '../../src/report/format';
-import { haveChromium, launchBrowser, ROOT, startViewer, type Browser, type Viewer } from './harness';
+import { haveChromium, launchBrowser, recordErrors, ROOT, startViewer, type Browser, type Viewer } from './harness';
 
 const FIXTURES = join(ROOT, 'tests', 'fixtures', 'edf');
 /** WFDB fixtures (tests/fixtures/wfdb, written by their own script from the format's description): header, signal files */
@@ -71,10 +71,7 @@ describe.skipIf(!haveChromium())('viewer: EDF+ and BDF+ recordings in headless C
     viewer = await startViewer(join(tmp, 'web'));
     browser = await launchBrowser();
     page = browser.page;
-    page.on('pageerror', (e) => problems.push(`page error: ${e.message}`));
-    page.on('console', (m) => {
-      if (m.type() === 'error') problems.push(`console error: ${m.text()}`);
-    });
+    recordErrors(page, problems);
     await page.goto(viewer.url);
     await waitState(page, ['idle']);
   }, 120_000);

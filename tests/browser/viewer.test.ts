@@ -21,7 +21,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { formatNumber } from '../../src/report/format';
 import { CAUTION } from '../../src/report/caution';
 import { BREATHS_CSV_COLUMNS } from '../../src/report/breaths-csv';
-import { CHROMIUM, haveChromium, launchBrowser, ROOT, startViewer, type Browser, type Viewer } from './harness';
+import { CHROMIUM, haveChromium, launchBrowser, recordErrors, ROOT, startViewer, type Browser, type Viewer } from './harness';
 
 const HAVE = haveChromium();
 const IN_CI = process.env.CI === 'true';
@@ -109,10 +109,7 @@ describe.skipIf(!HAVE)('review viewer in headless Chromium', () => {
       document.addEventListener('securitypolicyviolation', (e) => (window as unknown as { __csp: string[] }).__csp.push(`${e.violatedDirective} ${e.blockedURI}`));
     });
     browser.ctx.on('request', (r) => requests.push(r.url())); // page and worker
-    page.on('pageerror', (e) => problems.push(`page error: ${e.message}`));
-    page.on('console', (m) => {
-      if (m.type() === 'error') problems.push(`console error: ${m.text()}`);
-    });
+    recordErrors(page, problems);
     await page.goto(viewer.url);
     await waitState(page, ['idle']);
   }, 120_000);
