@@ -8,7 +8,7 @@ import { CHUNK_BYTES, notTextError, readRecordingBytes } from '../src/ingest/byt
 import { edfHeaderBytes } from '../src/ingest/edf-header';
 import { isEdfName, previewEdfHeader, readEdfBytes } from '../src/ingest/edf-reader';
 import { chooseEncoding } from '../src/ingest/encoding';
-import { isWfdbName, previewWfdbRecord, readWfdbRecord, wfdbSignalFileNames } from '../src/ingest/wfdb-reader';
+import { isWfdbName, previewWfdbRecord, readWfdbRecord } from '../src/ingest/wfdb-reader';
 import { InputError, SNIFF_CHARS, type IngestReport, type TableLayout, type IngestSettings, type SampleBlock } from '../src/index';
 import type { SignalInfo } from './protocol';
 
@@ -116,9 +116,8 @@ export async function readSignalsHead(
 ): Promise<{ signals: SignalInfo[]; layout: TableLayout }> {
   checkNotEmpty(file);
   if (isWfdbName(file.name)) {
-    const headerBytes = await bytesOf(file);
-    const { header, layout } = previewWfdbRecord(headerBytes, await filesByName(companions), settings, file.name);
-    const named = new Set(wfdbSignalFileNames(headerBytes, file.name));
+    const { header, layout } = previewWfdbRecord(await bytesOf(file), await filesByName(companions), settings, file.name);
+    const named = new Set(header.signals.map((s) => s.file));
     const unread = companions.filter((f) => !named.has(f.name)).map((f) => f.name);
     if (unread.length) layout.notes.push(`${unread.join(', ')}: chosen with ${file.name} but not among its signal files, so not read`);
     const signals = header.signals.map((s) => ({
