@@ -23,7 +23,7 @@ export interface ReadCallbacks {
   onProgress?: (bytesDone: number) => void;
 }
 
-export { isEdfName, isWfdbName };
+export { isWfdbName };
 
 /** A recording of signals rather than a text table: EDF/BDF, or a WFDB record's header. */
 export function isSignalsName(name: string): boolean {

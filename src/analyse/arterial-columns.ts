@@ -7,6 +7,18 @@ import { fletcherAreas } from '../physiology/fletcher-areas';
 import { patientDeadSpace } from '../physiology/patient-dead-space';
 import type { BreathRow } from '../types';
 
+/** The inspired PCO2 of the Bohr and Enghoff equations for a breath: its mean inspired PCO2 when the inspired term is
+ *  on and the breath has one, else 0. */
+export function inspiredPco2For(row: BreathRow, inspiredTerm: boolean): number {
+  return inspiredTerm && Number.isFinite(row.fico2_mmhg) ? row.fico2_mmhg : 0;
+}
+
+/** The breath's Enghoff dead space for the patient (fraction and mL): at the sensor from PaCO2, PĒCO2 and the inspired
+ *  PCO2, apparatus removed (enghoffDeadSpaceFraction, patientDeadSpace). */
+export function breathEnghoff(row: BreathRow, paco2Mmhg: number, inspiredMmhg: number, apparatusMl: number): { fraction: number; volume_ml: number } {
+  return patientDeadSpace(enghoffDeadSpaceFraction(paco2Mmhg, row.peco2_mmhg, inspiredMmhg), row.vt_exp_ml, apparatusMl);
+}
+
 /**
  * Sets the PaCO2-dependent columns of one breath row in place. `inspiredMmhg`: the inspired PCO2 of Enghoff's
  * equation (0 when the inspired term is off). Dead spaces are measured at the sensor and reported for the patient
@@ -16,7 +28,7 @@ import type { BreathRow } from '../types';
  */
 export function setArterialColumns(row: BreathRow, paco2Mmhg: number, inspiredMmhg: number, apparatusMl: number): void {
   const vte = row.vt_exp_ml;
-  const enghoff = patientDeadSpace(enghoffDeadSpaceFraction(paco2Mmhg, row.peco2_mmhg, inspiredMmhg), vte, apparatusMl);
+  const enghoff = breathEnghoff(row, paco2Mmhg, inspiredMmhg, apparatusMl);
   row.vdvt_enghoff = enghoff.fraction;
   row.vd_enghoff_ml = enghoff.volume_ml;
   row.vdalv_vtalv = alveolarDeadSpaceFractionArterial(paco2Mmhg, row.paeco2_mmhg, inspiredMmhg);

@@ -25,7 +25,7 @@ import { co2EliminationMlPerMin } from '../physiology/co2-elimination-rate';
 import { vtco2FromArea } from '../physiology/vtco2-from-area';
 import type { AnalysisSettings } from '../settings';
 import type { BreathRow } from '../types';
-import { setArterialColumns } from './arterial-columns';
+import { inspiredPco2For, setArterialColumns } from './arterial-columns';
 import {
   expirationSamples,
   integrateExpiration,
@@ -381,7 +381,7 @@ function recordDeadSpaces(
 ): void {
   const vte = row.vt_exp_ml;
   const fowler = at.fowlerMl;
-  const inspired = settings.bohr_inspired_term && Number.isFinite(row.fico2_mmhg) ? row.fico2_mmhg : 0;
+  const inspired = inspiredPco2For(row, settings.bohr_inspired_term);
   if (!(fowler > 0 && fowler < at.windowFromMl)) {
     flags.push('no_fowler');
   } else {

@@ -7,7 +7,7 @@ import { copyFileSync, existsSync, mkdirSync, rmSync } from 'node:fs';
 import { dirname, join, resolve } from 'node:path';
 import { writeFileAtomic } from '../node/atomic-write';
 import { countEntries, manifestJson, MANIFEST_FILE, readManifest, type Manifest, type ManifestEntry } from './manifest';
-import { REPORT_FILE, THUMB_FILE } from './process-recording';
+import { recordingOutputFiles } from './process-recording';
 import { BATCH_EXIT_SOME_FAILED } from './run-batch';
 import { STUDY_INDEX_FILE, writeStudyIndex } from './study-index';
 import { writeBatchTables } from './tables';
@@ -42,8 +42,7 @@ function copyRecordingFiles(entries: readonly { e: ManifestEntry; dir: string }[
   for (const { e, dir } of entries) {
     if (e.status !== 'ok') continue;
     const folder = dirname(e.outputs.breaths);
-    const extra = report ? [join(folder, REPORT_FILE), join(folder, THUMB_FILE)] : [];
-    for (const rel of [e.outputs.breaths, e.outputs.summary, join(folder, 'trends.csv'), join(folder, 'events.csv'), ...extra]) {
+    for (const rel of recordingOutputFiles(report).map((name) => join(folder, name))) {
       const from = resolve(dir, rel);
       const to = join(out, rel);
       if (from === to) continue;

@@ -11,9 +11,8 @@ import { writeFileAtomic } from '../node/atomic-write';
 import { composeOutputs, outputFile, outputNames } from '../report/outputs';
 import type { Settings } from '../settings';
 import { sha256File } from './hash';
-import type { BreathEvent } from '../analyse/analyser';
 import type { ReportCurve } from '../report/html/breath-chart';
-import { reportCurveOf, reportHtml } from '../report/html/report-html';
+import { collectReportCurves, reportHtml } from '../report/html/report-html';
 import { thumbnailSvg } from '../report/html/thumbnail';
 import { qualityOfStatus } from '../analyse/quality';
 import type { BreathRow } from '../types';
@@ -60,6 +59,11 @@ export const REPORT_FILE = 'report.html';
 /** `batch --report`: the recording's thumbnail for the study index (overlaid ok breaths, tiny SVG) */
 export const THUMB_FILE = 'thumb.svg';
 
+/** The files of one recording's folder (with `report.html` and `thumb.svg` when `report`). */
+export function recordingOutputFiles(report: boolean): string[] {
+  return [BREATHS_FILE, SUMMARY_FILE, 'trends.csv', 'events.csv', ...(report ? [REPORT_FILE, THUMB_FILE] : [])];
+}
+
 /** Stable code and one-line message for anything a recording can throw (naming the recording id, not the path). */
 export function describeError(e: unknown, recording: string, path: string = recording): { code: string; message: string } {
   const d = describe(e, recording);
@@ -98,8 +102,7 @@ export async function processRecording(task: RecordingTask, reader: ReaderThread
       result.resumed = true;
     } else {
       const given = new Set(task.given);
-      const curves = new Map<number, ReportCurve>();
-      const onBreath = task.report ? (e: BreathEvent) => curves.set(e.decomposition.row.breath, reportCurveOf(e)) : undefined;
+      const { curves, onBreath } = collectReportCurves(task.report === true);
       const { core, report, sha256 } = await analyseFile(task.path, task.settings, { read: reader ?? 'here', hash: result.sha256 === null, onBreath });
       if (result.sha256 === null) Object.assign(result, { sha256, size: report.bytes });
       // the recording id, not the absolute path: outputs must not depend on where the folder is mounted
@@ -122,7 +125,7 @@ export async function processRecording(task: RecordingTask, reader: ReaderThread
     result.status = 'failed';
     result.error = describeError(e, task.recording, task.path);
     // never leave an earlier run's outputs looking like this input's result
-    for (const name of [BREATHS_FILE, SUMMARY_FILE, 'trends.csv', 'events.csv', REPORT_FILE, THUMB_FILE]) rmSync(join(task.outFolder, name), { force: true });
+    for (const name of recordingOutputFiles(true)) rmSync(join(task.outFolder, name), { force: true });
     // the manifest still records what the failed input was (size and content hash), when it can be read
     if (result.sha256 === null && existsSync(task.path)) {
       try {

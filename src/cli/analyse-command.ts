@@ -16,9 +16,8 @@ import { join, resolve } from 'node:path';
 import { recordingId } from '../batch/expand-inputs';
 import { settingsForRecording, settingsPlan } from '../batch/file-settings';
 import { addInputOptions } from './options';
-import type { BreathEvent } from '../analyse/analyser';
-import type { ReportCurve } from '../report/html/breath-chart';
-import { reportCurveOf, reportHtml } from '../report/html/report-html';
+import { collectReportCurves, reportHtml } from '../report/html/report-html';
+import { REPORT_FILE } from '../batch/process-recording';
 
 export function registerAnalyse(program: Command): void {
   const cmd = program
@@ -37,8 +36,7 @@ export function registerAnalyse(program: Command): void {
     const settings = rec.settings;
     const given = new Set(rec.given);
     const gas = readGasFile(opts); // read first: a bad gas file fails before the long analysis
-    const curves = new Map<number, ReportCurve>();
-    const onBreath = opts.report ? (e: BreathEvent) => curves.set(e.decomposition.row.breath, reportCurveOf(e)) : undefined;
+    const { curves, onBreath } = collectReportCurves(opts.report === true);
     const result = await analyseFile(file, settings, { read: 'thread', onBreath });
     const out = String(opts.out);
     const gasInput = gas ? placeGasFile(gas, opts, result.report, result.core.duration_s) : null;
@@ -49,8 +47,8 @@ export function registerAnalyse(program: Command): void {
       written.push(join(out, name));
     }
     if (opts.report) {
-      writeFileAtomic(join(out, 'report.html'), reportHtml({ outputs: o, curves }));
-      written.push(join(out, 'report.html'));
+      writeFileAtomic(join(out, REPORT_FILE), reportHtml({ outputs: o, curves }));
+      written.push(join(out, REPORT_FILE));
     }
     if (!opts.quiet && opts.json) process.stdout.write(JSON.stringify(o.summary, null, 2) + '\n');
     else if (!opts.quiet) printSummary(o, written, gasInput);

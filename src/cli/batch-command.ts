@@ -14,6 +14,7 @@ import { settingsPlan } from '../batch/file-settings';
 import { mergeShards, MergeError } from '../batch/merge';
 import { BatchUsageError, runBatch } from '../batch/run-batch';
 import { parseShard, ShardError } from '../batch/shard';
+import { shellQuote } from '../batch/slurm';
 import { MANIFEST_FILE, type Manifest } from '../batch/manifest';
 import { STUDY_INDEX_FILE } from '../batch/study-index';
 import { STUDY_TABLES } from '../batch/tables';
@@ -86,12 +87,11 @@ function report(m: Manifest, out: string, quiet: boolean): void {
 
 /** The command as it could be typed again (recorded in the manifest). */
 function commandLine(inputs: readonly string[], opts: Record<string, unknown>): string {
-  const q = (s: string) => (/^[\w./:@%+=,-]+$/.test(s) ? s : `'${s.replace(/'/g, `'\\''`)}'`);
-  const parts = ['phasewise', 'batch', ...inputs.map(q)];
+  const parts = ['phasewise', 'batch', ...inputs.map(shellQuote)];
   for (const [k, v] of Object.entries(opts)) {
     if (v === undefined || v === false) continue;
     const flag = '--' + k.replace(/[A-Z]/g, (c) => '-' + c.toLowerCase());
-    parts.push(v === true ? flag : `${flag} ${q(String(v))}`);
+    parts.push(v === true ? flag : `${flag} ${shellQuote(String(v))}`);
   }
   return parts.join(' ');
 }

@@ -2,7 +2,7 @@
 // at or before the breath's start (none before the first sample; a sample drawn before the recording is not used). Same functions as the analysis with --paco2:
 // setArterialColumns (Enghoff with the breath's inspired PCO2 when bohr_inspired_term is on, the apparatus volume
 // removed; the arterial alveolar dead-space fraction; Fletcher's areas).
-import { setArterialColumns } from '../analyse/arterial-columns';
+import { inspiredPco2For, setArterialColumns } from '../analyse/arterial-columns';
 import type { BreathRow } from '../types';
 import { samplesInRecording } from './before-recording';
 import { GAS_DEFAULTS } from './gas-defaults';
@@ -21,7 +21,6 @@ export function applyArterialPco2(
     while (k + 1 < sorted.length && sorted[k + 1]!.time_s <= r.t_start_s) k++;
     if (k < 0) continue;
     const paco2 = paco2Basis(sorted[k]!, paco2Temperature).used_mmhg;
-    const inspired = inspiredTerm && Number.isFinite(r.fico2_mmhg) ? r.fico2_mmhg : 0;
-    setArterialColumns(r, paco2, inspired, apparatusMl);
+    setArterialColumns(r, paco2, inspiredPco2For(r, inspiredTerm), apparatusMl);
   }
 }

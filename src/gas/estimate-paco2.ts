@@ -1,8 +1,7 @@
 import { usableForSummary, type SummaryBreaths } from '../analyse/quality';
 import { median, normalQuantile } from '../numeric/stats';
 import { avdsf } from '../physiology/avdsf';
-import { enghoffDeadSpaceFraction } from '../physiology/enghoff-dead-space-fraction';
-import { patientDeadSpace } from '../physiology/patient-dead-space';
+import { breathEnghoff, inspiredPco2For } from '../analyse/arterial-columns';
 import type { BreathRow } from '../types';
 import { GAS_DEFAULTS } from './gas-defaults';
 import type { GasRow, Paco2Estimate } from './gas-types';
@@ -84,12 +83,11 @@ export function estimatePaco2(breaths: readonly BreathRow[], gasRows: readonly G
 
 /**
  * The breath's Enghoff VD/VT and arterial–end-tidal fraction with the estimated PaCO2 in place of a measured one, by
- * the functions the gas table and the per-breath columns use (enghoffDeadSpaceFraction, patientDeadSpace, avdsf): the
+ * the functions the per-breath columns use (breathEnghoff, inspiredPco2For, avdsf): the
  * trends of these follow PaCO2 between gases, where `vdvt_enghoff` of breaths.csv keeps the last gas's PaCO2.
  */
 function estimatedDeadSpace(b: BreathRow, paco2EstMmhg: number, opts: EstimateOptions): { vdvt_enghoff_est: number; avdsf_est: number } {
-  const inspired = (opts.inspired_term ?? true) && Number.isFinite(b.fico2_mmhg) ? b.fico2_mmhg : 0;
-  const enghoff = patientDeadSpace(enghoffDeadSpaceFraction(paco2EstMmhg, b.peco2_mmhg, inspired), b.vt_exp_ml, opts.apparatus_ml ?? 0);
+  const enghoff = breathEnghoff(b, paco2EstMmhg, inspiredPco2For(b, opts.inspired_term ?? true), opts.apparatus_ml ?? 0);
   return { vdvt_enghoff_est: enghoff.fraction, avdsf_est: avdsf(paco2EstMmhg, b.petco2_mmhg) };
 }
 

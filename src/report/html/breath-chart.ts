@@ -15,7 +15,8 @@ export interface ReportCurve extends CurveInput {
   fowler_limit_ml: number;
 }
 
-function points(c: Pick<CurveInput, 'v_ml' | 'co2_mmhg'>, step = 1): [number, number][] {
+/** The curve's (volume, CO2) points, every `step`-th one and the last. */
+export function points(c: Pick<CurveInput, 'v_ml' | 'co2_mmhg'>, step = 1): [number, number][] {
   const out: [number, number][] = [];
   const n = c.v_ml.length;
   for (let i = 0; i < n; i += step) out.push([c.v_ml[i]!, c.co2_mmhg[i]!]);
@@ -90,8 +91,8 @@ export function evenSubsample<T>(items: readonly T[], max: number): T[] {
   return items.filter((_, i) => i % k === 0);
 }
 
-/** SVG of the given curves overlaid (thin, translucent lines), x = expired volume, y = CO2. */
-export function overlaySvg(curves: readonly Pick<CurveInput, 'v_ml' | 'co2_mmhg'>[], width = 340, height = 240): string {
+/** The largest volume and CO2 of the curves, at least 100 mL and 10 mmHg (the overlays' axis ranges start there). */
+export function curvesExtent(curves: readonly Pick<CurveInput, 'v_ml' | 'co2_mmhg'>[]): { vmax: number; cmax: number } {
   let vmax = 100;
   let cmax = 10;
   for (const c of curves) {
@@ -100,6 +101,12 @@ export function overlaySvg(curves: readonly Pick<CurveInput, 'v_ml' | 'co2_mmhg'
       if (c.co2_mmhg[i]! > cmax) cmax = c.co2_mmhg[i]!;
     }
   }
+  return { vmax, cmax };
+}
+
+/** SVG of the given curves overlaid (thin, translucent lines), x = expired volume, y = CO2. */
+export function overlaySvg(curves: readonly Pick<CurveInput, 'v_ml' | 'co2_mmhg'>[], width = 340, height = 240): string {
+  const { vmax, cmax } = curvesExtent(curves);
   const f = frame(width, height, [0, Math.ceil(vmax * 1.02)], [0, Math.ceil(cmax * 1.1)]);
   const lines = curves.map((c) => {
     const step = Math.max(1, Math.ceil(c.v_ml.length / OVERLAY_LIMITS.maxPoints));

@@ -6,7 +6,7 @@ import { qualityOfStatus } from '../../analyse/quality';
 import type { BreathEvent } from '../../analyse/analyser';
 import type { GasResult } from '../../gas/index';
 import { TREND_METRICS, type TrendRow } from '../../metrics/registry';
-import { quantileSorted } from '../../numeric/stats';
+import { median } from '../../numeric/stats';
 import type { Outputs } from '../outputs';
 import type { Summary } from '../summary';
 import { breathChartSvg, evenSubsample, OVERLAY_LIMITS, overlaySvg, type ReportCurve } from './breath-chart';
@@ -21,6 +21,13 @@ import { esc } from './svg';
 export interface ReportInput {
   outputs: Pick<Outputs, 'rows' | 'summary' | 'trends' | 'events' | 'gas'>;
   curves: ReadonlyMap<number, ReportCurve>;
+}
+
+/** The report's breath curves, collected while a recording is analysed: pass `onBreath` to the analysis (undefined when
+ *  no report is wanted). */
+export function collectReportCurves(wanted: boolean): { curves: Map<number, ReportCurve>; onBreath: ((e: BreathEvent) => void) | undefined } {
+  const curves = new Map<number, ReportCurve>();
+  return { curves, onBreath: wanted ? (e: BreathEvent) => curves.set(e.decomposition.row.breath, reportCurveOf(e)) : undefined };
 }
 
 /** Copy of one decomposed breath's curve and phase III fit (Float32 curves: display only), as the report keeps it. */
@@ -77,12 +84,11 @@ function gasSection(g: GasResult): string {
   const est = g.estimates.filter((e) => Number.isFinite(e.paco2_est_mmhg));
   let estimate = '<p>No PaCO2 estimate (no breath after a usable gas sample).</p>';
   if (est.length) {
-    const sorted = est.map((e) => e.paco2_est_mmhg).sort((a, b) => a - b);
     const last = est[est.length - 1]!;
     const level = typeof g.settings.band_level === 'number' ? `${num(100 * g.settings.band_level, 0)} %` : 'the set';
     estimate =
       `<p>PaCO2 estimate between gases (PETCO2 + the gradient of the latest gas): ${est.length} breaths, median ` +
-      `<b data-gas="paco2_est_median">${num(quantileSorted(sorted, 0.5), 1)}</b> mmHg; last breath (${num(last.t_start_s / 60, 1)} min) ` +
+      `<b data-gas="paco2_est_median">${num(median(est.map((e) => e.paco2_est_mmhg)), 1)}</b> mmHg; last breath (${num(last.t_start_s / 60, 1)} min) ` +
       `${num(last.paco2_est_mmhg, 1)} mmHg, ${level} band ${num(last.band_low_mmhg, 1)} – ${num(last.band_high_mmhg, 1)} mmHg.</p>`;
   }
   const notes = g.warnings.map((w) => `<li>${esc(w)}</li>`).join('');

@@ -151,7 +151,6 @@ const GAS_COLUMNS: NumericGasKey[] = [
   'time_s', 'paco2_mmhg', 'petco2_mmhg', 'gradient_mmhg', 'avdsf', 'vdvt_bohr', 'vdvt_enghoff', 'shunt_fraction', 'gradient_alv_mmhg', 'gradient_shunt_mmhg', 'gradient_rest_mmhg',
 ];
 
-export { GAS_COLUMNS as REPORT_GAS_COLUMNS };
 
 /** Blood gases: the gas table, then the gradient split per sample as a bar (by shunt, the rest). */
 export function gasTable(g: GasResult): string {

@@ -4,7 +4,7 @@
 // analysing again.
 
 import type { CurveInput } from './breath-shapes';
-import { evenSubsample } from './breath-chart';
+import { curvesExtent, evenSubsample, points } from './breath-chart';
 import { COLOURS } from './palette';
 import { frame, pathData } from './svg';
 
@@ -15,23 +15,9 @@ export const THUMB_LIMITS = { maxBreaths: 20, maxPoints: 16, width: 120, height:
 export function thumbnailSvg(curves: readonly Pick<CurveInput, 'v_ml' | 'co2_mmhg'>[]): string {
   const { width, height } = THUMB_LIMITS;
   const drawn = evenSubsample(curves, THUMB_LIMITS.maxBreaths);
-  let vmax = 100;
-  let cmax = 10;
-  for (const c of drawn) {
-    for (let i = 0; i < c.v_ml.length; i++) {
-      if (c.v_ml[i]! > vmax) vmax = c.v_ml[i]!;
-      if (c.co2_mmhg[i]! > cmax) cmax = c.co2_mmhg[i]!;
-    }
-  }
+  const { vmax, cmax } = curvesExtent(drawn);
   const f = frame(width, height, [0, vmax * 1.02], [0, cmax * 1.1], { left: 2, right: 2, top: 2, bottom: 2 });
-  const paths = drawn.map((c) => {
-    const n = c.v_ml.length;
-    const step = Math.max(1, Math.ceil(n / THUMB_LIMITS.maxPoints));
-    const pts: [number, number][] = [];
-    for (let i = 0; i < n; i += step) pts.push([c.v_ml[i]!, c.co2_mmhg[i]!]);
-    if (n > 0 && (n - 1) % step !== 0) pts.push([c.v_ml[n - 1]!, c.co2_mmhg[n - 1]!]);
-    return `<path d="${pathData(f, pts)}"/>`;
-  });
+  const paths = drawn.map((c) => `<path d="${pathData(f, points(c, Math.max(1, Math.ceil(c.v_ml.length / THUMB_LIMITS.maxPoints))))}"/>`);
   const body = drawn.length
     ? `<g fill="none" stroke="${COLOURS.co2}" stroke-width="0.8" stroke-opacity="0.45">${paths.join('')}</g>`
     : `<line x1="${width / 2 - 8}" y1="${height / 2}" x2="${width / 2 + 8}" y2="${height / 2}" stroke="${COLOURS.axis}"/>`;
