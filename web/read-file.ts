@@ -116,7 +116,9 @@ export async function readSignalsHead(
 ): Promise<{ signals: SignalInfo[]; layout: TableLayout }> {
   checkNotEmpty(file);
   if (isWfdbName(file.name)) {
-    const { header, layout } = previewWfdbRecord(await bytesOf(file), await filesByName(companions), settings, file.name);
+    // the preview needs only which signal files were chosen, not their bytes (readRecording reads them)
+    const chosen = new Map(companions.map((f) => [f.name, new Uint8Array(0)]));
+    const { header, layout } = previewWfdbRecord(await bytesOf(file), chosen, settings, file.name);
     const named = new Set(header.signals.map((s) => s.file));
     const unread = companions.filter((f) => !named.has(f.name)).map((f) => f.name);
     if (unread.length) layout.notes.push(`${unread.join(', ')}: chosen with ${file.name} but not among its signal files, so not read`);

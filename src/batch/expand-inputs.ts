@@ -7,11 +7,12 @@
 // earlier results as recordings.
 import { closeSync, existsSync, openSync, readdirSync, readFileSync, readSync, realpathSync, statSync } from 'node:fs';
 import { basename, dirname, isAbsolute, join, posix, relative, resolve, sep } from 'node:path';
-import { isWfdbName, wfdbSignalFileNames } from '../ingest/wfdb-reader';
+import { EDF_EXTENSIONS } from '../ingest/edf-reader';
+import { isWfdbName, WFDB_EXTENSIONS, wfdbSignalFileNames } from '../ingest/wfdb-reader';
 import { globToRegExp, hasGlobChars, toPosix } from './glob';
 
 /** Extensions taken when a folder is searched (case-insensitive). */
-export const RECORDING_EXTENSIONS = ['.csv', '.tsv', '.txt', '.edf', '.bdf', '.hea'] as const;
+export const RECORDING_EXTENSIONS = ['.csv', '.tsv', '.txt', ...EDF_EXTENSIONS, ...WFDB_EXTENSIONS] as const;
 
 export interface BatchInput {
   /** recording id: the path relative to the working folder with `/` separators (absolute when outside it) */

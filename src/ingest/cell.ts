@@ -6,7 +6,8 @@
 export const MISSING_TOKENS: readonly string[] = ['', 'nan', 'na', 'n/a', '#n/a', 'null', 'none', '-', '--'];
 
 const MISSING = new Set(MISSING_TOKENS);
-const NUMBER_POINT = /^[+-]?(?:\d+\.?\d*|\.\d+)(?:[eE][+-]?\d+)?$/;
+/** A plain decimal number with a point (sign, digits, optional exponent), the whole text. */
+export const NUMBER_POINT = /^[+-]?(?:\d+\.?\d*|\.\d+)(?:[eE][+-]?\d+)?$/;
 
 /** Remove surrounding spaces and one pair of double quotes ("" inside becomes "). */
 export function unquoteCell(text: string): string {

@@ -5,6 +5,7 @@
 // for the exchange of physiological data. Clin Neurophysiol 114:1755-1761. BDF (24-bit samples, version byte 0xFF
 // followed by "BIOSEMI"): the BioSemi variant of EDF (common practice, no source beyond the format's own description).
 import { InputError } from './errors';
+import { NUMBER_POINT } from './cell';
 
 export interface EdfSignal {
   label: string;
@@ -54,7 +55,7 @@ function bad(file: string, what: string): InputError {
 /** A number field: the whole field must be a decimal number. */
 function num(b: Uint8Array, from: number, len: number, name: string, file: string): number {
   const s = field(b, from, len);
-  const v = /^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/.test(s) ? Number(s) : NaN;
+  const v = NUMBER_POINT.test(s) ? Number(s) : NaN;
   if (!Number.isFinite(v)) throw bad(file, `${name} is "${s}", not a number`);
   return v;
 }

@@ -21,6 +21,9 @@ import type { EdfAnnotation, IngestReport } from './report';
 import { RowAssembler } from './row-assembler';
 import { mergeByTime, signalsLayout } from './signal-rows';
 
+/** One decoder for every annotation signal (without `stream` each decode starts afresh). */
+const UTF8 = new TextDecoder('utf-8');
+
 /** File name extensions read as EDF / BDF (lower case, with the dot). */
 export const EDF_EXTENSIONS = ['.edf', '.bdf'] as const;
 
@@ -194,7 +197,7 @@ interface Tal { onset_s: number; duration_s: number | null; texts: string[] }
 /** Time-stamped annotation lists of one record: `+onset[\x15duration]\x14text\x14...\x14\0` (Kemp & Olivan 2003). */
 function parseTals(bytes: Uint8Array, file: string, record: number): Tal[] {
   const out: Tal[] = [];
-  const text = new TextDecoder('utf-8').decode(bytes);
+  const text = UTF8.decode(bytes);
   for (const raw of text.split('\0')) {
     if (raw === '') continue;
     const parts = raw.split('\x14');

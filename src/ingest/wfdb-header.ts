@@ -11,6 +11,7 @@
 //   physical unit assumed (DEFGAIN); the baseline defaults to the ADC zero, the ADC zero to 0; the description
 //   is the rest of the line; without one, "record NAME, signal N" (as the WFDB library names it).
 import { InputError } from './errors';
+import { NUMBER_POINT } from './cell';
 
 export interface WfdbSignal {
   /** signal file name as written ('~' for a null signal) */
@@ -55,10 +56,9 @@ export interface WfdbHeader {
 }
 
 /** WFDB's default sampling frequency and gain (DEFFREQ, DEFGAIN; header(5)). */
-export const WFDB_DEFAULT_FREQUENCY_HZ = 250;
-export const WFDB_DEFAULT_GAIN = 200;
+const WFDB_DEFAULT_FREQUENCY_HZ = 250;
+const WFDB_DEFAULT_GAIN = 200;
 
-const NUMBER = /^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/;
 const INTEGER = /^[+-]?\d+$/;
 
 function bad(file: string, line: number, what: string): InputError {
@@ -122,13 +122,13 @@ function parseRecordLine(l: Line, file: string): Omit<WfdbHeader, 'signals' | 'i
   let base_counter: number | null = null;
   if (f[2] !== undefined) {
     const m = /^([^/()]+)(?:\/([^/()]+)(?:\(([^()]+)\))?)?$/.exec(f[2]);
-    if (!m || !NUMBER.test(m[1]!) || !(Number(m[1]) > 0)) throw bad(file, l.no, `field 3 of the record line (sampling frequency) is "${f[2]}", not a positive number`);
+    if (!m || !NUMBER_POINT.test(m[1]!) || !(Number(m[1]) > 0)) throw bad(file, l.no, `field 3 of the record line (sampling frequency) is "${f[2]}", not a positive number`);
     frequency_hz = Number(m[1]);
     if (m[2] !== undefined) {
-      if (!NUMBER.test(m[2])) throw bad(file, l.no, `the counter frequency in "${f[2]}" is not a number`);
+      if (!NUMBER_POINT.test(m[2])) throw bad(file, l.no, `the counter frequency in "${f[2]}" is not a number`);
       counter_hz = Number(m[2]);
       if (m[3] !== undefined) {
-        if (!NUMBER.test(m[3])) throw bad(file, l.no, `the base counter value in "${f[2]}" is not a number`);
+        if (!NUMBER_POINT.test(m[3])) throw bad(file, l.no, `the base counter value in "${f[2]}" is not a number`);
         base_counter = Number(m[3]);
       }
     }
@@ -191,7 +191,7 @@ function parseSignalLine(l: Line, k: number, record: string, file: string): Wfdb
   const g = field(2);
   if (g !== undefined) {
     const gm = /^([^()/]+)(?:\(([^()]*)\))?(?:\/(.*))?$/.exec(g);
-    if (!gm || !NUMBER.test(gm[1]!)) throw bad(file, l.no, `field 3 of ${where} (ADC gain[(baseline)][/units]) is "${g}", its gain is not a number`);
+    if (!gm || !NUMBER_POINT.test(gm[1]!)) throw bad(file, l.no, `field 3 of ${where} (ADC gain[(baseline)][/units]) is "${g}", its gain is not a number`);
     gain = Number(gm[1]);
     if (gm[2] !== undefined) {
       if (!INTEGER.test(gm[2])) throw bad(file, l.no, `field 3 of ${where} is "${g}", its baseline "${gm[2]}" is not a whole number`);

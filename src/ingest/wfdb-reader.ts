@@ -50,18 +50,17 @@ interface FormatInfo {
   bytes: number;
   /** the "no data" value */
   invalid: number;
-  describe: string;
 }
 
 /** The formats read (signal(5)). */
 const FORMATS: ReadonlyMap<number, FormatInfo> = new Map([
-  [16, { bytes: 2, invalid: -32768, describe: '16-bit two\'s complement, little-endian' }],
-  [61, { bytes: 2, invalid: -32768, describe: '16-bit two\'s complement, big-endian' }],
-  [24, { bytes: 3, invalid: -(2 ** 23), describe: '24-bit two\'s complement, little-endian' }],
-  [32, { bytes: 4, invalid: -(2 ** 31), describe: '32-bit two\'s complement, little-endian' }],
-  [80, { bytes: 1, invalid: -128, describe: '8-bit offset binary' }],
-  [160, { bytes: 2, invalid: -32768, describe: '16-bit offset binary' }],
-  [212, { bytes: 1.5, invalid: -2048, describe: '12-bit two\'s complement, two samples in three bytes' }],
+  [16, { bytes: 2, invalid: -32768 }], // 16-bit two's complement, little-endian
+  [61, { bytes: 2, invalid: -32768 }], // 16-bit two's complement, big-endian
+  [24, { bytes: 3, invalid: -(2 ** 23) }], // 24-bit two's complement, little-endian
+  [32, { bytes: 4, invalid: -(2 ** 31) }], // 32-bit two's complement, little-endian
+  [80, { bytes: 1, invalid: -128 }], // 8-bit offset binary
+  [160, { bytes: 2, invalid: -32768 }], // 16-bit offset binary
+  [212, { bytes: 1.5, invalid: -2048 }], // 12-bit two's complement, two samples in three bytes
 ]);
 
 /** Formats WFDB knows but phasewise does not read (signal(5)), for the error message. */
